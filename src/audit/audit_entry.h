@@ -1,0 +1,43 @@
+// SPDX-License-Identifier: Apache-2.0
+// One entry of the append-only, hash-chained audit trail, and its canonical serialisation.
+//
+// Canonical form (what the hash covers), documented in DEVELOPERS.md:
+//   header  = compact JSON array
+//             [seq, recorded_at, occurred_at, actor, action, entity_kind, entity_id,
+//              reason-or-null, clock_overridden, tool_version]
+//   hash    = hex(SHA-256(prev_hash + "\n" + header + "\n" + payload))
+// where payload is the stored canonical JSON text of the rows the entry wrote (an object
+// keyed by table name, each a list of rows ordered by id, keys sorted), and prev_hash of
+// entry 1 is 64 zeros.
+#pragma once
+
+#include <cstdint>
+#include <optional>
+#include <string>
+
+namespace cw::audit {
+
+inline const std::string kGenesisHash(64, '0');
+
+struct AuditEntry {
+  std::int64_t seq = 0;
+  std::string recorded_at;  ///< UTC ISO-8601
+  std::string occurred_at;  ///< UTC ISO-8601
+  std::string actor;
+  std::string action;       ///< e.g. "lot.withdraw"
+  std::string entity_kind;  ///< e.g. "lot"
+  std::string entity_id;    ///< e.g. "CRM-NO3-0042" or "17"
+  std::optional<std::string> reason;
+  bool clock_overridden = false;
+  std::string tool_version;
+  std::string payload;  ///< canonical JSON text
+  std::string prev_hash;
+  std::string hash;
+};
+
+/// The header line of the canonical form.
+std::string canonical_header(const AuditEntry& e);
+/// The hash of `e` given its prev_hash and payload (e.hash is ignored).
+std::string compute_hash(const AuditEntry& e);
+
+}  // namespace cw::audit

@@ -1,0 +1,228 @@
+// SPDX-License-Identifier: Apache-2.0
+// The CLI11 command tree. Each subcommand declares its options and, when chosen, sets the
+// handler to run after parsing; nothing else happens here.
+#include "cli/cli_app.h"
+
+#include <CLI/CLI.hpp>
+#include <algorithm>
+#include <functional>
+
+#include "cli/commands.h"
+#include "cli/error_output.h"
+#include "core/error.h"
+
+namespace cw::cli {
+
+const char* const kCautionText =
+    "Curvewarden records calibration data and applies the rules your laboratory has configured. "
+    "It supports your quality system and never replaces it: your SOPs and method validation, your "
+    "accreditation body and the regulations that apply to you decide acceptance criteria, "
+    "intervals and reporting. Limits in the examples come from published documents and common "
+    "practice and may not suit your method. A qualified, authorised person reviews every result "
+    "before it is released.";
+
+namespace {
+
+using Action = std::function<int()>;
+
+/// A subcommand that also accepts the global options after its own name.
+CLI::App* sub(CLI::App* parent, const std::string& name, const std::string& description) {
+  CLI::App* s = parent->add_subcommand(name, description);
+  s->fallthrough();
+  return s;
+}
+
+std::optional<std::string> given(const CLI::Option* o, const std::string& value) {
+  if (o->count() == 0) return std::nullopt;
+  return value;
+}
+
+/// All option variables live here so that handlers can read them after parsing.
+struct Arguments {
+  std::string code, name, file, reason, lab, tz, material, expires, opened, certificate;
+  std::string since, entity, id;
+  long in_use_days = 0;
+  int version = 0;
+  bool out = false, back = false;
+  std::vector<std::string> values;
+};
+
+void add_registry_commands(CLI::App& app, Ctx& ctx, Arguments& a, Action& action) {
+  {
+    CLI::App* init = sub(&app, "init", "Create the store (idempotent; applies pending migrations)");
+    auto* lab = init->add_option("--lab", a.lab, "Name of the laboratory");
+    auto* tz =
+        init->add_option("--tz", a.tz, "IANA time zone of the lab (default: the system zone)");
+    init->callback([&, lab, tz] {
+      action = [&, lab, tz] { return cmd_init(ctx, {given(lab, a.lab), given(tz, a.tz)}); };
+    });
+  }
+  {
+    CLI::App* instrument = sub(&app, "instrument", "Register and list instruments, record service");
+    instrument->require_subcommand(1);
+    CLI::App* add = sub(instrument, "add", "Register an instrument");
+    add->add_option("code", a.code, "Lab code of the instrument, e.g. IC-02")->required();
+    auto* name = add->add_option("--name", a.name, "Description, e.g. 'Ion chromatograph, bay 2'");
+    add->callback([&, name] {
+      action = [&, name] { return cmd_instrument_add(ctx, a.code, given(name, a.name)); };
+    });
+
+    CLI::App* list = sub(instrument, "list", "List instruments with their service status");
+    list->callback([&] { action = [&] { return cmd_instrument_list(ctx); }; });
+
+    CLI::App* show = sub(instrument, "show", "Show one instrument and its service history");
+    show->add_option("code", a.code, "Instrument code")->required();
+    show->callback([&] { action = [&] { return cmd_instrument_show(ctx, a.code); }; });
+
+    CLI::App* service =
+        sub(instrument, "service", "Take an instrument out of service or return it");
+    service->add_option("code", a.code, "Instrument code")->required();
+    auto* out = service->add_flag("--out", a.out, "Take it out of service");
+    auto* back = service->add_flag("--back", a.back, "Return it to service");
+    out->excludes(back);
+    service->add_option("--reason", a.reason, "Why (required)")->required();
+    service->callback([&] {
+      if (!a.out && !a.back)
+        throw UsageError("give --out or --back",
+                         "e.g. instrument service IC-02 --out --reason 'pump seal'");
+      action = [&] {
+        return cmd_instrument_service(
+            ctx, {a.code, a.out ? ServiceDirection::Out : ServiceDirection::Back, a.reason});
+      };
+    });
+  }
+  {
+    CLI::App* method = sub(&app, "method", "Register methods and their versions");
+    method->require_subcommand(1);
+    CLI::App* add = sub(method, "add", "Register a new method from its TOML file (version 1)");
+    add->add_option("file", a.file, "Method file (TOML)")->required();
+    add->callback([&] { action = [&] { return cmd_method_add(ctx, a.file); }; });
+
+    CLI::App* revise = sub(method, "revise", "Register the next version of a method");
+    revise->add_option("file", a.file, "Method file (TOML) with the same code")->required();
+    revise->add_option("--reason", a.reason, "Why the method changed (required)")->required();
+    revise->callback([&] { action = [&] { return cmd_method_revise(ctx, a.file, a.reason); }; });
+
+    CLI::App* list = sub(method, "list", "List methods with the version in force");
+    list->callback([&] { action = [&] { return cmd_method_list(ctx); }; });
+
+    CLI::App* show = sub(method, "show", "Show a method version (default: the one in force)");
+    show->add_option("code", a.code, "Method code")->required();
+    auto* version =
+        show->add_option("--version", a.version, "Version number")->check(CLI::PositiveNumber);
+    show->callback([&, version] {
+      action = [&, version] {
+        return cmd_method_show(ctx, a.code,
+                               version->count() ? std::optional<int>(a.version) : std::nullopt);
+      };
+    });
+  }
+  {
+    CLI::App* lot = sub(&app, "lot", "Reference-material lots");
+    lot->require_subcommand(1);
+    CLI::App* add = sub(lot, "add", "Register a lot with its certified values");
+    add->add_option("code", a.code, "Lot code")->required();
+    add->add_option("--material", a.material, "What the material is (required)")->required();
+    add->add_option("--expires", a.expires, "Certificate expiry date, YYYY-MM-DD (required)")
+        ->required();
+    auto* opened = add->add_option("--opened", a.opened, "Date the lot was opened, YYYY-MM-DD");
+    auto* days = add->add_option("--in-use-days", a.in_use_days, "Days the opened lot may be used");
+    auto* cert = add->add_option("--certificate", a.certificate, "Certificate number or reference");
+    add->add_option("--value", a.values,
+                    "Certified value ANALYTE=CONC[±U]; repeat for each analyte")
+        ->required()
+        ->allow_extra_args(false);
+    add->callback([&, opened, days, cert] {
+      action = [&, opened, days, cert] {
+        app::LotRequest r;
+        r.code = a.code;
+        r.material = a.material;
+        r.expires = a.expires;
+        r.opened = given(opened, a.opened);
+        if (days->count()) r.in_use_days = a.in_use_days;
+        r.certificate = given(cert, a.certificate);
+        r.values = a.values;
+        return cmd_lot_add(ctx, r);
+      };
+    });
+
+    CLI::App* list = sub(lot, "list", "List lots with their status");
+    list->callback([&] { action = [&] { return cmd_lot_list(ctx); }; });
+
+    CLI::App* show = sub(lot, "show", "Show one lot");
+    show->add_option("code", a.code, "Lot code")->required();
+    show->callback([&] { action = [&] { return cmd_lot_show(ctx, a.code); }; });
+
+    CLI::App* withdraw =
+        sub(lot, "withdraw", "Withdraw a lot: curves made with it stop being valid");
+    withdraw->add_option("code", a.code, "Lot code")->required();
+    withdraw->add_option("--reason", a.reason, "Why (required)")->required();
+    withdraw->callback([&] { action = [&] { return cmd_lot_withdraw(ctx, a.code, a.reason); }; });
+  }
+  {
+    CLI::App* audit = sub(&app, "audit", "Read and verify the audit trail");
+    audit->require_subcommand(1);
+    CLI::App* log = sub(audit, "log", "List audit entries");
+    auto* since =
+        log->add_option("--since", a.since, "Only entries recorded at or after this time");
+    auto* entity = log->add_option(
+        "--entity", a.entity,
+        "Only this kind: lab, instrument, method, lot, calibration, curve, check, result");
+    auto* id = log->add_option("--id", a.id, "Only this entity id (a code or a number)");
+    log->callback([&, since, entity, id] {
+      action = [&, since, entity, id] {
+        return cmd_audit_log(ctx,
+                             {given(since, a.since), given(entity, a.entity), given(id, a.id)});
+      };
+    });
+    CLI::App* verify = sub(audit, "verify",
+                           "Recompute the hash chain and check every fact row (exit 5 if broken)");
+    verify->callback([&] { action = [&] { return cmd_audit_verify(ctx); }; });
+  }
+}
+
+}  // namespace
+
+int run_cli(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  const bool json_requested = std::find(args.begin(), args.end(), "--json") != args.end();
+  Ctx ctx{{}, out, err};
+  Arguments a;
+  Action action;
+  std::string db, as, at;
+  try {
+    CLI::App app{"curvewarden: keeps calibration curves, their validity and their provenance",
+                 "curvewarden"};
+    app.footer(std::string("\n") + kCautionText);
+    app.require_subcommand(1);
+    auto* db_opt =
+        app.add_option("--db", db, "Store file (else $CURVEWARDEN_DB, else ./curvewarden.db)");
+    auto* as_opt =
+        app.add_option("--as", as, "Person acting (else $CURVEWARDEN_USER, else the login name)");
+    auto* at_opt = app.add_option(
+        "--at", at, "When it happened / as of when (ISO-8601 with zone; default now)");
+    app.add_flag("--json", ctx.global.json, "Print one JSON document on stdout");
+    app.set_version_flag("--version", "curvewarden 0.1.0");
+
+    add_registry_commands(app, ctx, a, action);
+
+    std::vector<std::string> reversed(args.rbegin(), args.rend());
+    try {
+      app.parse(reversed);
+    } catch (const CLI::Success& e) {  // --help, --version
+      return app.exit(e, out, err);
+    } catch (const CLI::ParseError& e) {
+      throw UsageError(e.what(), "run 'curvewarden --help' (or 'curvewarden COMMAND --help')");
+    }
+    if (*db_opt) ctx.global.db = db;
+    if (*as_opt) ctx.global.as = as;
+    if (*at_opt) ctx.global.at = at;
+    if (!action) throw UsageError("no command given", "run 'curvewarden --help'");
+    return action();
+  } catch (const Error& e) {
+    return report_error(e, json_requested || ctx.global.json, out, err);
+  } catch (const std::exception& e) {
+    return report_internal_error(e.what(), json_requested || ctx.global.json, out, err);
+  }
+}
+
+}  // namespace cw::cli

@@ -1,0 +1,98 @@
+// SPDX-License-Identifier: Apache-2.0
+// The project's typed exceptions. Each carries the exit code of the product contract; main()
+// is the one place that turns them into a message and an exit status.
+#pragma once
+
+#include <optional>
+#include <stdexcept>
+#include <string>
+
+#include "core/exit_code.h"
+
+namespace cw {
+
+/// Where in an input file something went wrong (all parts optional).
+struct SourceLocation {
+  std::string file;            ///< file name as the user gave it
+  std::optional<long> line;    ///< 1-based line number
+  std::optional<long> column;  ///< 1-based column number (CSV: field number)
+  std::string field;           ///< column header or TOML key
+};
+
+/// Base of every error the tool reports to the user.
+class Error : public std::runtime_error {
+ public:
+  Error(ExitCode code, std::string kind, const std::string& message, std::string hint = {})
+      : std::runtime_error(message), code_(code), kind_(std::move(kind)), hint_(std::move(hint)) {}
+
+  ExitCode exit_code() const { return code_; }
+  /// Stable machine token for the JSON error object ("bad-usage", "bad-input", ...).
+  const std::string& kind() const { return kind_; }
+  /// Optional advice printed as "curvewarden: hint: ...".
+  const std::string& hint() const { return hint_; }
+  const std::optional<SourceLocation>& location() const { return location_; }
+  void set_location(SourceLocation where) { location_ = std::move(where); }
+
+ private:
+  ExitCode code_;
+  std::string kind_;
+  std::string hint_;
+  std::optional<SourceLocation> location_;
+};
+
+/// Bad command-line usage (unknown option, missing argument, conflicting flags). Exit 2.
+class UsageError : public Error {
+ public:
+  explicit UsageError(const std::string& message, std::string hint = {})
+      : Error(ExitCode::BadInput, "bad-usage", message, std::move(hint)) {}
+};
+
+/// Input data that breaks a rule of its format or of the domain. Exit 2, nothing written.
+class ValidationError : public Error {
+ public:
+  explicit ValidationError(const std::string& message, std::string hint = {})
+      : Error(ExitCode::BadInput, "bad-input", message, std::move(hint)) {}
+  ValidationError(SourceLocation where, const std::string& message, std::string hint = {})
+      : Error(ExitCode::BadInput, "bad-input", message, std::move(hint)) {
+    set_location(std::move(where));
+  }
+};
+
+/// A named thing (instrument, method, lot, curve, ...) does not exist. Exit 2.
+class NotFoundError : public Error {
+ public:
+  explicit NotFoundError(const std::string& message, std::string hint = {})
+      : Error(ExitCode::BadInput, "not-found", message, std::move(hint)) {}
+};
+
+/// A rule refused the action; the refusal has been recorded. Exit 3.
+class RefusedError : public Error {
+ public:
+  explicit RefusedError(const std::string& message, std::string hint = {})
+      : Error(ExitCode::Refused, "refused", message, std::move(hint)) {}
+};
+
+/// The store cannot be used: missing, not ours, too new, locked or corrupt. Exit 4.
+class StoreError : public Error {
+ public:
+  explicit StoreError(const std::string& message, std::string hint = {}, int sqlite_code = 0,
+                      int sqlite_extended_code = 0)
+      : Error(ExitCode::Store, "store", message, std::move(hint)),
+        sqlite_code_(sqlite_code),
+        sqlite_extended_code_(sqlite_extended_code) {}
+  int sqlite_code() const { return sqlite_code_; }
+  int sqlite_extended_code() const { return sqlite_extended_code_; }
+
+ private:
+  int sqlite_code_;
+  int sqlite_extended_code_;
+};
+
+/// The audit chain or a fact row does not match its recorded hash. Exit 5.
+class AuditBrokenError : public Error {
+ public:
+  explicit AuditBrokenError(const std::string& message, std::string hint = {})
+      : Error(ExitCode::AuditBroken, "audit-broken", message, std::move(hint)) {}
+};
+
+}  // namespace cw

@@ -1,0 +1,144 @@
+// SPDX-License-Identifier: Apache-2.0
+// Text helpers.
+#include "core/text.h"
+
+#include <cctype>
+#include <charconv>
+#include <cmath>
+#include <cstdio>
+
+#include "core/error.h"
+
+namespace cw {
+
+std::string trim(std::string_view s) {
+  size_t b = 0, e = s.size();
+  while (b < e && std::isspace(static_cast<unsigned char>(s[b]))) ++b;
+  while (e > b && std::isspace(static_cast<unsigned char>(s[e - 1]))) --e;
+  return std::string(s.substr(b, e - b));
+}
+
+std::string to_lower(std::string_view s) {
+  std::string out(s);
+  for (auto& c : out) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+  return out;
+}
+
+std::vector<std::string> split(std::string_view s, char sep) {
+  std::vector<std::string> parts;
+  size_t start = 0;
+  while (true) {
+    size_t at = s.find(sep, start);
+    parts.emplace_back(
+        s.substr(start, at == std::string_view::npos ? std::string_view::npos : at - start));
+    if (at == std::string_view::npos) break;
+    start = at + 1;
+  }
+  return parts;
+}
+
+std::optional<double> parse_number(std::string_view raw) {
+  const std::string text = trim(raw);
+  if (text.empty()) return std::nullopt;
+  for (char c : text) {
+    if (!(std::isdigit(static_cast<unsigned char>(c)) || c == '.' || c == '-' || c == '+' ||
+          c == 'e' || c == 'E')) {
+      return std::nullopt;
+    }
+  }
+  const char* begin = text.data();
+  if (*begin == '+') ++begin;
+  double value = 0;
+  auto [ptr, ec] = std::from_chars(begin, text.data() + text.size(), value);
+  if (ec != std::errc() || ptr != text.data() + text.size() || !std::isfinite(value)) {
+    return std::nullopt;
+  }
+  return value;
+}
+
+std::optional<long> parse_integer(std::string_view raw) {
+  const std::string text = trim(raw);
+  if (text.empty()) return std::nullopt;
+  const char* begin = text.data();
+  if (*begin == '+') ++begin;
+  long value = 0;
+  auto [ptr, ec] = std::from_chars(begin, text.data() + text.size(), value);
+  if (ec != std::errc() || ptr != text.data() + text.size()) return std::nullopt;
+  return value;
+}
+
+void check_code(std::string_view code, std::string_view what) {
+  const std::string hint =
+      "use 1 to 64 letters, digits and . _ - /, starting with a letter or digit";
+  if (code.empty()) throw ValidationError(std::string(what) + " is empty", hint);
+  if (code.size() > 64) {
+    throw ValidationError(std::string(what) + " " + quote(code) + " is longer than 64 characters",
+                          hint);
+  }
+  if (!std::isalnum(static_cast<unsigned char>(code.front()))) {
+    throw ValidationError(
+        std::string(what) + " " + quote(code) + " must start with a letter or digit", hint);
+  }
+  for (char c : code) {
+    if (!(std::isalnum(static_cast<unsigned char>(c)) || c == '.' || c == '_' || c == '-' ||
+          c == '/')) {
+      throw ValidationError(std::string(what) + " " + quote(code) + " contains the character " +
+                                quote(std::string(1, c)),
+                            hint);
+    }
+  }
+}
+
+void check_analyte_name(std::string_view name, std::string_view what) {
+  const std::string hint =
+      "use 1 to 100 printable characters without '=' and without leading or trailing spaces";
+  if (name.empty()) throw ValidationError(std::string(what) + " is empty", hint);
+  if (name.size() > 100) {
+    throw ValidationError(std::string(what) + " " + quote(name) + " is too long", hint);
+  }
+  if (std::isspace(static_cast<unsigned char>(name.front())) ||
+      std::isspace(static_cast<unsigned char>(name.back()))) {
+    throw ValidationError(std::string(what) + " " + quote(name) + " has leading or trailing spaces",
+                          hint);
+  }
+  for (char c : name) {
+    const auto u = static_cast<unsigned char>(c);
+    if (u < 0x20 || u == 0x7f || c == '=') {
+      throw ValidationError(
+          std::string(what) + " " + quote(name) + " contains a forbidden character", hint);
+    }
+  }
+}
+
+std::string format_sig(double value, int digits) {
+  if (!std::isfinite(value)) return value != value ? "nan" : (value > 0 ? "inf" : "-inf");
+  if (value == 0) return "0";
+  const double magnitude = std::floor(std::log10(std::fabs(value)));
+  char buf[64];
+  if (magnitude >= -4 && magnitude < 9) {
+    const int decimals = std::max(0, digits - 1 - static_cast<int>(magnitude));
+    std::snprintf(buf, sizeof buf, "%.*f", decimals, value);
+  } else {
+    std::snprintf(buf, sizeof buf, "%.*e", digits - 1, value);
+  }
+  return buf;
+}
+
+std::string format_plain(double value, int digits) {
+  if (!std::isfinite(value)) return format_sig(value, digits);
+  char buf[64];
+  std::snprintf(buf, sizeof buf, "%.*g", digits, value);
+  return buf;
+}
+
+std::string format_fixed(double value, int decimals) {
+  char buf[64];
+  std::snprintf(buf, sizeof buf, "%.*f", decimals, value);
+  return buf;
+}
+
+std::string quote(std::string_view s) {
+  return "'" + std::string(s) + "'";
+}
+
+}  // namespace cw

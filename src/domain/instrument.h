@@ -1,0 +1,36 @@
+// SPDX-License-Identifier: Apache-2.0
+// An instrument (one physical analyser) and its service history.
+#pragma once
+
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/time.h"
+#include "domain/ids.h"
+
+namespace cw {
+
+enum class ServiceDirection { Out, Back };
+std::string_view to_string(ServiceDirection d);  // "out" | "back"
+
+struct ServiceEvent {
+  ServiceDirection direction = ServiceDirection::Out;
+  std::string reason;
+  Instant occurred_at;
+};
+
+struct Instrument {
+  InstrumentId id;
+  std::string code;
+  std::optional<std::string> name;
+  Instant registered_at;
+  std::vector<ServiceEvent> service;  ///< in time order
+
+  /// In service at `t`: no 'out' event at or before `t` that is not followed by a 'back'.
+  bool in_service_at(Instant t) const;
+  /// The last 'out' event at or before `t` while still out at `t`, if any.
+  const ServiceEvent* out_of_service_event_at(Instant t) const;
+};
+
+}  // namespace cw

@@ -1,0 +1,51 @@
+// SPDX-License-Identifier: Apache-2.0
+// A reference-material lot with certified values, expiry and withdrawal.
+#pragma once
+
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/time.h"
+#include "domain/ids.h"
+
+namespace cw {
+
+struct CertifiedValue {
+  std::string analyte;
+  double value = 0;
+  std::optional<double> uncertainty;
+};
+
+struct LotWithdrawal {
+  std::string reason;
+  Instant occurred_at;
+};
+
+struct Lot {
+  LotId id;
+  std::string code;
+  std::string material;
+  CalendarDate expires_on;  ///< certificate expiry (usable through that day)
+  std::optional<CalendarDate> opened_on;
+  std::optional<int> in_use_days;  ///< usable for this many days after opening
+  std::optional<std::string> certificate;
+  std::vector<CertifiedValue> values;
+  Instant registered_at;
+  std::optional<LotWithdrawal> withdrawal;
+
+  /// The in-use expiry date: opened_on + in_use_days (usable through that day).
+  std::optional<CalendarDate> in_use_expires_on() const;
+  /// The earlier of the certificate expiry and the in-use expiry.
+  CalendarDate effective_expires_on() const;
+  /// The instant the lot stops being usable: the end of the lab-local day of the effective
+  /// expiry date.
+  Instant expiry_instant(const LabZone& zone) const {
+    return zone.end_of_day(effective_expires_on());
+  }
+  bool is_expired_at(Instant t, const LabZone& zone) const { return t >= expiry_instant(zone); }
+  bool is_withdrawn_at(Instant t) const { return withdrawal && withdrawal->occurred_at <= t; }
+  const CertifiedValue* value_for(const std::string& analyte) const;
+};
+
+}  // namespace cw

@@ -1,0 +1,78 @@
+// SPDX-License-Identifier: Apache-2.0
+// A method and its immutable, numbered versions (the parsed method file).
+#pragma once
+
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/time.h"
+#include "domain/ids.h"
+#include "fitting/acceptance.h"
+#include "fitting/fit.h"
+
+namespace cw {
+
+/// [calibration] of a method file.
+struct CalibrationRules {
+  fitting::Model model = fitting::Model::Linear;
+  fitting::Weighting weighting = fitting::Weighting::None;
+  int min_levels = 5;
+  std::optional<double> min_r2;
+  std::optional<double> max_error_pct;
+  std::optional<double> max_error_pct_lowest;
+  std::optional<double> min_levels_within;
+  std::optional<double> max_rf_rsd_pct;
+  Duration valid_for;
+  bool review_required = true;
+
+  fitting::AcceptanceCriteria acceptance_criteria() const;
+};
+
+/// [check] of a method file.
+struct CheckRules {
+  double tolerance_pct = 10.0;           ///< recovery must lie within 100 ± this
+  std::optional<int> samples_per_check;  ///< samples allowed after a passing check (runs)
+  std::optional<Duration> check_every;   ///< a passing check is due this often
+  std::vector<std::string> trend_rules;  ///< Westgard rules that make the curve stale
+  std::optional<double> blank_limit;     ///< blank passes below this (else below the LOD)
+};
+
+/// The content of one method file.
+struct MethodDefinition {
+  std::string code;
+  std::string title;
+  std::string unit;
+  std::vector<std::string> analytes;
+  std::optional<std::string> internal_standard;
+  CalibrationRules calibration;
+  CheckRules check;
+
+  bool has_analyte(const std::string& name) const;
+};
+
+struct MethodVersion {
+  MethodVersionId id;
+  MethodId method_id;
+  int version = 1;
+  Instant effective_at;
+  MethodDefinition definition;
+  std::string source_name;
+  std::string source_text;
+  std::string source_sha256;
+  std::optional<std::string> reason;
+};
+
+struct Method {
+  MethodId id;
+  std::string code;
+  Instant registered_at;
+  std::vector<MethodVersion> versions;  ///< in version order
+
+  /// The version in force at `t` (the latest whose effective_at <= t), or nullptr.
+  const MethodVersion* version_at(Instant t) const;
+  const MethodVersion* version_number(int n) const;
+  const MethodVersion& latest() const { return versions.back(); }
+};
+
+}  // namespace cw

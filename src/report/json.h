@@ -1,0 +1,30 @@
+// SPDX-License-Identifier: Apache-2.0
+// JSON output conventions: fields in a stable order, instants as UTC ISO-8601 with Z,
+// non-finite numbers as null.
+#pragma once
+
+#include <nlohmann/json.hpp>
+#include <optional>
+#include <string>
+
+#include "core/time.h"
+
+namespace cw::report {
+
+using Json = nlohmann::ordered_json;
+
+inline Json json_instant(Instant t) {
+  return format_utc(t);
+}
+inline Json json_number(double v) {
+  return std::isfinite(v) ? Json(v) : Json(nullptr);
+}
+inline Json json_number(const std::optional<double>& v) {
+  return v ? json_number(*v) : Json(nullptr);
+}
+template <class T>
+Json json_optional(const std::optional<T>& v) {
+  return v ? Json(*v) : Json(nullptr);
+}
+
+}  // namespace cw::report

@@ -1,0 +1,364 @@
+// SPDX-License-Identifier: Apache-2.0
+// Views of the registries and the audit trail.
+#include "report/registry_views.h"
+
+#include "core/text.h"
+#include "report/table.h"
+
+namespace cw::report {
+namespace {
+
+std::string or_dash(const std::optional<std::string>& s) {
+  return s ? *s : "-";
+}
+
+std::string opt_num(const std::optional<double>& v, const std::string& suffix = "") {
+  return v ? format_plain(*v, 6) + suffix : "-";
+}
+
+}  // namespace
+
+Json init_json(const app::InitOutcome& o, const std::string& path) {
+  return Json{{"store", path},
+              {"created", o.created},
+              {"changed", o.changed},
+              {"lab", o.settings.lab_name},
+              {"time_zone", o.settings.time_zone},
+              {"schema_version", o.schema_version}};
+}
+
+void print_init(std::ostream& out, const app::InitOutcome& o, const std::string& path) {
+  if (o.created) {
+    out << "Created store " << path << " for " << o.settings.lab_name << " (time zone "
+        << o.settings.time_zone << ", schema " << o.schema_version << ").\n";
+  } else if (o.changed) {
+    out << "Store " << path << " now records lab " << o.settings.lab_name << ", time zone "
+        << o.settings.time_zone << ".\n";
+  } else {
+    out << "Store " << path << " is up to date (schema " << o.schema_version
+        << "): " << o.settings.lab_name << ", time zone " << o.settings.time_zone << ".\n";
+  }
+}
+
+Json instrument_json(const Instrument& i, Instant at) {
+  Json service = Json::array();
+  for (const auto& e : i.service) {
+    service.push_back({{"direction", std::string(to_string(e.direction))},
+                       {"reason", e.reason},
+                       {"at", json_instant(e.occurred_at)}});
+  }
+  return Json{{"code", i.code},
+              {"name", json_optional(i.name)},
+              {"registered_at", json_instant(i.registered_at)},
+              {"in_service", i.in_service_at(at)},
+              {"service", service}};
+}
+
+void print_instrument(std::ostream& out, const Instrument& i, const LabZone& zone, Instant at) {
+  out << "Instrument " << i.code << (i.name ? "  " + *i.name : "") << "\n";
+  out << "  registered  " << zone.format_local(i.registered_at) << "\n";
+  if (const ServiceEvent* e = i.out_of_service_event_at(at)) {
+    out << "  status      OUT OF SERVICE since " << zone.format_local(e->occurred_at) << " ("
+        << e->reason << ")\n";
+  } else {
+    out << "  status      in service\n";
+  }
+  if (!i.service.empty()) {
+    out << "  service history:\n";
+    Table t({{"when"}, {"event"}, {"reason"}});
+    for (const auto& e : i.service) {
+      t.add_row(
+          {zone.format_local(e.occurred_at),
+           e.direction == ServiceDirection::Out ? "taken out of service" : "returned to service",
+           e.reason});
+    }
+    t.print(out, 4);
+  }
+}
+
+void print_instrument_list(std::ostream& out, const std::vector<Instrument>& list,
+                           const LabZone& zone, Instant at) {
+  if (list.empty()) {
+    out << "No instruments registered. Add one with 'curvewarden instrument add CODE --name "
+           "TEXT'.\n";
+    return;
+  }
+  Table t({{"code"}, {"name"}, {"status"}, {"registered"}});
+  for (const auto& i : list) {
+    const ServiceEvent* e = i.out_of_service_event_at(at);
+    t.add_row({i.code, or_dash(i.name),
+               e ? "out of service since " + zone.format_local(e->occurred_at) : "in service",
+               zone.format_local(i.registered_at)});
+  }
+  t.print(out);
+}
+
+Json method_version_json(const Method& m, const MethodVersion& v, bool with_source) {
+  const auto& d = v.definition;
+  const auto& c = d.calibration;
+  const auto& k = d.check;
+  Json j{{"code", m.code},
+         {"version", v.version},
+         {"effective_at", json_instant(v.effective_at)},
+         {"title", d.title},
+         {"unit", d.unit},
+         {"analytes", d.analytes},
+         {"internal_standard", json_optional(d.internal_standard)},
+         {"calibration",
+          {{"model", std::string(fitting::to_string(c.model))},
+           {"weighting", std::string(fitting::to_string(c.weighting))},
+           {"min_levels", c.min_levels},
+           {"min_r2", json_number(c.min_r2)},
+           {"max_error_pct", json_number(c.max_error_pct)},
+           {"max_error_pct_lowest", json_number(c.max_error_pct_lowest)},
+           {"min_levels_within", json_number(c.min_levels_within)},
+           {"max_rf_rsd_pct", json_number(c.max_rf_rsd_pct)},
+           {"valid_for", to_string(c.valid_for)},
+           {"review_required", c.review_required}}},
+         {"check",
+          {{"tolerance_pct", k.tolerance_pct},
+           {"samples_per_check", json_optional(k.samples_per_check)},
+           {"check_every", k.check_every ? Json(to_string(*k.check_every)) : Json(nullptr)},
+           {"trend_rules", k.trend_rules},
+           {"blank_limit", json_number(k.blank_limit)}}},
+         {"source_name", v.source_name},
+         {"source_sha256", v.source_sha256},
+         {"reason", json_optional(v.reason)}};
+  if (with_source) j["source_text"] = v.source_text;
+  return j;
+}
+
+Json method_json(const Method& m, Instant at) {
+  const MethodVersion* in_force = m.version_at(at);
+  Json versions = Json::array();
+  for (const auto& v : m.versions) {
+    versions.push_back({{"version", v.version},
+                        {"effective_at", json_instant(v.effective_at)},
+                        {"source_sha256", v.source_sha256},
+                        {"reason", json_optional(v.reason)}});
+  }
+  return Json{{"code", m.code},
+              {"title", m.latest().definition.title},
+              {"latest_version", m.latest().version},
+              {"version_in_force", in_force ? Json(in_force->version) : Json(nullptr)},
+              {"registered_at", json_instant(m.registered_at)},
+              {"versions", versions}};
+}
+
+void print_method_version(std::ostream& out, const Method& m, const MethodVersion& v,
+                          const LabZone& zone, Instant at) {
+  const auto& d = v.definition;
+  const auto& c = d.calibration;
+  const auto& k = d.check;
+  const MethodVersion* in_force = m.version_at(at);
+  out << "Method " << m.code << " version " << v.version << " of " << m.latest().version;
+  if (in_force && in_force->version == v.version) out << " (in force)";
+  out << "\n  " << d.title << "\n";
+  out << "  effective   " << zone.format_local(v.effective_at) << "\n";
+  if (v.reason) out << "  reason      " << *v.reason << "\n";
+  out << "  unit        " << d.unit << "\n";
+  std::string analytes;
+  for (const auto& a : d.analytes) analytes += (analytes.empty() ? "" : ", ") + a;
+  out << "  analytes    " << analytes << "\n";
+  if (d.internal_standard) out << "  internal standard  " << *d.internal_standard << "\n";
+  out << "  calibration " << fitting::to_string(c.model) << ", weighting "
+      << fitting::to_string(c.weighting) << ", valid for " << to_string(c.valid_for)
+      << (c.review_required ? ", second-person review required" : ", no review required") << "\n";
+  out << "  acceptance  at least " << c.min_levels << " levels";
+  if (c.min_r2) out << "; r² ≥ " << format_plain(*c.min_r2);
+  if (c.max_error_pct) {
+    out << "; |%RE| ≤ " << format_plain(*c.max_error_pct, 4) << " %";
+    if (c.max_error_pct_lowest)
+      out << " (lowest level ≤ " << format_plain(*c.max_error_pct_lowest, 4) << " %)";
+    if (c.min_levels_within) {
+      out << " for at least " << format_plain(100 * *c.min_levels_within, 4) << " % of levels";
+    } else {
+      out << " at every level";
+    }
+  }
+  if (c.max_rf_rsd_pct)
+    out << "; response-factor %RSD ≤ " << format_plain(*c.max_rf_rsd_pct, 4) << " %";
+  out << "\n";
+  out << "  checks      recovery within 100 ± " << format_plain(k.tolerance_pct, 4) << " %";
+  if (k.check_every) out << ", due every " << to_string(*k.check_every);
+  if (k.samples_per_check) out << ", at most " << *k.samples_per_check << " samples per check";
+  if (k.blank_limit) out << ", blanks below " << format_plain(*k.blank_limit, 6) << " " << d.unit;
+  out << "\n";
+  if (!k.trend_rules.empty()) {
+    std::string rules;
+    for (const auto& r : k.trend_rules) rules += (rules.empty() ? "" : ", ") + r;
+    out << "  trend rules " << rules << "\n";
+  }
+  out << "  file        " << v.source_name << "  sha256 " << v.source_sha256 << "\n";
+  if (m.versions.size() > 1) {
+    out << "  versions:\n";
+    Table t({{"version", Table::Align::Right}, {"effective"}, {"reason"}});
+    for (const auto& other : m.versions) {
+      t.add_row({std::to_string(other.version), zone.format_local(other.effective_at),
+                 or_dash(other.reason)});
+    }
+    t.print(out, 4);
+  }
+}
+
+void print_method_list(std::ostream& out, const std::vector<Method>& list, const LabZone& zone,
+                       Instant at) {
+  if (list.empty()) {
+    out << "No methods registered. Add one with 'curvewarden method add FILE.toml'.\n";
+    return;
+  }
+  Table t({{"code"}, {"version", Table::Align::Right}, {"in force since"}, {"model"}, {"title"}});
+  for (const auto& m : list) {
+    const MethodVersion* v = m.version_at(at);
+    if (!v) v = &m.latest();
+    t.add_row({m.code, std::to_string(v->version), zone.format_local(v->effective_at),
+               std::string(fitting::to_string(v->definition.calibration.model)),
+               v->definition.title});
+  }
+  t.print(out);
+}
+
+std::string lot_status(const Lot& lot, const LabZone& zone, Instant at) {
+  if (lot.is_withdrawn_at(at)) return "withdrawn";
+  if (lot.is_expired_at(at, zone)) return "expired";
+  return "usable";
+}
+
+Json lot_json(const Lot& lot, const LabZone& zone, Instant at) {
+  Json values = Json::array();
+  for (const auto& v : lot.values) {
+    values.push_back(
+        {{"analyte", v.analyte}, {"value", v.value}, {"uncertainty", json_number(v.uncertainty)}});
+  }
+  const auto in_use = lot.in_use_expires_on();
+  return Json{
+      {"code", lot.code},
+      {"material", lot.material},
+      {"certificate", json_optional(lot.certificate)},
+      {"expires_on", format_date(lot.expires_on)},
+      {"opened_on", lot.opened_on ? Json(format_date(*lot.opened_on)) : Json(nullptr)},
+      {"in_use_days", json_optional(lot.in_use_days)},
+      {"in_use_expires_on", in_use ? Json(format_date(*in_use)) : Json(nullptr)},
+      {"effective_expires_on", format_date(lot.effective_expires_on())},
+      {"usable_until", json_instant(lot.expiry_instant(zone))},
+      {"status", lot_status(lot, zone, at)},
+      {"withdrawn_at", lot.withdrawal ? json_instant(lot.withdrawal->occurred_at) : Json(nullptr)},
+      {"withdrawal_reason", lot.withdrawal ? Json(lot.withdrawal->reason) : Json(nullptr)},
+      {"registered_at", json_instant(lot.registered_at)},
+      {"values", values}};
+}
+
+void print_lot(std::ostream& out, const Lot& lot, const LabZone& zone, Instant at) {
+  out << "Lot " << lot.code << "  " << lot.material << "\n";
+  if (lot.certificate) out << "  certificate " << *lot.certificate << "\n";
+  out << "  expires     " << format_date(lot.expires_on) << " (certificate)\n";
+  if (lot.opened_on) {
+    out << "  opened      " << format_date(*lot.opened_on);
+    if (auto in_use = lot.in_use_expires_on()) {
+      out << ", in use for " << *lot.in_use_days << " days: until " << format_date(*in_use);
+    }
+    out << "\n";
+  }
+  out << "  usable until " << zone.format_local(lot.expiry_instant(zone)) << " (end of "
+      << format_date(lot.effective_expires_on()) << ")\n";
+  out << "  status      " << lot_status(lot, zone, at);
+  if (lot.withdrawal) {
+    out << " (withdrawn " << zone.format_local(lot.withdrawal->occurred_at) << ": "
+        << lot.withdrawal->reason << ")";
+  }
+  out << "\n  certified values:\n";
+  Table t({{"analyte"}, {"value", Table::Align::Right}, {"uncertainty", Table::Align::Right}});
+  for (const auto& v : lot.values)
+    t.add_row({v.analyte, format_plain(v.value, 8), opt_num(v.uncertainty)});
+  t.print(out, 4);
+}
+
+void print_lot_list(std::ostream& out, const std::vector<Lot>& list, const LabZone& zone,
+                    Instant at) {
+  if (list.empty()) {
+    out << "No lots registered. Add one with 'curvewarden lot add CODE --material TEXT --expires "
+           "DATE --value A=C'.\n";
+    return;
+  }
+  Table t({{"code"}, {"material"}, {"usable until"}, {"status"}, {"analytes"}});
+  for (const auto& lot : list) {
+    std::string analytes;
+    for (const auto& v : lot.values) analytes += (analytes.empty() ? "" : ", ") + v.analyte;
+    t.add_row({lot.code, lot.material, format_date(lot.effective_expires_on()),
+               lot_status(lot, zone, at), analytes});
+  }
+  t.print(out);
+}
+
+Json audit_entry_json(const audit::AuditEntry& e) {
+  Json payload;
+  try {
+    payload = Json::parse(e.payload);
+  } catch (const nlohmann::json::exception&) {
+    payload = e.payload;
+  }
+  return Json{{"seq", e.seq},
+              {"recorded_at", e.recorded_at},
+              {"occurred_at", e.occurred_at},
+              {"actor", e.actor},
+              {"action", e.action},
+              {"entity_kind", e.entity_kind},
+              {"entity_id", e.entity_id},
+              {"reason", json_optional(e.reason)},
+              {"back_dated", e.occurred_at < e.recorded_at},
+              {"clock_overridden", e.clock_overridden},
+              {"tool_version", e.tool_version},
+              {"values", payload},
+              {"prev_hash", e.prev_hash},
+              {"hash", e.hash}};
+}
+
+void print_audit_log(std::ostream& out, const std::vector<audit::AuditEntry>& entries,
+                     const LabZone& zone) {
+  if (entries.empty()) {
+    out << "No audit entries match.\n";
+    return;
+  }
+  Table t({{"seq", Table::Align::Right}, {"recorded"}, {"by"}, {"action"}, {"entity"}, {"note"}});
+  bool any_override = false;
+  for (const auto& e : entries) {
+    std::string note;
+    const Instant recorded = parse_instant(e.recorded_at);
+    const Instant occurred = parse_instant(e.occurred_at);
+    if (occurred < recorded) note = "back-dated to " + zone.format_local(occurred);
+    if (occurred > recorded) note = "dated ahead to " + zone.format_local(occurred);
+    if (e.reason) note += (note.empty() ? "" : "; ") + std::string("reason: ") + *e.reason;
+    if (e.clock_overridden) any_override = true;
+    t.add_row({std::to_string(e.seq), zone.format_local(recorded), e.actor, e.action,
+               e.entity_kind + " " + e.entity_id, note});
+  }
+  t.print(out);
+  if (any_override) {
+    out << "note: some entries were recorded with CURVEWARDEN_NOW set (a fixed clock for tests and "
+           "demos).\n";
+  }
+}
+
+Json verify_json(const store::VerifyReport& r) {
+  return Json{{"entries", r.entries},
+              {"ok", r.ok},
+              {"first_broken", json_optional(r.first_broken)},
+              {"problem", r.ok ? Json(nullptr) : Json(r.problem)},
+              {"head_hash", r.ok ? Json(r.head_hash) : Json(nullptr)}};
+}
+
+void print_verify(std::ostream& out, const store::VerifyReport& r) {
+  if (r.ok) {
+    out << "Audit trail intact: " << r.entries
+        << " entries, every hash and every fact row checked.\n";
+    out << "Head hash " << r.head_hash << "\n";
+    out << "(Record the head hash outside this store, e.g. in the lab notebook, so that a rewrite "
+           "of the whole "
+           "file can be detected later.)\n";
+  } else {
+    out << "AUDIT TRAIL BROKEN at entry "
+        << (r.first_broken ? std::to_string(*r.first_broken) : "?") << ": " << r.problem << "\n";
+  }
+}
+
+}  // namespace cw::report

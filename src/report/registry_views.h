@@ -1,0 +1,43 @@
+// SPDX-License-Identifier: Apache-2.0
+// Text and JSON views of the lab, instruments, methods, lots and the audit trail.
+#pragma once
+
+#include <ostream>
+#include <vector>
+
+#include "app/registry.h"
+#include "audit/audit_entry.h"
+#include "report/json.h"
+#include "store/audit_repository.h"
+
+namespace cw::report {
+
+Json init_json(const app::InitOutcome& o, const std::string& path);
+void print_init(std::ostream& out, const app::InitOutcome& o, const std::string& path);
+
+Json instrument_json(const Instrument& i, Instant at);
+void print_instrument(std::ostream& out, const Instrument& i, const LabZone& zone, Instant at);
+void print_instrument_list(std::ostream& out, const std::vector<Instrument>& list,
+                           const LabZone& zone, Instant at);
+
+Json method_version_json(const Method& m, const MethodVersion& v, bool with_source);
+Json method_json(const Method& m, Instant at);
+void print_method_version(std::ostream& out, const Method& m, const MethodVersion& v,
+                          const LabZone& zone, Instant at);
+void print_method_list(std::ostream& out, const std::vector<Method>& list, const LabZone& zone,
+                       Instant at);
+
+Json lot_json(const Lot& lot, const LabZone& zone, Instant at);
+void print_lot(std::ostream& out, const Lot& lot, const LabZone& zone, Instant at);
+void print_lot_list(std::ostream& out, const std::vector<Lot>& list, const LabZone& zone,
+                    Instant at);
+/// "usable", "expired" or "withdrawn" at `at`.
+std::string lot_status(const Lot& lot, const LabZone& zone, Instant at);
+
+Json audit_entry_json(const audit::AuditEntry& e);
+void print_audit_log(std::ostream& out, const std::vector<audit::AuditEntry>& entries,
+                     const LabZone& zone);
+Json verify_json(const store::VerifyReport& r);
+void print_verify(std::ostream& out, const store::VerifyReport& r);
+
+}  // namespace cw::report

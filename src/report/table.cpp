@@ -1,0 +1,48 @@
+// SPDX-License-Identifier: Apache-2.0
+// Plain-text tables.
+#include "report/table.h"
+
+#include <algorithm>
+
+namespace cw::report {
+
+std::size_t display_width(const std::string& s) {
+  std::size_t n = 0;
+  for (unsigned char c : s) {
+    if ((c & 0xC0) != 0x80) ++n;
+  }
+  return n;
+}
+
+void Table::print(std::ostream& out, int indent) const {
+  std::vector<std::size_t> width(columns_.size(), 0);
+  for (std::size_t i = 0; i < columns_.size(); ++i) width[i] = display_width(columns_[i].header);
+  for (const auto& row : rows_) {
+    for (std::size_t i = 0; i < row.size() && i < width.size(); ++i) {
+      width[i] = std::max(width[i], display_width(row[i]));
+    }
+  }
+  auto emit = [&](const std::vector<std::string>& cells) {
+    std::string line(static_cast<std::size_t>(indent), ' ');
+    for (std::size_t i = 0; i < columns_.size(); ++i) {
+      const std::string cell = i < cells.size() ? cells[i] : "";
+      const std::size_t pad = width[i] - display_width(cell);
+      const bool last = i + 1 == columns_.size();
+      if (columns_[i].align == Align::Right) {
+        line += std::string(pad, ' ') + cell;
+      } else {
+        line += cell;
+        if (!last) line += std::string(pad, ' ');
+      }
+      if (!last) line += "  ";
+    }
+    while (!line.empty() && line.back() == ' ') line.pop_back();
+    out << line << '\n';
+  };
+  std::vector<std::string> header;
+  for (const auto& c : columns_) header.push_back(c.header);
+  emit(header);
+  for (const auto& row : rows_) emit(row);
+}
+
+}  // namespace cw::report

@@ -1,0 +1,37 @@
+// SPDX-License-Identifier: Apache-2.0
+// Reading and verifying the audit trail.
+#pragma once
+
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "audit/audit_entry.h"
+#include "core/time.h"
+#include "store/connection.h"
+
+namespace cw::store {
+
+struct AuditFilter {
+  std::optional<Instant> since;  ///< recorded at or after
+  std::optional<std::string> entity_kind;
+  std::optional<std::string> entity_id;
+};
+
+std::vector<audit::AuditEntry> list_audit(Connection& c, const AuditFilter& filter);
+
+struct VerifyReport {
+  std::int64_t entries = 0;
+  bool ok = true;
+  std::optional<std::int64_t> first_broken;  ///< seq of the first entry that does not hold
+  std::string problem;                       ///< what is wrong there, in plain words
+  std::string head_hash;                     ///< hash of the last entry (anchor it elsewhere)
+};
+
+/// Walks the chain: sequence without gaps, each prev_hash linking, each hash recomputed, and
+/// every fact row equal to the row recorded in its entry's payload (rows changed, deleted or
+/// added behind the tool's back are found).
+VerifyReport verify_audit(Connection& c);
+
+}  // namespace cw::store

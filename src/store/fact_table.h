@@ -1,0 +1,43 @@
+// SPDX-License-Identifier: Apache-2.0
+// The fact tables: rows written once, each named in the payload of the audit entry that
+// wrote it (column audit_seq).
+#pragma once
+
+#include <array>
+#include <string_view>
+
+namespace cw::store {
+
+enum class FactTable {
+  LabSettings,
+  Instruments,
+  InstrumentServiceEvents,
+  Methods,
+  MethodVersions,
+  Lots,
+  LotValues,
+  LotWithdrawals,
+  Calibrations,
+  CalibrationLots,
+  Curves,
+  CurvePoints,
+  CurveReviews,
+  CurveRetirements,
+  Refusals,
+  Checks,
+  Results,
+};
+
+inline constexpr std::array kAllFactTables = {
+    FactTable::LabSettings,     FactTable::Instruments,      FactTable::InstrumentServiceEvents,
+    FactTable::Methods,         FactTable::MethodVersions,   FactTable::Lots,
+    FactTable::LotValues,       FactTable::LotWithdrawals,   FactTable::Calibrations,
+    FactTable::CalibrationLots, FactTable::Curves,           FactTable::CurvePoints,
+    FactTable::CurveReviews,    FactTable::CurveRetirements, FactTable::Refusals,
+    FactTable::Checks,          FactTable::Results,
+};
+
+/// The SQL table name (a fixed identifier, never user input).
+std::string_view table_name(FactTable t);
+
+}  // namespace cw::store

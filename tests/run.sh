@@ -1,0 +1,13 @@
+#!/usr/bin/env bash
+# Installs missing packages, builds with warnings as errors and runs every test through ctest.
+# Usage: tests/run.sh [extra ctest arguments]
+set -euo pipefail
+root=$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)
+build="${CURVEWARDEN_BUILD_DIR:-$root/build}"
+
+"$root/.ci/install-deps"
+cmake -S "$root" -B "$build" -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCURVEWARDEN_WERROR=ON \
+  -DCURVEWARDEN_BUILD_TESTS=ON >/dev/null
+cmake --build "$build" -j "$(nproc)"
+cd "$build"
+ctest --output-on-failure -j "$(nproc)" "$@"
