@@ -1,0 +1,163 @@
+// SPDX-License-Identifier: Apache-2.0
+// Calibration-curve fitting: models, weighting, least-squares fit, back-calculation and inverse
+// prediction with its confidence interval.
+//
+// Overview. fit() turns nominal concentrations and responses into a FitResult: coefficients,
+// their covariance, goodness-of-fit figures, ICH Q2 limits, response factors, the Mandel test
+// and one PointFit per input observation. back_calculate() and inverse_predict() read a FitResult
+// back (x from y). acceptance.h judges a FitResult against configured criteria.
+// This folder is pure arithmetic: it never reads the clock, the disk or the database, and its
+// public headers carry no Eigen or Boost types (those stay in least_squares.cpp and
+// quantiles.cpp). Formulas follow calibration-practice.md §1-§4.
+#pragma once
+
+#include <array>
+#include <optional>
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include "core/error.h"
+
+namespace cw::fitting {
+
+/// Calibration model (calibration-practice.md §1.1-§1.5).
+enum class Model {
+  Linear,               ///< y = a + b·x
+  LinearThroughOrigin,  ///< y = b·x
+  Quadratic,            ///< y = a + b·x + c·x²
+  MeanResponseFactor,   ///< y = RFbar·x, RFbar = mean of y/x (average response factor)
+};
+
+/// Weighting scheme of the least-squares fit (§1.3). Raw weights are evaluated per point and
+/// normalised to sum n (Miller & Miller convention).
+enum class Weighting { None, InvX, InvX2, InvY, InvY2 };
+
+/// "linear", "linear-through-origin", "quadratic", "mean-response-factor".
+std::string_view to_string(Model model);
+/// "none", "1/x", "1/x^2", "1/y", "1/y^2".
+std::string_view to_string(Weighting weighting);
+/// Inverse of to_string(Model); exact, case-sensitive match; nullopt for anything else.
+std::optional<Model> parse_model(std::string_view text);
+/// Inverse of to_string(Weighting); exact, case-sensitive match; nullopt for anything else.
+std::optional<Weighting> parse_weighting(std::string_view text);
+
+/// Distinct non-excluded levels needed to fit with >= 1 residual degree of freedom: 3 linear,
+/// 2 through-origin, 4 quadratic, 2 mean-response-factor.
+int min_levels_to_fit(Model model);
+
+/// One calibration reading: nominal concentration (or amount ratio) and response (area, height
+/// or analyte/IS ratio, already formed).
+struct Observation {
+  double x;
+  double y;
+  bool excluded = false;  ///< kept in the record and back-calculated, but not fitted
+};
+
+/// Mandel's fitting test, ISO 8466-1 (calibration-practice.md §2.2): linear against quadratic
+/// with the same weights.
+struct MandelTest {
+  double s_y1;           ///< residual SD of the line, sqrt(SSE_lin/(N-2))
+  double s_y2;           ///< residual SD of the quadratic, sqrt(SSE_quad/(N-3))
+  double ds2;            ///< DS² = SSE_lin - SSE_quad (weighted sums)
+  double test_value;     ///< PW = DS²/s_y2²
+  double f_critical_99;  ///< F(0.99; 1, N-3)
+  int dof_quadratic;     ///< N-3
+  bool linear_adequate;  ///< PW <= F(0.99; 1, N-3)
+};
+
+/// The fit seen from one input observation (same order as the input).
+struct PointFit {
+  double fitted_y = 0;                    ///< model value at x (also for excluded points)
+  std::optional<double> back_calculated;  ///< model inverse at y (nullopt if no root)
+  std::optional<double> error_pct;        ///< %RE = 100·(back-x)/x; nullopt when x == 0 or no root
+  double weight = 0;      ///< normalised weight (sum over fitted points = n); 0 for excluded points
+  double x = 0;           ///< nominal concentration, as given
+  double y = 0;           ///< response, as given
+  bool excluded = false;  ///< as given: not part of the fit
+};
+
+/// Everything known about one fitted calibration curve. Coefficients and their covariance are in
+/// the raw parameterisation y = intercept + slope·x + quadratic·x².
+struct FitResult {
+  Model model = Model::Linear;
+  Weighting weighting = Weighting::None;
+  /// 0 where the model has no such term; for mean-response-factor slope = mean RF.
+  double intercept = 0, slope = 0, quadratic = 0;
+  /// Standard errors, sqrt of the covariance diagonal (0 where absent).
+  double se_intercept = 0, se_slope = 0, se_quadratic = 0;
+  /// Parameter covariance s²·(XᵀW'X)⁻¹, order intercept, slope, quadratic; zero rows/cols where
+  /// the model has no such term.
+  std::array<std::array<double, 3>, 3> covariance{};
+  double r2 = 0;              ///< see r2_definition; 0 when the responses do not vary
+  std::string r2_definition;  ///< human text of the R² definition used
+  double residual_sd = 0;     ///< s_y/x = sqrt(Σw'e²/dof), weights on the normalised scale
+  int dof = 0;                ///< residual degrees of freedom, n - p
+  int n_points = 0;           ///< fitted (non-excluded) points, replicates counted
+  int n_levels = 0;           ///< distinct x values among the fitted points
+  double range_low = 0, range_high = 0;  ///< lowest and highest non-excluded nominal
+  /// ICH Q2: LOD = 3.3·σ/|S|, LOQ = 10·σ/|S|, σ = residual_sd, S = slope (the linear coefficient b
+  /// for the quadratic, mean RF for mean-response-factor).
+  double lod = 0, loq = 0;
+  /// Response factors y/x over the fitted points with x > 0 (SD with n-1; 0 when fewer than 2).
+  double rf_mean = 0, rf_sd = 0, rf_rsd_pct = 0;
+  /// Linear only (same weighting), when N-3 >= 1, >= 3 levels and the quadratic residual SD is
+  /// not zero.
+  std::optional<MandelTest> mandel;
+  /// Weighted means and spread on the normalised scale (unweighted: plain means, Sxx), and Σw of
+  /// the raw weights: what inverse prediction needs to place the unknown's weight w0.
+  double xbar_w = 0, ybar_w = 0, sxx_w = 0, sum_raw_weights = 0;
+  double sum_x2_w = 0;  ///< Σw'·x² (normalised weights), for through-origin
+  std::vector<PointFit> points;
+  double sse = 0;  ///< Σw'e² over the fitted points (normalised weights)
+};
+
+/// Fits `model` with `weighting` to the non-excluded observations by QR least squares on a
+/// centred, scaled design. Throws FitError when the data cannot be fitted (too few levels,
+/// weights undefined, non-finite values, mean RF with weighting or x <= 0).
+FitResult fit(Model model, Weighting weighting, const std::vector<Observation>& observations);
+
+/// Model inverse x(y), no interval. nullopt when y has no solution on the curve, the slope is zero,
+/// or the quadratic is not monotonic over its working range (vertex in [range_low, range_high]).
+std::optional<double> back_calculate(const FitResult& fit, double y);
+
+/// x-coordinate of the parabola's vertex, -b/(2c); nullopt unless the model is quadratic with
+/// c != 0.
+std::optional<double> quadratic_vertex(const FitResult& fit);
+
+/// False only for a quadratic whose vertex lies within [range_low, range_high] (§1.4).
+bool is_monotonic(const FitResult& fit);
+
+/// Result of inverse prediction (calibration-practice.md §3).
+struct Prediction {
+  double x0;          ///< predicted concentration
+  double sd_x0;       ///< standard deviation of x0 (s_x0; QUAM u(c0))
+  double ci_low;      ///< x0 - t·s_x0
+  double ci_high;     ///< x0 + t·s_x0
+  double t_quantile;  ///< t((1 + confidence)/2; dof)
+  int dof;            ///< degrees of freedom of t
+};
+
+/// Inverse prediction from the mean y0 of m readings, two-sided interval at `confidence`.
+/// Line: s_x0 = (s/|b|)·sqrt(1/(m·w0) + 1/n + (y0 - ybar_w)²/(b²·Sxx_w)) (§3.1-3.2); through
+/// origin: (s/|b|)·sqrt(1/(m·w0) + y0²/(b²·Σw'x²)), f = n-1; quadratic: delta method
+/// sqrt(s²/(m·w0) + gᵀ·Cov·g)/|b + 2c·x0|, g = (1, x0, x0²), f = n-3 (§3.4); mean response
+/// factor: delta method sqrt(s²/(m·RF²) + x0²·se_RF²/RF²), f = n-1. w0 is the unknown's weight on
+/// the normalised scale (1/x-type weights at x0, 1/y-type at y0; 1 unweighted). Throws FitError
+/// when m < 1, confidence is not in (0, 1), y0 has no solution, the curve is not monotonic over
+/// its working range, or w0 is undefined.
+Prediction inverse_predict(const FitResult& fit, double y0_mean, int m, double confidence = 0.95);
+
+/// Student-t quantile at cumulative probability p with `dof` degrees of freedom (Boost.Math).
+double student_t_quantile(double p, double dof);
+/// Fisher F quantile at cumulative probability p with (dof1, dof2) degrees of freedom. Both
+/// quantile functions throw FitError for p outside (0, 1) or degrees of freedom not above 0.
+double f_quantile(double p, double dof1, double dof2);
+
+/// The data cannot be fitted or read back; the message says why in plain words.
+class FitError : public cw::ValidationError {
+ public:
+  using ValidationError::ValidationError;
+};
+
+}  // namespace cw::fitting

@@ -1,0 +1,76 @@
+#!/usr/bin/env python3
+"""Exact reference values marked [X] in tests/unit/fitting/edge_cases_test.cpp.
+
+Fractions for the regressions, 50-digit decimals for square roots, the t quantile of the
+calibration check-value script. Run: CHECK_VALUES=path/to/calibration-check-values.py python3 extra_check_values.py
+"""
+from fractions import Fraction as Fr
+from decimal import Decimal, getcontext
+import sys
+import importlib.util
+import os
+# The domain brief's check-value script (exact rational arithmetic); pass its path in CHECK_VALUES.
+spec = importlib.util.spec_from_file_location("cv", os.environ.get("CHECK_VALUES", "calibration-check-values.py"))
+cv = importlib.util.module_from_spec(spec); spec.loader.exec_module(cv)
+getcontext().prec = 50
+def D(q): return Decimal(q.numerator)/Decimal(q.denominator)
+def g(v): return "%.12g" % float(v)
+
+def origin(x, y, w, y0, m):
+    n = len(x); sw = sum(w); w = [wi*n/sw for wi in w]
+    sx2 = sum(wi*xi*xi for wi, xi in zip(w, x))
+    b = sum(wi*xi*yi for wi, xi, yi in zip(w, x, y))/sx2
+    sse = sum(wi*(yi-b*xi)**2 for wi, xi, yi in zip(w, x, y))
+    s2 = sse/(n-1)
+    x0 = y0/b
+    return b, s2, x0, sx2, w, sw
+x = [Fr(v) for v in "1 2 4 8 16".split()]
+y = [Fr(v) for v in "2.05 3.98 8.1 15.7 32.4".split()]
+y0, m = Fr(10), 2
+t = cv.t_q(0.975, 4)
+for name, w in [("none", [Fr(1)]*5), ("1/x", [1/v for v in x])]:
+    b, s2, x0, sx2, wn, sw = origin(x, y, w, y0, m)
+    w0 = Fr(1) if name == "none" else (1/x0)*len(x)/sw
+    sx0 = D(s2).sqrt()/D(b)*D(1/(m*w0) + y0**2/(b*b*sx2)).sqrt()
+    r2 = 1 - (s2*4)/sum(wi*yi*yi for wi, yi in zip(wn, y))
+    print(name, "b", g(b), "se_b", g(D(s2/sx2).sqrt()), "s", g(D(s2).sqrt()), "R0^2", g(r2), "x0", g(x0), "w0", g(w0), "sx0", g(sx0), "half", g(float(sx0)*t))
+# MRF on S3
+c = [Fr(v) for v in "1 5 10 50 100".split()]
+a = [Fr(v) for v in "1020 5150 10080 49700 98900".split()]
+rf = [ai/ci for ai, ci in zip(a, c)]; n = 5
+RF = sum(rf)/n
+sdrf2 = sum((v-RF)**2 for v in rf)/(n-1)
+sse = sum((ai - RF*ci)**2 for ai, ci in zip(a, c))
+s2 = sse/(n-1)
+y0, m = Fr(20000), 3
+x0 = y0/RF
+var = s2/(m*RF*RF) + x0*x0*(sdrf2/n)/(RF*RF)
+sx0 = D(var).sqrt()
+print("MRF s", g(D(s2).sqrt()), "R2", g(1 - sse/sum(ai*ai for ai in a)), "x0", g(x0), "sx0", g(sx0), "half", g(float(sx0)*t), "lod", g(Decimal("3.3")*D(s2).sqrt()/D(RF)))
+# quadratic weighted 1/x on S2 data, inverse at y0=60, m=2
+xq = [Fr(i) for i in range(1, 11)]
+yq = [Fr(v) for v in "11.9 21.3 30.7 39.5 48.4 56.5 64.7 72.3 79.9 87.0".split()]
+wq = [1/v for v in xq]; n = 10; sw = sum(wq); wq = [wi*n/sw for wi in wq]
+S = [sum(wi*xi**k for wi, xi in zip(wq, xq)) for k in range(5)]
+M = [[S[i+j] for j in range(3)] for i in range(3)]
+v = [sum(wi*yi*xi**k for wi, xi, yi in zip(wq, xq, yq)) for k in range(3)]
+qa, qb, qc = cv.solve3(M, v)
+sse = sum(wi*(yi-qa-qb*xi-qc*xi*xi)**2 for wi, xi, yi in zip(wq, xq, yq))
+s2 = sse/(n-3)
+Mi = cv.inv3(M)
+print("quad 1/x a b c", g(qa), g(qb), g(qc), "s", g(D(s2).sqrt()), "se", " ".join(g(D(s2*Mi[i][i]).sqrt()) for i in range(3)))
+y0 = Decimal(60); m = 2
+A, B, C = D(qa), D(qb), D(qc)
+disc = B*B - 4*C*(A-y0)
+r1 = (-B + disc.sqrt())/(2*C); r2 = (-B - disc.sqrt())/(2*C)
+x0 = r1 if 1 <= r1 <= 10 else r2
+w0 = (1/x0) * n / D(sw)
+gv = [Decimal(1), x0, x0*x0]
+qf = sum(gv[i]*D(Mi[i][j])*gv[j] for i in range(3) for j in range(3))
+E = B + 2*C*x0
+sx0 = D(s2).sqrt()/abs(E)*(1/(m*w0) + qf).sqrt()
+print("quad 1/x inverse y0=60 m=2: x0", g(x0), "w0", g(w0), "sx0", g(sx0), "half", g(float(sx0)*cv.t_q(0.975, 7)))
+# excluded-point check on M1: back-calc of (6, 20.0)
+b = Fr(1081, 560); a0 = Fr(85, 56)
+xb = (Fr(20) - a0)/b
+print("M1 excluded (6,20): back", g(xb), "re", g(100*(xb-6)/6), "fitted", g(a0+6*b))
