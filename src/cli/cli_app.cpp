@@ -41,6 +41,13 @@ std::optional<std::string> given(const CLI::Option* o, const std::string& value)
 struct Arguments {
   std::string code, name, file, reason, lab, tz, material, expires, opened, certificate;
   std::string since, entity, id;
+  std::string method, instrument, points, note, state, analyte;
+  std::vector<std::string> lots;
+  bool approve = false, reject = false, this_week = false, csv = false;
+  double nominal = 0, response_one = 0, is_response = 0, dilution = 1;
+  std::vector<double> responses;
+  int replicates = 1;
+  std::string kind = "check", curve_id, sample, within;
   long in_use_days = 0;
   int version = 0;
   bool out = false, back = false;
@@ -181,6 +188,166 @@ void add_registry_commands(CLI::App& app, Ctx& ctx, Arguments& a, Action& action
   }
 }
 
+void add_curve_commands(CLI::App& app, Ctx& ctx, Arguments& a, Action& action) {
+  CLI::App* curve = sub(&app, "curve", "Log, list, show, review and retire calibration curves");
+  curve->require_subcommand(1);
+
+  CLI::App* log = sub(
+      curve, "log",
+      "Fit, judge and store one calibration (one curve per analyte); exit 3 if any is rejected");
+  log->add_option("--method", a.method, "Method code (the version in force at --at is used)")
+      ->required();
+  log->add_option("--instrument", a.instrument, "Instrument code")->required();
+  log->add_option("--lot", a.lots, "Reference-material lot code(s), comma-separated or repeated")
+      ->required()
+      ->allow_extra_args(false);
+  log->add_option(
+         "--points", a.points,
+         "Points file (CSV: analyte,level,nominal,response[,replicate][,is_response][,exclude])")
+      ->required();
+  auto* note = log->add_option("--note", a.note, "Free-text note kept with the calibration");
+  log->callback([&, note] {
+    action = [&, note] {
+      return cmd_curve_log(ctx, {a.method, a.instrument, a.lots, a.points, given(note, a.note)});
+    };
+  });
+
+  CLI::App* list = sub(curve, "list", "List curves with their state now (or --at)");
+  auto* state = list->add_option(
+      "--state", a.state, "Only this state: rejected, awaiting-review, active, stale, retired");
+  auto* method = list->add_option("--method", a.method, "Only this method");
+  auto* instrument = list->add_option("--instrument", a.instrument, "Only this instrument");
+  auto* analyte = list->add_option("--analyte", a.analyte, "Only this analyte");
+  list->callback([&, state, method, instrument, analyte] {
+    action = [&, state, method, instrument, analyte] {
+      return cmd_curve_list(ctx, {given(state, a.state), given(method, a.method),
+                                  given(instrument, a.instrument), given(analyte, a.analyte)});
+    };
+  });
+
+  CLI::App* show = sub(curve, "show", "Show a curve: fit report, points, state and reasons");
+  show->add_option("id", a.id, "Curve id")->required();
+  show->callback([&] { action = [&] { return cmd_curve_show(ctx, a.id); }; });
+
+  CLI::App* review =
+      sub(curve, "review", "Second-person review (the reviewer must not be the analyst)");
+  review->add_option("id", a.id, "Curve id")->required();
+  auto* approve = review->add_flag("--approve", a.approve, "Approve the curve for use");
+  auto* reject = review->add_flag("--reject", a.reject, "Reject the curve");
+  approve->excludes(reject);
+  review->add_option("--reason", a.reason, "Why (required)")->required();
+  review->callback([&] {
+    if (!a.approve && !a.reject) throw UsageError("give --approve or --reject");
+    action = [&] {
+      return cmd_curve_review(
+          ctx, a.id, a.approve ? ReviewDecision::Approve : ReviewDecision::Reject, a.reason);
+    };
+  });
+
+  CLI::App* retire = sub(curve, "retire", "Withdraw a curve from use");
+  retire->add_option("id", a.id, "Curve id")->required();
+  retire->add_option("--reason", a.reason, "Why (required)")->required();
+  retire->callback([&] { action = [&] { return cmd_curve_retire(ctx, a.id, a.reason); }; });
+}
+
+void add_quantitation_commands(CLI::App& app, Ctx& ctx, Arguments& a, Action& action) {
+  {
+    CLI::App* check = sub(&app, "check", "Check standards and blanks");
+    check->require_subcommand(1);
+    CLI::App* log =
+        sub(check, "log", "Record a check standard or blank against a curve (exit 3 if it fails)");
+    log->add_option("--curve", a.curve_id, "Curve id")->required();
+    auto* nominal =
+        log->add_option("--nominal", a.nominal, "Nominal concentration of the check standard");
+    log->add_option("--response", a.response_one, "Measured response")->required();
+    auto* is = log->add_option("--is-response", a.is_response,
+                               "Internal-standard response (methods with one)");
+    log->add_option("--kind", a.kind, "check (default) or blank")
+        ->check(CLI::IsMember({"check", "blank"}));
+    log->callback([&, nominal, is] {
+      action = [&, nominal, is] {
+        app::CheckRequest r;
+        r.curve = a.curve_id;
+        if (nominal->count()) r.nominal = a.nominal;
+        r.response = a.response_one;
+        if (is->count()) r.is_response = a.is_response;
+        r.kind = *parse_check_kind(a.kind);
+        return cmd_check_log(ctx, r);
+      };
+    });
+  }
+  {
+    CLI::App* q =
+        sub(&app, "quantify", "Quantify one sample (95 % CI) or refuse with every reason (exit 3)");
+    auto* curve = q->add_option("--curve", a.curve_id,
+                                "Curve id (or give --method, --instrument and --analyte)");
+    auto* method = q->add_option("--method", a.method, "Method code: the one active curve is used");
+    auto* instrument = q->add_option("--instrument", a.instrument, "Instrument code");
+    auto* analyte = q->add_option("--analyte", a.analyte, "Analyte name");
+    q->add_option("--response", a.responses,
+                  "Sample response; repeat for replicate readings (their mean is used)")
+        ->required()
+        ->allow_extra_args(false);
+    auto* is = q->add_option("--is-response", a.is_response,
+                             "Internal-standard response (methods with one)");
+    q->add_option("--dilution", a.dilution,
+                  "Dilution factor applied to the concentration and its interval (default 1)");
+    auto* reps = q->add_option("--replicates", a.replicates,
+                               "Number of readings the --response value is the mean of");
+    q->add_option("--sample", a.sample, "Sample id")->required();
+    q->callback([&, curve, method, instrument, analyte, is, reps] {
+      action = [&, curve, method, instrument, analyte, is, reps] {
+        app::QuantifyRequest r;
+        r.curve = given(curve, a.curve_id);
+        r.method = given(method, a.method);
+        r.instrument = given(instrument, a.instrument);
+        r.analyte = given(analyte, a.analyte);
+        r.responses = a.responses;
+        if (is->count()) r.is_response = a.is_response;
+        r.dilution = a.dilution;
+        if (reps->count()) r.replicates = a.replicates;
+        r.sample = a.sample;
+        return cmd_quantify(ctx, r);
+      };
+    });
+  }
+  {
+    CLI::App* e =
+        sub(&app, "expiring", "Active curves whose validity ends in a window, soonest first");
+    auto* week = e->add_flag("--this-week", a.this_week,
+                             "The lab-local ISO week (Monday to Sunday) holding now");
+    auto* within = e->add_option("--within", a.within,
+                                 "From now for this long, e.g. '3 days' (default 7 days)");
+    week->excludes(within);
+    e->callback([&, within] {
+      action = [&, within] { return cmd_expiring(ctx, {a.this_week, given(within, a.within)}); };
+    });
+  }
+  {
+    CLI::App* st = sub(&app, "status",
+                       "One screen per instrument: curves by state, expiring, blocked, failures");
+    st->callback([&] { action = [&] { return cmd_status(ctx); }; });
+  }
+  {
+    CLI::App* trace =
+        sub(&app, "trace", "Provenance: of a result, of a curve, the impact of a lot");
+    trace->require_subcommand(1);
+    CLI::App* result =
+        sub(trace, "result",
+            "The curve, calibration, method version, instrument, lots and checks of a result");
+    result->add_option("id", a.id, "Result id")->required();
+    result->callback([&] { action = [&] { return cmd_trace_result(ctx, a.id); }; });
+    CLI::App* curve = sub(trace, "curve", "Every check and result a curve produced");
+    curve->add_option("id", a.id, "Curve id")->required();
+    curve->callback([&] { action = [&] { return cmd_trace_curve(ctx, a.id); }; });
+    CLI::App* lot =
+        sub(trace, "lot", "Every curve made with a lot and every result those curves produced");
+    lot->add_option("code", a.code, "Lot code")->required();
+    lot->add_flag("--csv", a.csv, "Print the affected results as CSV");
+    lot->callback([&] { action = [&] { return cmd_trace_lot(ctx, a.code, a.csv); }; });
+  }
+}
+
 }  // namespace
 
 int run_cli(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
@@ -204,6 +371,8 @@ int run_cli(const std::vector<std::string>& args, std::ostream& out, std::ostrea
     app.set_version_flag("--version", "curvewarden 0.1.0");
 
     add_registry_commands(app, ctx, a, action);
+    add_curve_commands(app, ctx, a, action);
+    add_quantitation_commands(app, ctx, a, action);
 
     std::vector<std::string> reversed(args.rbegin(), args.rend());
     try {

@@ -9,6 +9,9 @@
 #include <string>
 #include <vector>
 
+#include "app/curves.h"
+#include "app/quantitation.h"
+#include "app/queries.h"
 #include "app/registry.h"
 #include "app/session.h"
 
@@ -41,5 +44,22 @@ struct AuditLogArgs {
 };
 int cmd_audit_log(Ctx& ctx, const AuditLogArgs& args);
 int cmd_audit_verify(Ctx& ctx);
+
+// curves
+int cmd_curve_log(Ctx& ctx, const app::CurveLogRequest& request);
+int cmd_curve_list(Ctx& ctx, const app::CurveListRequest& request);
+int cmd_curve_show(Ctx& ctx, const std::string& id);
+int cmd_curve_review(Ctx& ctx, const std::string& id, ReviewDecision decision,
+                     const std::string& reason);
+int cmd_curve_retire(Ctx& ctx, const std::string& id, const std::string& reason);
+
+// checks, quantitation, questions, traces
+int cmd_check_log(Ctx& ctx, const app::CheckRequest& request);
+int cmd_quantify(Ctx& ctx, const app::QuantifyRequest& request);
+int cmd_expiring(Ctx& ctx, const app::ExpiringRequest& request);
+int cmd_status(Ctx& ctx);
+int cmd_trace_result(Ctx& ctx, const std::string& id);
+int cmd_trace_curve(Ctx& ctx, const std::string& id);
+int cmd_trace_lot(Ctx& ctx, const std::string& code, bool csv);
 
 }  // namespace cw::cli

@@ -1,0 +1,75 @@
+// SPDX-License-Identifier: Apache-2.0
+// Read-only questions: what expires soon, the status board, and provenance traces.
+#pragma once
+
+#include <map>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "app/curves.h"
+#include "domain/check.h"
+
+namespace cw::app {
+
+// ---- expiring
+struct ExpiringRequest {
+  bool this_week = false;
+  std::optional<std::string> within;  ///< duration text; default "7 days"
+};
+struct ExpiringCurve {
+  CurveView curve;
+  std::string limited_by;  ///< "valid_for" or "lot CODE"
+};
+struct ExpiringOutcome {
+  Instant from, to;
+  std::vector<ExpiringCurve> curves;  ///< active at `from`-or-now, soonest first
+};
+ExpiringOutcome expiring(Session& s, const ExpiringRequest& request);
+
+// ---- status board
+struct InstrumentStatus {
+  Instrument instrument;
+  std::map<CurveState, long> counts;
+  std::vector<ExpiringCurve> expiring_soon;  ///< next 7 days
+  std::vector<std::pair<std::string, std::string>>
+      blocked;  ///< (method, analyte) without an active curve
+  std::vector<Check> recent_failures;
+};
+std::vector<InstrumentStatus> status_board(Session& s);
+
+// ---- traces
+struct CheckWithCurve {
+  Check check;
+  std::string analyte;
+};
+struct ResultTrace {
+  Result result;
+  std::optional<CurveView> curve;  ///< state as of the result's time
+  std::optional<Calibration> calibration;
+  std::optional<MethodVersion> method_version;
+  std::string method_code;
+  std::optional<Instrument> instrument;
+  std::vector<Lot> lots;
+  std::optional<Check> check_before;  ///< last check of the curve at or before the result
+  std::optional<Check> check_after;   ///< first check of the curve after the result
+};
+ResultTrace trace_result(Session& s, ResultId id);
+
+struct CurveTrace {
+  CurveView curve;
+  std::vector<Check> checks;
+  std::vector<Result> results;
+};
+CurveTrace trace_curve(Session& s, CurveId id);
+
+struct LotTrace {
+  Lot lot;
+  std::vector<CurveView> curves;
+  std::vector<Result> results;
+};
+LotTrace trace_lot(Session& s, const std::string& code);
+
+ResultId parse_result_id(const std::string& text);
+
+}  // namespace cw::app

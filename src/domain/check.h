@@ -1,0 +1,68 @@
+// SPDX-License-Identifier: Apache-2.0
+// Check standards and blanks measured against a curve, and quantified results.
+#pragma once
+
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/time.h"
+#include "domain/ids.h"
+
+namespace cw {
+
+enum class CheckKind { Check, Blank };
+std::string_view to_string(CheckKind k);  // "check" | "blank"
+std::optional<CheckKind> parse_check_kind(std::string_view text);
+
+struct Check {
+  CheckId id;
+  CurveId curve_id;
+  CheckKind kind = CheckKind::Check;
+  double nominal = 0;
+  double response = 0;
+  std::optional<double> is_response;
+  std::optional<double> measured;      ///< nullopt when the response has no solution
+  std::optional<double> recovery_pct;  ///< checks only
+  std::optional<double> limit_low;     ///< recovery limits (check)
+  std::optional<double> limit_high;    ///< recovery high limit (check) or blank limit (blank)
+  bool passed = false;
+  std::string analyst;
+  Instant occurred_at;
+};
+
+enum class ResultStatus { Reported, Refused };
+std::string_view to_string(ResultStatus s);  // "reported" | "refused"
+
+/// Why a result was refused or what a stale curve suffers from, in words for people.
+struct ReasonDetail {
+  std::string reason;            ///< token, e.g. "method-revised"
+  std::optional<Instant> since;  ///< when it started to hold
+  std::string message;           ///< plain words with the facts behind it
+};
+
+struct Result {
+  ResultId id;
+  std::string sample;
+  std::string analyte;
+  ResultStatus status = ResultStatus::Refused;
+  std::optional<CurveId> curve_id;
+  std::optional<MethodId> method_id;
+  std::optional<InstrumentId> instrument_id;
+  double response = 0;
+  std::optional<double> is_response;
+  int replicates = 1;
+  double dilution = 1;
+  std::optional<double> x0;
+  std::optional<double> sd_x0;
+  std::optional<double> concentration;
+  std::optional<double> ci_low;
+  std::optional<double> ci_high;
+  std::vector<std::string> flags;
+  std::vector<std::string> reasons;
+  std::vector<ReasonDetail> details;
+  std::string analyst;
+  Instant occurred_at;
+};
+
+}  // namespace cw

@@ -1,0 +1,32 @@
+// SPDX-License-Identifier: Apache-2.0
+// Text and JSON views of curves: the fit report, the list, and the state with its reasons.
+#pragma once
+
+#include <ostream>
+#include <vector>
+
+#include "app/curves.h"
+#include "report/json.h"
+
+namespace cw::report {
+
+/// The curve object of product.md §4.1 (with more fields).
+Json curve_json(const app::CurveView& v, const LabZone& zone);
+Json curve_list_item_json(const app::CurveView& v);
+Json reasons_json(const CurveStatus& status);
+Json reason_details_json(const std::vector<Finding>& findings);
+
+/// The fit report a chemist reads after `curve log` and `curve show`.
+void print_curve_report(std::ostream& out, const app::CurveView& v, const LabZone& zone);
+void print_calibration_header(std::ostream& out, const app::CurveView& first, const LabZone& zone,
+                              CalibrationId id);
+void print_curve_list(std::ostream& out, const std::vector<app::CurveView>& list,
+                      const LabZone& zone);
+/// "stale: method-revised, check-failed" and one indented line per reason with its facts.
+void print_status(std::ostream& out, const CurveStatus& status, const LabZone& zone,
+                  int indent = 2);
+
+/// The short caution printed under reports that lead to reported values.
+extern const char* const kReviewCaution;
+
+}  // namespace cw::report
