@@ -222,11 +222,18 @@ QuantifyOutcome quantify(Session& s, const QuantifyRequest& r) {
         std::string message = "no active curve for method " + method.code + ", instrument " +
                               instrument.code + ", analyte " + *r.analyte + " at " +
                               s.zone().format_local(at);
-        if (auto latest =
-                store::latest_curve_in_group(s.db(), method.id, instrument.id, *r.analyte, at)) {
+        // Explain with the latest curve that passed acceptance (the one the analyst expects
+        // to use); fall back to the latest curve of any verdict.
+        auto latest =
+            store::latest_curve_in_group(s.db(), method.id, instrument.id, *r.analyte, at, true);
+        if (!latest) {
+          latest = store::latest_curve_in_group(s.db(), method.id, instrument.id, *r.analyte, at);
+        }
+        if (latest) {
           const CurveStatus st = facts.status(*latest, at);
-          message += "; the latest, curve " + std::to_string(latest->value) + ", is " +
-                     std::string(to_string(st.state));
+          const bool accepted = facts.curve(*latest).verdict == Verdict::Accepted;
+          message += "; the latest " + std::string(accepted ? "accepted " : "") + "curve, " +
+                     std::to_string(latest->value) + ", is " + std::string(to_string(st.state));
           blocking.push_back({Reason::NoActiveCurve, std::nullopt, message});
           for (const auto& f : st.blocking()) blocking.push_back(f);
         } else {

@@ -148,8 +148,9 @@ int cmd_lot_add(Ctx& ctx, const app::LotRequest& request) {
   if (ctx.global.json) {
     emit(ctx, report::lot_json(lot, s.zone(), s.at()));
   } else {
-    ctx.out << "Registered lot " << lot.code << " (" << lot.material << "), usable until "
-            << s.zone().format_local(lot.expiry_instant(s.zone())) << ".\n";
+    ctx.out << "Registered lot " << lot.code << " (" << lot.material << "), usable through "
+            << format_date(lot.effective_expires_on()) << " (until "
+            << s.zone().format_local(lot.expiry_instant(s.zone())) << ").\n";
     if (lot.is_expired_at(s.at(), s.zone())) {
       ctx.err << "curvewarden: warning: lot " << lot.code << " is already expired\n";
     }

@@ -208,7 +208,7 @@ void print_calibration_header(std::ostream& out, const app::CurveView& first, co
       << zone.format_local(first.curve.acquired_at) << " by " << first.curve.analyst << "\n";
   out << "  lots:";
   for (const auto& l : first.lots) {
-    out << " " << l.code << " (" << l.material << ", usable until "
+    out << " " << l.code << " (" << l.material << ", usable through "
         << format_date(l.effective_expires_on()) << ")";
   }
   out << "\n";

@@ -47,8 +47,9 @@ std::string result_value_text(const Result& r, const std::string& unit) {
 void print_lots(std::ostream& out, const std::vector<Lot>& lots, const LabZone& zone, Instant at) {
   for (const auto& l : lots) {
     out << "    " << l.code << "  " << l.material
-        << (l.certificate ? ", certificate " + *l.certificate : "") << ", usable until "
-        << format_date(l.effective_expires_on()) << ", " << lot_status(l, zone, at) << " now\n";
+        << (l.certificate ? ", certificate " + *l.certificate : "") << ", usable through "
+        << format_date(l.effective_expires_on()) << ", " << lot_status(l, zone, at)
+        << " at the result's time\n";
     for (const auto& v : l.values) {
       out << "      " << v.analyte << " = " << format_plain(v.value)
           << (v.uncertainty ? " ± " + format_plain(*v.uncertainty) : "") << "\n";

@@ -2,6 +2,7 @@
 // SQL for calibrations, curves, points, reviews, retirements, checks, results and refusals.
 #include "store/curve_repository.h"
 
+#include <algorithm>
 #include <cmath>
 #include <limits>
 #include <nlohmann/json.hpp>
@@ -458,12 +459,13 @@ std::vector<CurveId> live_curves_in_group(Connection& c, MethodId method, Instru
 
 std::optional<CurveId> latest_curve_in_group(Connection& c, MethodId method,
                                              InstrumentId instrument, const std::string& analyte,
-                                             Instant by) {
+                                             Instant by, bool accepted_only) {
   return guarded(c, [&](Connection::Impl& impl) -> std::optional<CurveId> {
     auto& s = impl.statement(
         "SELECT id FROM curves WHERE method_id = :method AND instrument_id = :instrument AND "
-        "analyte = :analyte "
-        "AND acquired_at <= :by ORDER BY acquired_at DESC, id DESC LIMIT 1");
+        "analyte = :analyte AND acquired_at <= :by AND (:accepted = 0 OR verdict = 'accepted') "
+        "ORDER BY acquired_at DESC, id DESC LIMIT 1");
+    bind_int(s, ":accepted", accepted_only ? 1 : 0);
     bind_int(s, ":method", method.value);
     bind_int(s, ":instrument", instrument.value);
     bind_text(s, ":analyte", analyte);
@@ -495,6 +497,9 @@ std::vector<Result> results_of_curves(Connection& c, const std::vector<CurveId>&
     auto part = results_of_curve(c, id);
     out.insert(out.end(), part.begin(), part.end());
   }
+  std::sort(out.begin(), out.end(), [](const Result& a, const Result& b) {
+    return a.occurred_at != b.occurred_at ? a.occurred_at < b.occurred_at : a.id < b.id;
+  });
   return out;
 }
 

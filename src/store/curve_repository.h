@@ -49,10 +49,11 @@ std::vector<CurveId> list_curve_ids(Connection& c, const CurveFilter& f);
 std::vector<CurveId> live_curves_in_group(Connection& c, MethodId method, InstrumentId instrument,
                                           const std::string& analyte, std::optional<Instant> after,
                                           Instant by);
-/// The most recently acquired curve of a group acquired at or before `by`, if any.
+/// The most recently acquired curve of a group acquired at or before `by`, if any; with
+/// `accepted_only`, the most recent one that passed acceptance.
 std::optional<CurveId> latest_curve_in_group(Connection& c, MethodId method,
                                              InstrumentId instrument, const std::string& analyte,
-                                             Instant by);
+                                             Instant by, bool accepted_only = false);
 /// Reported results of a curve in (after, until].
 std::vector<Result> reported_results_between(Connection& c, CurveId id,
                                              std::optional<Instant> after, Instant until);

@@ -1,0 +1,104 @@
+#!/usr/bin/env bash
+# Plays the demo: a week in the life of the calibration curves of a fictional water lab.
+# Installs missing Debian packages, builds, then runs each step and says what to look at.
+# The store goes to demo/out/demo.db (rebuilt on every run).
+set -euo pipefail
+root=$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)
+build="${CURVEWARDEN_BUILD_DIR:-$root/build}"
+data="$root/demo/data"
+out="$root/demo/out"
+
+"$root/.ci/install-deps"
+cmake -S "$root" -B "$build" -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCURVEWARDEN_BUILD_TESTS=OFF >/dev/null
+cmake --build "$build" -j "$(nproc)" --target curvewarden >/dev/null
+
+rm -rf "$out" && mkdir -p "$out"
+export CURVEWARDEN_DB="$out/demo.db"
+export CURVEWARDEN_USER="r.okafor"      # the bench analyst (fictional)
+cw="$build/curvewarden"
+
+step() { printf '\n\033[1m== %s\033[0m\n' "$*"; }
+show() { printf '$ curvewarden %s\n' "$*"; "$cw" "$@" || printf '(exit %d)\n' "$?"; }
+at() { export CURVEWARDEN_NOW="$1"; }   # the demo fixes "now" so that it plays the same every time
+
+at 2026-11-30T07:30:00Z
+step "Set up the lab, an instrument, a method and two reference-material lots"
+show init --lab "Millbrook Water Laboratory" --tz Europe/Berlin
+show instrument add IC-02 --name "Ion chromatograph, bay 2"
+show method add "$data/anion-ic.toml"
+show lot add CRM-AN-0419 --material "Anion multi-element standard 1000 mg/L" --expires 2027-06-30 \
+  --opened 2026-11-02 --in-use-days 60 --certificate "CoA 0419-B" --value nitrate=1000±4 --value sulfate=1000±5
+show lot add CRM-AN-0388 --material "Anion standard, second source" --expires 2026-12-03 --value nitrate=500±3 --value sulfate=500±3
+
+at 2026-11-30T08:15:00Z
+step "Log Monday's calibration (one curve per analyte; one injection excluded with its reason)"
+show curve log --method ANION-IC --instrument IC-02 --lot CRM-AN-0419 --points "$data/ical-2026-11-30.csv" \
+  --note "Monday calibration"
+
+step "A calibration that fails the method's criteria is stored as rejected (exit 3)"
+show curve log --method ANION-IC --instrument IC-02 --lot CRM-AN-0419 --points "$data/ical-poor.csv"
+
+step "The analyst cannot approve her own curve; a second person can"
+show curve review 1 --approve --reason "own work"
+CURVEWARDEN_USER="j.lindqvist" show curve review 1 --approve --reason "fit, residuals and exclusions checked"
+CURVEWARDEN_USER="j.lindqvist" show curve review 2 --approve --reason "fit, residuals and exclusions checked"
+show curve list
+
+at 2026-11-30T09:00:00Z
+step "Opening check standard, then samples (one below the range, one above it)"
+show check log --curve 1 --nominal 10 --response 1.003
+show quantify --method ANION-IC --instrument IC-02 --analyte nitrate --response 0.742 --sample MW-1187
+show quantify --method ANION-IC --instrument IC-02 --analyte nitrate --response 0.031 --dilution 2 --sample MW-1188
+show quantify --method ANION-IC --instrument IC-02 --analyte nitrate --response 6.9 --sample MW-1189
+show quantify --method ANION-IC --instrument IC-02 --analyte sulfate --response 1.21 --sample MW-1187 --json
+
+at 2026-11-30T13:00:00Z
+step "A failing check makes the curve stale and lists the results to re-run"
+show quantify --curve 1 --response 1.52 --sample MW-1190
+show check log --curve 1 --nominal 10 --response 0.861
+show quantify --method ANION-IC --instrument IC-02 --analyte nitrate --response 0.5 --sample MW-1191
+
+at 2026-12-01T07:00:00Z
+step "Tuesday: the method is revised; Monday's curves stop being valid"
+show method revise "$data/anion-ic-v2.toml" --reason "guard column changed (change control CC-2026-114)"
+show quantify --curve 2 --response 1.0 --sample MW-1192
+step "Time travel: the same curve as it was on Monday afternoon"
+show curve show 2 --at 2026-11-30T14:00:00Z
+
+at 2026-12-01T08:30:00Z
+step "Recalibrate under version 2 with the second-source lot, which expires on Thursday"
+show curve log --method ANION-IC --instrument IC-02 --lot CRM-AN-0388 --points "$data/ical-2026-12-01.csv"
+CURVEWARDEN_USER="j.lindqvist" show curve review 4 --approve --reason "fit and residuals checked"
+CURVEWARDEN_USER="j.lindqvist" show curve review 5 --approve --reason "fit and residuals checked"
+show check log --curve 4 --nominal 10 --response 0.998
+show check log --curve 5 --nominal 25 --response 0.751
+show quantify --method ANION-IC --instrument IC-02 --analyte nitrate --response 1.52 --sample MW-1190-R
+
+step "What expires this week (the lot limits the new curves), and the status board"
+show expiring --this-week
+show status
+
+step "A lot is withdrawn: which curves and results does it touch?"
+show lot withdraw CRM-AN-0419 --reason "supplier recall notice R-7731"
+show trace lot CRM-AN-0419
+show trace lot CRM-AN-0419 --csv
+
+step "Provenance of a reported value, and the audit trail"
+show trace result 1
+show trace curve 4
+show audit log --entity curve --id 1
+show audit verify
+
+cat <<TXT
+
+What to look at:
+  - the fit report of curve 1: parameters with standard errors, r², s(y/x), LOD/LOQ, Mandel's test,
+    the per-point %RE table and the excluded sulfate injection kept with its reason;
+  - the rejected calibration (exit 3) stored with every failing criterion named;
+  - refusals (exit 3) that name every reason with its date: above the range, failed check,
+    method revised;
+  - 'trace lot' listing exactly the curves and results a withdrawn lot touched;
+  - 'audit verify' recomputing the hash chain over every entry and fact row.
+The store is $CURVEWARDEN_DB; try 'sqlite3 $CURVEWARDEN_DB "UPDATE lots SET material = 1"' (refused by a trigger).
+Curvewarden supports, and never replaces, the lab's quality system; a qualified person reviews results before release.
+TXT
