@@ -83,6 +83,14 @@ Curve build_curve(const import::PointsFile& points, const std::string& analyte,
 
 }  // namespace
 
+void require_acquired(const Session& s, const Curve& c) {
+  if (s.at() < c.acquired_at) {
+    throw ValidationError("--at " + s.zone().format_local(s.at()) + " is before curve " +
+                          std::to_string(c.id.value) + " was acquired (" +
+                          s.zone().format_local(c.acquired_at) + ")");
+  }
+}
+
 CurveId parse_curve_id(const std::string& text) {
   auto v = parse_integer(text);
   if (!v || *v < 1) throw UsageError("curve id " + quote(text) + " is not a positive whole number");
@@ -247,6 +255,7 @@ std::vector<CurveView> list_curves(Session& s, const CurveListRequest& r) {
 CurveView show_curve(Session& s, CurveId id) {
   store::ReadTransaction read(s.db());
   FactLoader facts(s);
+  require_acquired(s, facts.curve(id));
   return make_view(facts, id, s.at());
 }
 
@@ -260,10 +269,7 @@ CurveView review_curve(Session& s, CurveId id, ReviewDecision decision,
     store::ReadTransaction read(s.db());
     FactLoader facts(s);
     const Curve& c = facts.curve(id);
-    if (s.at() < c.acquired_at) {
-      throw ValidationError("--at " + s.zone().format_local(s.at()) + " is before curve " + entity +
-                            " was acquired (" + s.zone().format_local(c.acquired_at) + ")");
-    }
+    require_acquired(s, c);
     const CurveStatus status = facts.status(id, s.at());
     if (c.analyst == s.actor().name) {
       refusal = {{"self-review"},
@@ -308,10 +314,7 @@ CurveView retire_curve(Session& s, CurveId id, const std::string& reason_text) {
     store::ReadTransaction read(s.db());
     FactLoader facts(s);
     const Curve& c = facts.curve(id);
-    if (s.at() < c.acquired_at) {
-      throw ValidationError("--at " + s.zone().format_local(s.at()) + " is before curve " + entity +
-                            " was acquired (" + s.zone().format_local(c.acquired_at) + ")");
-    }
+    require_acquired(s, c);
     const CurveStatus status = facts.status(id, s.at());
     if (status.state == CurveState::Retired || status.state == CurveState::Rejected) {
       refusal = "curve " + entity + " is already " + std::string(to_string(status.state)) +

@@ -61,6 +61,9 @@ CurveView review_curve(Session& s, CurveId id, ReviewDecision decision, const st
 /// Withdraws a curve from use (refused when already retired or rejected).
 CurveView retire_curve(Session& s, CurveId id, const std::string& reason);
 
+/// Throws ValidationError when the session's moment (--at) is before the curve was acquired.
+void require_acquired(const Session& s, const Curve& c);
+
 /// Parses a curve id given on the command line ("17").
 CurveId parse_curve_id(const std::string& text);
 

@@ -86,10 +86,7 @@ CheckOutcome log_check(Session& s, const CheckRequest& r) {
     const Curve& c = facts.curve(id);
     const MethodDefinition& d = facts.version_of(id).definition;
     unit = d.unit;
-    if (at < c.acquired_at) {
-      throw ValidationError("--at " + s.zone().format_local(at) + " is before curve " + r.curve +
-                            " was acquired (" + s.zone().format_local(c.acquired_at) + ")");
-    }
+    require_acquired(s, c);
     check.curve_id = id;
     check.kind = r.kind;
     check.response = r.response;
@@ -250,11 +247,7 @@ QuantifyOutcome quantify(Session& s, const QuantifyRequest& r) {
       for (const Lot* lot : facts.lots_of(*chosen)) out.lots.push_back(*lot);
       const double y = fitted_response(version.definition, response, r.is_response, "--response");
       result.curve_id = *chosen;
-      if (at < c.acquired_at) {
-        throw ValidationError("--at " + s.zone().format_local(at) + " is before curve " +
-                              std::to_string(chosen->value) + " was acquired (" +
-                              s.zone().format_local(c.acquired_at) + ")");
-      }
+      require_acquired(s, c);
       const CurveStatus status = facts.status(*chosen, at);
       out.curve = make_view(facts, *chosen, at);
       if (!status.is_usable()) {

@@ -139,6 +139,7 @@ CurveTrace trace_curve(Session& s, CurveId id) {
   store::ReadTransaction read(s.db());
   FactLoader facts(s);
   CurveTrace t;
+  require_acquired(s, facts.curve(id));
   t.curve = make_view(facts, id, s.at());
   t.checks = facts.facts(id).checks;
   t.results = store::results_of_curve(s.db(), id);
