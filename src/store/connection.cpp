@@ -132,8 +132,9 @@ Connection Connection::open(const OpenOptions& options,
     db.exec("PRAGMA foreign_keys = ON");
     db.exec("PRAGMA synchronous = NORMAL");
     if (user_version < latest) {
-      SystemClock clock;
-      migrate(*impl, migrations, clock);
+      // CURVEWARDEN_NOW replaces "now" everywhere (product.md §3), applied_at included.
+      const auto clock = clock_from_environment();
+      migrate(*impl, migrations, *clock);
     }
   } catch (const SQLite::Exception& e) {
     rethrow_sqlite(e, options.path);

@@ -1,0 +1,466 @@
+-- SPDX-License-Identifier: Apache-2.0
+-- The store's schema after every migration in migrations/, for readers and reviewers.
+-- GENERATED: the normalised dump of sqlite_master (type, name, sql; ordered by type, then
+-- name; SQLite's internal objects left out; trailing spaces removed), followed by the
+-- schema version. Do not edit: tests/unit/store/schema_snapshot_test.cpp compares this
+-- file with what the migrations build and fails when they differ. To regenerate after
+-- adding a migration, run from the repository root
+--   CURVEWARDEN_UPDATE_SCHEMA_SNAPSHOT=1 build-tests/tests/unit/store/store_tests '[schema]'
+-- (with your build directory) and review the diff together with the migration.
+
+-- index audit_log_by_entity
+CREATE INDEX audit_log_by_entity ON audit_log (entity_kind, entity_id, seq);
+
+-- index audit_log_by_recorded
+CREATE INDEX audit_log_by_recorded ON audit_log (recorded_at);
+
+-- index calibration_lots_by_lot
+CREATE INDEX calibration_lots_by_lot ON calibration_lots (lot_id);
+
+-- index checks_by_curve
+CREATE INDEX checks_by_curve ON checks (curve_id, occurred_at);
+
+-- index curve_retirements_by_curve
+CREATE INDEX curve_retirements_by_curve ON curve_retirements (curve_id, occurred_at);
+
+-- index curve_reviews_by_curve
+CREATE INDEX curve_reviews_by_curve ON curve_reviews (curve_id, occurred_at);
+
+-- index curves_by_calibration
+CREATE INDEX curves_by_calibration ON curves (calibration_id);
+
+-- index curves_by_expiry
+CREATE INDEX curves_by_expiry ON curves (expires_at);
+
+-- index curves_by_group
+CREATE INDEX curves_by_group ON curves (method_id, instrument_id, analyte, acquired_at);
+
+-- index curves_by_instrument
+CREATE INDEX curves_by_instrument ON curves (instrument_id, expires_at);
+
+-- index instrument_service_events_by_instrument
+CREATE INDEX instrument_service_events_by_instrument
+  ON instrument_service_events (instrument_id, occurred_at);
+
+-- index results_by_curve
+CREATE INDEX results_by_curve ON results (curve_id, occurred_at);
+
+-- table audit_log
+CREATE TABLE audit_log (
+  seq              INTEGER PRIMARY KEY,           -- 1, 2, 3, ... without gaps
+  recorded_at      TEXT    NOT NULL,              -- when the entry was written (UTC)
+  occurred_at      TEXT    NOT NULL,              -- when the recorded event happened (--at)
+  actor            TEXT    NOT NULL,
+  action           TEXT    NOT NULL,              -- e.g. 'lot.withdraw'
+  entity_kind      TEXT    NOT NULL,              -- e.g. 'lot'
+  entity_id        TEXT    NOT NULL,              -- the id people use: a code or a number
+  reason           TEXT,
+  clock_overridden INTEGER NOT NULL CHECK (clock_overridden IN (0, 1)),
+  tool_version     TEXT    NOT NULL,
+  payload          TEXT    NOT NULL,              -- canonical JSON of the rows written
+  prev_hash        TEXT    NOT NULL CHECK (length(prev_hash) = 64),
+  hash             TEXT    NOT NULL CHECK (length(hash) = 64)
+) STRICT;
+
+-- table calibration_lots
+CREATE TABLE calibration_lots (
+  id             INTEGER PRIMARY KEY AUTOINCREMENT,
+  calibration_id INTEGER NOT NULL REFERENCES calibrations (id),
+  lot_id         INTEGER NOT NULL REFERENCES lots (id),
+  audit_seq      INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED,
+  UNIQUE (calibration_id, lot_id)
+) STRICT;
+
+-- table calibrations
+CREATE TABLE calibrations (
+  id                INTEGER PRIMARY KEY AUTOINCREMENT,
+  method_version_id INTEGER NOT NULL REFERENCES method_versions (id),
+  instrument_id     INTEGER NOT NULL REFERENCES instruments (id),
+  acquired_at       TEXT    NOT NULL,
+  analyst           TEXT    NOT NULL,
+  note              TEXT,
+  points_file       TEXT    NOT NULL,
+  points_sha256     TEXT    NOT NULL CHECK (length(points_sha256) = 64),
+  audit_seq         INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
+-- table checks
+CREATE TABLE checks (
+  id            INTEGER PRIMARY KEY AUTOINCREMENT,
+  curve_id      INTEGER NOT NULL REFERENCES curves (id),
+  kind          TEXT    NOT NULL CHECK (kind IN ('check', 'blank')),
+  nominal       REAL    NOT NULL,
+  response      REAL    NOT NULL,
+  is_response   REAL,
+  measured      REAL,                           -- NULL when the response has no solution
+  recovery_pct  REAL,                           -- NULL for blanks
+  limit_low     REAL,                           -- recovery limits (check) ...
+  limit_high    REAL,                           -- ... or the blank limit (blank, in limit_high)
+  passed        INTEGER NOT NULL CHECK (passed IN (0, 1)),
+  analyst       TEXT    NOT NULL,
+  occurred_at   TEXT    NOT NULL,
+  audit_seq     INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
+-- table curve_points
+CREATE TABLE curve_points (
+  id              INTEGER PRIMARY KEY AUTOINCREMENT,
+  curve_id        INTEGER NOT NULL REFERENCES curves (id),
+  source_line     INTEGER NOT NULL,
+  level           TEXT    NOT NULL,
+  replicate       INTEGER NOT NULL,
+  nominal         REAL    NOT NULL,
+  response        REAL    NOT NULL,
+  is_response     REAL,
+  y               REAL    NOT NULL,             -- the fitted response (ratio with an internal standard)
+  back_calculated REAL,
+  error_pct       REAL,
+  within_limits   INTEGER NOT NULL CHECK (within_limits IN (0, 1)),
+  excluded        INTEGER NOT NULL CHECK (excluded IN (0, 1)),
+  exclude_reason  TEXT,
+  audit_seq       INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED,
+  UNIQUE (curve_id, level, replicate)
+) STRICT;
+
+-- table curve_retirements
+CREATE TABLE curve_retirements (
+  id          INTEGER PRIMARY KEY AUTOINCREMENT,
+  curve_id    INTEGER NOT NULL REFERENCES curves (id),
+  retired_by  TEXT    NOT NULL,
+  reason      TEXT    NOT NULL,
+  occurred_at TEXT    NOT NULL,
+  audit_seq   INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
+-- table curve_reviews
+CREATE TABLE curve_reviews (
+  id          INTEGER PRIMARY KEY AUTOINCREMENT,
+  curve_id    INTEGER NOT NULL REFERENCES curves (id),
+  decision    TEXT    NOT NULL CHECK (decision IN ('approve', 'reject')),
+  reviewer    TEXT    NOT NULL,
+  reason      TEXT    NOT NULL,
+  occurred_at TEXT    NOT NULL,
+  audit_seq   INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
+-- table curves
+CREATE TABLE curves (
+  id              INTEGER PRIMARY KEY AUTOINCREMENT,
+  calibration_id  INTEGER NOT NULL REFERENCES calibrations (id),
+  -- copies of the calibration's keys, so that lookups by group and by expiry need no join
+  method_id       INTEGER NOT NULL REFERENCES methods (id),
+  instrument_id   INTEGER NOT NULL REFERENCES instruments (id),
+  acquired_at     TEXT    NOT NULL,
+  analyte         TEXT    NOT NULL,
+  model           TEXT    NOT NULL CHECK (model IN ('linear', 'linear-through-origin',
+                                                     'quadratic', 'mean-response-factor')),
+  weighting       TEXT    NOT NULL CHECK (weighting IN ('none', '1/x', '1/x^2', '1/y', '1/y^2')),
+  intercept       REAL    NOT NULL,
+  slope           REAL    NOT NULL,
+  quadratic       REAL    NOT NULL,
+  se_intercept    REAL    NOT NULL,
+  se_slope        REAL    NOT NULL,
+  se_quadratic    REAL    NOT NULL,
+  r2              REAL    NOT NULL,
+  residual_sd     REAL    NOT NULL,
+  dof             INTEGER NOT NULL,
+  n_points        INTEGER NOT NULL,
+  n_levels        INTEGER NOT NULL,
+  range_low       REAL    NOT NULL,
+  range_high      REAL    NOT NULL,
+  lod             REAL    NOT NULL,
+  loq             REAL    NOT NULL,
+  rf_rsd_pct      REAL    NOT NULL,
+  verdict         TEXT    NOT NULL CHECK (verdict IN ('accepted', 'rejected')),
+  failed_criteria TEXT    NOT NULL,             -- JSON array of criterion tokens
+  statistics      TEXT    NOT NULL,             -- JSON: the full fit (covariance, weights, Mandel, ...)
+  acceptance      TEXT    NOT NULL,             -- JSON: every criterion with value and limit
+  expires_at      TEXT    NOT NULL,             -- earliest of acquired + valid_for and lot expiries
+  audit_seq       INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
+-- table instrument_service_events
+CREATE TABLE instrument_service_events (
+  id            INTEGER PRIMARY KEY AUTOINCREMENT,
+  instrument_id INTEGER NOT NULL REFERENCES instruments (id),
+  direction     TEXT    NOT NULL CHECK (direction IN ('out', 'back')),
+  reason        TEXT    NOT NULL,
+  occurred_at   TEXT    NOT NULL,
+  audit_seq     INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
+-- table instruments
+CREATE TABLE instruments (
+  id            INTEGER PRIMARY KEY AUTOINCREMENT,
+  code          TEXT    NOT NULL UNIQUE,
+  name          TEXT,
+  registered_at TEXT    NOT NULL,
+  audit_seq     INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
+-- table lab_settings
+CREATE TABLE lab_settings (
+  id          INTEGER PRIMARY KEY AUTOINCREMENT,
+  lab_name    TEXT    NOT NULL,
+  time_zone   TEXT    NOT NULL,
+  audit_seq   INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
+-- table lot_values
+CREATE TABLE lot_values (
+  id          INTEGER PRIMARY KEY AUTOINCREMENT,
+  lot_id      INTEGER NOT NULL REFERENCES lots (id),
+  analyte     TEXT    NOT NULL,
+  value       REAL    NOT NULL,
+  uncertainty REAL    CHECK (uncertainty IS NULL OR uncertainty >= 0),
+  audit_seq   INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED,
+  UNIQUE (lot_id, analyte)
+) STRICT;
+
+-- table lot_withdrawals
+CREATE TABLE lot_withdrawals (
+  id          INTEGER PRIMARY KEY AUTOINCREMENT,
+  lot_id      INTEGER NOT NULL UNIQUE REFERENCES lots (id),
+  reason      TEXT    NOT NULL,
+  occurred_at TEXT    NOT NULL,
+  audit_seq   INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
+-- table lots
+CREATE TABLE lots (
+  id            INTEGER PRIMARY KEY AUTOINCREMENT,
+  code          TEXT    NOT NULL UNIQUE,
+  material      TEXT    NOT NULL,
+  expires_on    TEXT    NOT NULL,               -- certificate expiry, YYYY-MM-DD (lab-local day)
+  opened_on     TEXT,
+  in_use_days   INTEGER CHECK (in_use_days IS NULL OR in_use_days > 0),
+  certificate   TEXT,
+  registered_at TEXT    NOT NULL,
+  audit_seq     INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
+-- table method_versions
+CREATE TABLE method_versions (
+  id            INTEGER PRIMARY KEY AUTOINCREMENT,
+  method_id     INTEGER NOT NULL REFERENCES methods (id),
+  version       INTEGER NOT NULL CHECK (version >= 1),
+  effective_at  TEXT    NOT NULL,               -- in force from this instant
+  title         TEXT    NOT NULL,
+  unit          TEXT    NOT NULL,
+  definition    TEXT    NOT NULL,               -- canonical JSON of the parsed file
+  source_name   TEXT    NOT NULL,               -- file name as given
+  source_text   TEXT    NOT NULL,               -- the file, byte for byte
+  source_sha256 TEXT    NOT NULL CHECK (length(source_sha256) = 64),
+  reason        TEXT,                           -- required from version 2 on
+  audit_seq     INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED,
+  UNIQUE (method_id, version)
+) STRICT;
+
+-- table methods
+CREATE TABLE methods (
+  id            INTEGER PRIMARY KEY AUTOINCREMENT,
+  code          TEXT    NOT NULL UNIQUE,
+  registered_at TEXT    NOT NULL,
+  audit_seq     INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
+-- table refusals
+CREATE TABLE refusals (
+  id          INTEGER PRIMARY KEY AUTOINCREMENT,
+  action      TEXT    NOT NULL,                 -- what was attempted, e.g. 'curve.review'
+  entity_kind TEXT    NOT NULL,
+  entity_id   TEXT    NOT NULL,
+  actor       TEXT    NOT NULL,
+  reasons     TEXT    NOT NULL,                 -- JSON array of reason tokens
+  message     TEXT    NOT NULL,
+  occurred_at TEXT    NOT NULL,
+  audit_seq   INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
+-- table results
+CREATE TABLE results (
+  id                INTEGER PRIMARY KEY AUTOINCREMENT,
+  sample            TEXT    NOT NULL,
+  analyte           TEXT    NOT NULL,
+  status            TEXT    NOT NULL CHECK (status IN ('reported', 'refused')),
+  curve_id          INTEGER REFERENCES curves (id),
+  method_id         INTEGER REFERENCES methods (id),
+  instrument_id     INTEGER REFERENCES instruments (id),
+  response          REAL    NOT NULL,
+  is_response       REAL,
+  replicates        INTEGER NOT NULL CHECK (replicates >= 1),
+  dilution          REAL    NOT NULL CHECK (dilution > 0),
+  x0                REAL,                       -- instrument-level concentration
+  sd_x0             REAL,
+  concentration     REAL,                       -- x0 times the dilution factor
+  ci_low            REAL,
+  ci_high           REAL,
+  flags             TEXT    NOT NULL,           -- JSON array
+  reasons           TEXT    NOT NULL,           -- JSON array of reason tokens
+  reason_details    TEXT    NOT NULL,           -- JSON array of {reason, since, message}
+  analyst           TEXT    NOT NULL,
+  occurred_at       TEXT    NOT NULL,
+  audit_seq         INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
+-- table schema_migrations
+CREATE TABLE schema_migrations (
+  version    INTEGER PRIMARY KEY,
+  name       TEXT    NOT NULL,
+  sha256     TEXT    NOT NULL CHECK (length(sha256) = 64),
+  applied_at TEXT    NOT NULL
+) STRICT;
+
+-- trigger audit_log_no_delete
+CREATE TRIGGER audit_log_no_delete BEFORE DELETE ON audit_log
+BEGIN SELECT RAISE(ABORT, 'audit_log is append-only: rows cannot be deleted'); END;
+
+-- trigger audit_log_no_update
+CREATE TRIGGER audit_log_no_update BEFORE UPDATE ON audit_log
+BEGIN SELECT RAISE(ABORT, 'audit_log is append-only: rows cannot be changed'); END;
+
+-- trigger calibration_lots_no_delete
+CREATE TRIGGER calibration_lots_no_delete BEFORE DELETE ON calibration_lots
+BEGIN SELECT RAISE(ABORT, 'calibration_lots is append-only: rows cannot be deleted'); END;
+
+-- trigger calibration_lots_no_update
+CREATE TRIGGER calibration_lots_no_update BEFORE UPDATE ON calibration_lots
+BEGIN SELECT RAISE(ABORT, 'calibration_lots is append-only: rows cannot be changed'); END;
+
+-- trigger calibrations_no_delete
+CREATE TRIGGER calibrations_no_delete BEFORE DELETE ON calibrations
+BEGIN SELECT RAISE(ABORT, 'calibrations is append-only: rows cannot be deleted'); END;
+
+-- trigger calibrations_no_update
+CREATE TRIGGER calibrations_no_update BEFORE UPDATE ON calibrations
+BEGIN SELECT RAISE(ABORT, 'calibrations is append-only: rows cannot be changed'); END;
+
+-- trigger checks_no_delete
+CREATE TRIGGER checks_no_delete BEFORE DELETE ON checks
+BEGIN SELECT RAISE(ABORT, 'checks is append-only: rows cannot be deleted'); END;
+
+-- trigger checks_no_update
+CREATE TRIGGER checks_no_update BEFORE UPDATE ON checks
+BEGIN SELECT RAISE(ABORT, 'checks is append-only: rows cannot be changed'); END;
+
+-- trigger curve_points_no_delete
+CREATE TRIGGER curve_points_no_delete BEFORE DELETE ON curve_points
+BEGIN SELECT RAISE(ABORT, 'curve_points is append-only: rows cannot be deleted'); END;
+
+-- trigger curve_points_no_update
+CREATE TRIGGER curve_points_no_update BEFORE UPDATE ON curve_points
+BEGIN SELECT RAISE(ABORT, 'curve_points is append-only: rows cannot be changed'); END;
+
+-- trigger curve_retirements_no_delete
+CREATE TRIGGER curve_retirements_no_delete BEFORE DELETE ON curve_retirements
+BEGIN SELECT RAISE(ABORT, 'curve_retirements is append-only: rows cannot be deleted'); END;
+
+-- trigger curve_retirements_no_update
+CREATE TRIGGER curve_retirements_no_update BEFORE UPDATE ON curve_retirements
+BEGIN SELECT RAISE(ABORT, 'curve_retirements is append-only: rows cannot be changed'); END;
+
+-- trigger curve_reviews_no_delete
+CREATE TRIGGER curve_reviews_no_delete BEFORE DELETE ON curve_reviews
+BEGIN SELECT RAISE(ABORT, 'curve_reviews is append-only: rows cannot be deleted'); END;
+
+-- trigger curve_reviews_no_update
+CREATE TRIGGER curve_reviews_no_update BEFORE UPDATE ON curve_reviews
+BEGIN SELECT RAISE(ABORT, 'curve_reviews is append-only: rows cannot be changed'); END;
+
+-- trigger curves_no_delete
+CREATE TRIGGER curves_no_delete BEFORE DELETE ON curves
+BEGIN SELECT RAISE(ABORT, 'curves is append-only: rows cannot be deleted'); END;
+
+-- trigger curves_no_update
+CREATE TRIGGER curves_no_update BEFORE UPDATE ON curves
+BEGIN SELECT RAISE(ABORT, 'curves is append-only: rows cannot be changed'); END;
+
+-- trigger instrument_service_events_no_delete
+CREATE TRIGGER instrument_service_events_no_delete BEFORE DELETE ON instrument_service_events
+BEGIN SELECT RAISE(ABORT, 'instrument_service_events is append-only: rows cannot be deleted'); END;
+
+-- trigger instrument_service_events_no_update
+CREATE TRIGGER instrument_service_events_no_update BEFORE UPDATE ON instrument_service_events
+BEGIN SELECT RAISE(ABORT, 'instrument_service_events is append-only: rows cannot be changed'); END;
+
+-- trigger instruments_no_delete
+CREATE TRIGGER instruments_no_delete BEFORE DELETE ON instruments
+BEGIN SELECT RAISE(ABORT, 'instruments is append-only: rows cannot be deleted'); END;
+
+-- trigger instruments_no_update
+CREATE TRIGGER instruments_no_update BEFORE UPDATE ON instruments
+BEGIN SELECT RAISE(ABORT, 'instruments is append-only: rows cannot be changed'); END;
+
+-- trigger lab_settings_no_delete
+CREATE TRIGGER lab_settings_no_delete BEFORE DELETE ON lab_settings
+BEGIN SELECT RAISE(ABORT, 'lab_settings is append-only: rows cannot be deleted'); END;
+
+-- trigger lab_settings_no_update
+CREATE TRIGGER lab_settings_no_update BEFORE UPDATE ON lab_settings
+BEGIN SELECT RAISE(ABORT, 'lab_settings is append-only: rows cannot be changed'); END;
+
+-- trigger lot_values_no_delete
+CREATE TRIGGER lot_values_no_delete BEFORE DELETE ON lot_values
+BEGIN SELECT RAISE(ABORT, 'lot_values is append-only: rows cannot be deleted'); END;
+
+-- trigger lot_values_no_update
+CREATE TRIGGER lot_values_no_update BEFORE UPDATE ON lot_values
+BEGIN SELECT RAISE(ABORT, 'lot_values is append-only: rows cannot be changed'); END;
+
+-- trigger lot_withdrawals_no_delete
+CREATE TRIGGER lot_withdrawals_no_delete BEFORE DELETE ON lot_withdrawals
+BEGIN SELECT RAISE(ABORT, 'lot_withdrawals is append-only: rows cannot be deleted'); END;
+
+-- trigger lot_withdrawals_no_update
+CREATE TRIGGER lot_withdrawals_no_update BEFORE UPDATE ON lot_withdrawals
+BEGIN SELECT RAISE(ABORT, 'lot_withdrawals is append-only: rows cannot be changed'); END;
+
+-- trigger lots_no_delete
+CREATE TRIGGER lots_no_delete BEFORE DELETE ON lots
+BEGIN SELECT RAISE(ABORT, 'lots is append-only: rows cannot be deleted'); END;
+
+-- trigger lots_no_update
+CREATE TRIGGER lots_no_update BEFORE UPDATE ON lots
+BEGIN SELECT RAISE(ABORT, 'lots is append-only: rows cannot be changed'); END;
+
+-- trigger method_versions_no_delete
+CREATE TRIGGER method_versions_no_delete BEFORE DELETE ON method_versions
+BEGIN SELECT RAISE(ABORT, 'method_versions is append-only: rows cannot be deleted'); END;
+
+-- trigger method_versions_no_update
+CREATE TRIGGER method_versions_no_update BEFORE UPDATE ON method_versions
+BEGIN SELECT RAISE(ABORT, 'method_versions is append-only: rows cannot be changed'); END;
+
+-- trigger methods_no_delete
+CREATE TRIGGER methods_no_delete BEFORE DELETE ON methods
+BEGIN SELECT RAISE(ABORT, 'methods is append-only: rows cannot be deleted'); END;
+
+-- trigger methods_no_update
+CREATE TRIGGER methods_no_update BEFORE UPDATE ON methods
+BEGIN SELECT RAISE(ABORT, 'methods is append-only: rows cannot be changed'); END;
+
+-- trigger refusals_no_delete
+CREATE TRIGGER refusals_no_delete BEFORE DELETE ON refusals
+BEGIN SELECT RAISE(ABORT, 'refusals is append-only: rows cannot be deleted'); END;
+
+-- trigger refusals_no_update
+CREATE TRIGGER refusals_no_update BEFORE UPDATE ON refusals
+BEGIN SELECT RAISE(ABORT, 'refusals is append-only: rows cannot be changed'); END;
+
+-- trigger results_no_delete
+CREATE TRIGGER results_no_delete BEFORE DELETE ON results
+BEGIN SELECT RAISE(ABORT, 'results is append-only: rows cannot be deleted'); END;
+
+-- trigger results_no_update
+CREATE TRIGGER results_no_update BEFORE UPDATE ON results
+BEGIN SELECT RAISE(ABORT, 'results is append-only: rows cannot be changed'); END;
+
+-- trigger schema_migrations_no_delete
+CREATE TRIGGER schema_migrations_no_delete BEFORE DELETE ON schema_migrations
+BEGIN SELECT RAISE(ABORT, 'schema_migrations is append-only: rows cannot be deleted'); END;
+
+-- trigger schema_migrations_no_update
+CREATE TRIGGER schema_migrations_no_update BEFORE UPDATE ON schema_migrations
+BEGIN SELECT RAISE(ABORT, 'schema_migrations is append-only: rows cannot be changed'); END;
+
+PRAGMA user_version = 4;

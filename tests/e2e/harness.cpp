@@ -1,0 +1,290 @@
+// SPDX-License-Identifier: Apache-2.0
+// End-to-end test harness: process spawning with captured output, sandboxes, and SQLite
+// helpers that bypass the tool's store layer.
+#include "harness.h"
+
+#include <fcntl.h>
+#include <poll.h>
+#include <sqlite3.h>
+#include <sys/wait.h>
+#include <unistd.h>
+
+#include <cerrno>
+#include <cstdlib>
+#include <cstring>
+#include <fstream>
+#include <sstream>
+#include <stdexcept>
+
+#ifndef CW_BINARY
+#error "CW_BINARY must name the curvewarden binary (see tests/e2e/CMakeLists.txt)"
+#endif
+
+extern char** environ;
+
+namespace cw::test {
+namespace {
+
+[[noreturn]] void fail_errno(const std::string& what) {
+  throw std::runtime_error(what + ": " + std::strerror(errno));
+}
+
+/// Reads both pipes until the child closes them (poll, so neither pipe can fill up and block).
+void drain(int out_fd, int err_fd, std::string& out, std::string& err) {
+  pollfd fds[2] = {{out_fd, POLLIN, 0}, {err_fd, POLLIN, 0}};
+  int open_fds = 2;
+  char buffer[4096];
+  while (open_fds > 0) {
+    if (poll(fds, 2, -1) < 0) {
+      if (errno == EINTR) continue;
+      fail_errno("poll");
+    }
+    for (int i = 0; i < 2; ++i) {
+      if (fds[i].fd < 0 || (fds[i].revents & (POLLIN | POLLHUP | POLLERR)) == 0) continue;
+      const ssize_t n = read(fds[i].fd, buffer, sizeof buffer);
+      if (n > 0) {
+        (i == 0 ? out : err).append(buffer, static_cast<size_t>(n));
+      } else if (n == 0 || (n < 0 && errno != EINTR)) {
+        close(fds[i].fd);
+        fds[i].fd = -1;
+        --open_fds;
+      }
+    }
+  }
+}
+
+/// Closes a sqlite3 handle on scope exit.
+struct Db {
+  sqlite3* handle = nullptr;
+  explicit Db(const std::filesystem::path& path) {
+    if (!std::filesystem::exists(path)) {
+      throw std::runtime_error("no database file at " + path.string());
+    }
+    // Read-write without CREATE: a WAL-mode store may need its -shm file; nothing is written
+    // unless the caller runs a statement that writes.
+    if (sqlite3_open_v2(path.c_str(), &handle, SQLITE_OPEN_READWRITE, nullptr) != SQLITE_OK) {
+      const std::string message = handle ? sqlite3_errmsg(handle) : "out of memory";
+      sqlite3_close(handle);
+      throw std::runtime_error("cannot open " + path.string() + ": " + message);
+    }
+  }
+  ~Db() { sqlite3_close(handle); }
+  Db(const Db&) = delete;
+  Db& operator=(const Db&) = delete;
+};
+
+/// Runs a query and returns every row as text (NULL → "").
+std::vector<std::vector<std::string>> query_rows(sqlite3* db, const std::string& sql) {
+  sqlite3_stmt* stmt = nullptr;
+  if (sqlite3_prepare_v2(db, sql.c_str(), -1, &stmt, nullptr) != SQLITE_OK) {
+    throw std::runtime_error("cannot prepare '" + sql + "': " + sqlite3_errmsg(db));
+  }
+  std::vector<std::vector<std::string>> rows;
+  int rc = 0;
+  while ((rc = sqlite3_step(stmt)) == SQLITE_ROW) {
+    std::vector<std::string> row;
+    for (int i = 0; i < sqlite3_column_count(stmt); ++i) {
+      const auto* text = sqlite3_column_text(stmt, i);
+      row.emplace_back(text ? reinterpret_cast<const char*>(text) : "");
+    }
+    rows.push_back(std::move(row));
+  }
+  sqlite3_finalize(stmt);
+  if (rc != SQLITE_DONE) {
+    throw std::runtime_error("query '" + sql + "' failed: " + sqlite3_errmsg(db));
+  }
+  return rows;
+}
+
+}  // namespace
+
+nlohmann::json RunResult::json() const {
+  try {
+    return nlohmann::json::parse(out);
+  } catch (const nlohmann::json::exception& e) {
+    throw std::runtime_error("stdout is not one JSON document (" + std::string(e.what()) + ")\n" +
+                             describe());
+  }
+}
+
+std::string RunResult::describe() const {
+  std::string text = "curvewarden";
+  for (const auto& a : args) text += " '" + a + "'";
+  text += "\nexit code: " + std::to_string(exit_code) + "\n--- stdout ---\n" + out +
+          "--- stderr ---\n" + err;
+  return text;
+}
+
+std::filesystem::path binary_path() {
+  return CW_BINARY;
+}
+
+RunResult run_process(const std::filesystem::path& binary, const std::vector<std::string>& args,
+                      const std::map<std::string, std::string>& env,
+                      const std::filesystem::path& cwd) {
+  int out_pipe[2], err_pipe[2];
+  if (pipe2(out_pipe, O_CLOEXEC) != 0) fail_errno("pipe");
+  if (pipe2(err_pipe, O_CLOEXEC) != 0) fail_errno("pipe");
+
+  // Everything the child needs is prepared before fork(): after it, only async-signal-safe
+  // calls are allowed.
+  std::vector<std::string> argv_text{binary.string()};
+  argv_text.insert(argv_text.end(), args.begin(), args.end());
+  std::vector<char*> argv;
+  for (auto& a : argv_text) argv.push_back(a.data());
+  argv.push_back(nullptr);
+  std::vector<std::string> env_text;
+  for (const auto& [k, v] : env) env_text.push_back(k + "=" + v);
+  std::vector<char*> envp;
+  for (auto& e : env_text) envp.push_back(e.data());
+  envp.push_back(nullptr);
+  const std::string dir = cwd.string();
+
+  const pid_t pid = fork();
+  if (pid < 0) fail_errno("fork");
+  if (pid == 0) {
+    dup2(out_pipe[1], STDOUT_FILENO);
+    dup2(err_pipe[1], STDERR_FILENO);
+    const int null_in = open("/dev/null", O_RDONLY);
+    if (null_in >= 0) dup2(null_in, STDIN_FILENO);
+    if (chdir(dir.c_str()) != 0) _exit(126);
+    execve(argv[0], argv.data(), envp.data());
+    _exit(127);
+  }
+  close(out_pipe[1]);
+  close(err_pipe[1]);
+
+  RunResult result;
+  result.args = args;
+  drain(out_pipe[0], err_pipe[0], result.out, result.err);
+  int status = 0;
+  while (waitpid(pid, &status, 0) < 0) {
+    if (errno != EINTR) fail_errno("waitpid");
+  }
+  if (WIFEXITED(status)) {
+    result.exit_code = WEXITSTATUS(status);
+  } else if (WIFSIGNALED(status)) {
+    result.exit_code = 128 + WTERMSIG(status);
+  }
+  return result;
+}
+
+Sandbox::Sandbox() {
+  const char* tmp = std::getenv("TMPDIR");
+  std::string pattern = std::string(tmp && *tmp ? tmp : "/tmp") + "/curvewarden-e2e-XXXXXX";
+  if (mkdtemp(pattern.data()) == nullptr) fail_errno("mkdtemp");
+  dir_ = pattern;
+}
+
+Sandbox::~Sandbox() {
+  std::error_code ec;
+  std::filesystem::remove_all(dir_, ec);
+}
+
+std::filesystem::path Sandbox::write_file(const std::string& name,
+                                          const std::string& content) const {
+  const auto target = dir_ / name;
+  std::filesystem::create_directories(target.parent_path());
+  std::ofstream out(target, std::ios::binary | std::ios::trunc);
+  out << content;
+  if (!out) throw std::runtime_error("cannot write " + target.string());
+  return target;
+}
+
+std::map<std::string, std::string> Sandbox::environment(const EnvOverrides& overrides) const {
+  std::map<std::string, std::string> env;
+  // Keep what a process needs to run (PATH, HOME, sanitizer options); drop every
+  // CURVEWARDEN_* setting of the caller and the caller's TZ.
+  for (char** e = environ; e != nullptr && *e != nullptr; ++e) {
+    const std::string entry = *e;
+    const auto eq = entry.find('=');
+    if (eq == std::string::npos) continue;
+    const std::string key = entry.substr(0, eq);
+    if (key.rfind("CURVEWARDEN_", 0) == 0 || key == "TZ") continue;
+    env[key] = entry.substr(eq + 1);
+  }
+  env["TZ"] = "UTC";
+  env["CURVEWARDEN_NOW"] = now;
+  env["CURVEWARDEN_USER"] = user;
+  env["CURVEWARDEN_DB"] = db().string();
+  for (const auto& [key, value] : overrides) {
+    if (value) {
+      env[key] = *value;
+    } else {
+      env.erase(key);
+    }
+  }
+  return env;
+}
+
+RunResult Sandbox::run(const std::vector<std::string>& args, const EnvOverrides& overrides) const {
+  return run_process(binary_path(), args, environment(overrides), dir_);
+}
+
+std::map<std::string, std::int64_t> table_row_counts(const std::filesystem::path& db) {
+  Db handle(db);
+  std::map<std::string, std::int64_t> counts;
+  for (const auto& row :
+       query_rows(handle.handle, "SELECT name FROM sqlite_master WHERE type = 'table'")) {
+    const std::string& table = row.at(0);
+    // Table names come from sqlite_master; quote them as identifiers all the same.
+    const auto n = query_rows(handle.handle, "SELECT count(*) FROM \"" + table + "\"");
+    counts[table] = std::stoll(n.at(0).at(0));
+  }
+  return counts;
+}
+
+int exec_sql(const std::filesystem::path& db, const std::string& sql, std::string* error) {
+  Db handle(db);
+  char* message = nullptr;
+  const int rc = sqlite3_exec(handle.handle, sql.c_str(), nullptr, nullptr, &message);
+  if (error) *error = message ? message : "";
+  sqlite3_free(message);
+  return rc;
+}
+
+std::string query_text(const std::filesystem::path& db, const std::string& sql) {
+  Db handle(db);
+  const auto rows = query_rows(handle.handle, sql);
+  if (rows.size() != 1 || rows.front().size() != 1) {
+    throw std::runtime_error("query '" + sql + "' did not return exactly one value");
+  }
+  return rows.front().front();
+}
+
+std::string read_file(const std::filesystem::path& path) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) return {};
+  std::ostringstream buffer;
+  buffer << in.rdbuf();
+  return buffer.str();
+}
+
+std::string method_toml(const std::string& code, const std::string& min_r2) {
+  return "code = \"" + code +
+         "\"\n"
+         "title = \"Nitrate and sulfate in drinking water by ion chromatography\"\n"
+         "unit = \"mg/L\"\n"
+         "analytes = [\"nitrate\", \"sulfate\"]\n"
+         "\n"
+         "[calibration]\n"
+         "model = \"linear\"\n"
+         "weighting = \"1/x\"\n"
+         "min_levels = 5\n"
+         "min_r2 = " +
+         min_r2 +
+         "\n"
+         "max_error_pct = 15.0\n"
+         "max_error_pct_lowest = 20.0\n"
+         "min_levels_within = 0.75\n"
+         "valid_for = \"7 days\"\n"
+         "review_required = true\n"
+         "\n"
+         "[check]\n"
+         "tolerance_pct = 10.0\n"
+         "samples_per_check = 10\n"
+         "check_every = \"12 hours\"\n"
+         "trend_rules = [\"1-3s\", \"2-2s\", \"R-4s\"]\n";
+}
+
+}  // namespace cw::test

@@ -1,0 +1,113 @@
+// SPDX-License-Identifier: Apache-2.0
+// End-to-end test harness: runs the built curvewarden binary in a fresh temporary directory
+// with a pinned environment and captures its exit code, stdout and stderr.
+//
+// Overview. A `Sandbox` is one test's world: a new directory under $TMPDIR (removed when the
+// sandbox goes out of scope), a store path inside it, and the environment every run gets:
+//   TZ=UTC, CURVEWARDEN_NOW=<sandbox.now>, CURVEWARDEN_USER=<sandbox.user>,
+//   CURVEWARDEN_DB=<sandbox.db()>, and no other CURVEWARDEN_* variable from the caller.
+// `run()` executes the binary (CW_BINARY, set by tests/e2e/CMakeLists.txt) with the sandbox
+// as its working directory. Per-run overrides can set or remove variables:
+//
+//   cw::test::Sandbox box;
+//   auto r = box.run({"init", "--tz", "Europe/Berlin", "--json"});
+//   REQUIRE(r.exit_code == 0);
+//   CHECK(r.json()["time_zone"] == "Europe/Berlin");
+//   auto counts = cw::test::table_row_counts(box.db());   // {"audit_log": 1, ...}
+//   box.run({"audit", "verify"}, {{"CURVEWARDEN_NOW", "2026-04-01T00:00:00Z"}});
+//
+// Nothing here depends on the wall clock: every run has CURVEWARDEN_NOW set unless a test
+// removes it on purpose. Helpers that touch the store use the SQLite C API directly (an
+// independent path from the tool's own store layer), so tests can count rows, tamper with
+// rows, or compare file bytes.
+#pragma once
+
+#include <cstdint>
+#include <filesystem>
+#include <map>
+#include <nlohmann/json.hpp>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace cw::test {
+
+/// Environment overrides for one run: a value sets the variable, nullopt removes it.
+using EnvOverrides = std::map<std::string, std::optional<std::string>>;
+
+/// What one run of the binary produced.
+struct RunResult {
+  int exit_code = -1;             ///< the process exit status; 128 + N when killed by signal N
+  std::string out;                ///< everything written to stdout
+  std::string err;                ///< everything written to stderr
+  std::vector<std::string> args;  ///< the arguments (for failure messages)
+
+  /// stdout parsed as one JSON document; throws std::runtime_error naming the run otherwise.
+  nlohmann::json json() const;
+  /// A one-paragraph description (args, exit code, stdout, stderr) for INFO/CAPTURE.
+  std::string describe() const;
+};
+
+/// Path of the binary under test (the CW_BINARY compile definition).
+std::filesystem::path binary_path();
+
+/// Runs `binary` with `args` in `cwd` with exactly the environment `env` (no inheritance);
+/// waits for it and captures both output streams.
+RunResult run_process(const std::filesystem::path& binary, const std::vector<std::string>& args,
+                      const std::map<std::string, std::string>& env,
+                      const std::filesystem::path& cwd);
+
+/// One test's temporary directory, store path and pinned environment.
+class Sandbox {
+ public:
+  /// Creates a fresh directory (mkdtemp under $TMPDIR or /tmp).
+  Sandbox();
+  Sandbox(const Sandbox&) = delete;
+  Sandbox& operator=(const Sandbox&) = delete;
+  /// Removes the directory and everything in it.
+  ~Sandbox();
+
+  /// CURVEWARDEN_NOW for every run (ISO-8601 with zone). Change it between runs to move time.
+  std::string now = "2026-03-02T09:00:00Z";
+  /// CURVEWARDEN_USER for every run.
+  std::string user = "alice";
+
+  const std::filesystem::path& dir() const { return dir_; }
+  /// The sandbox's store: <dir>/store.db (what CURVEWARDEN_DB points at).
+  std::filesystem::path db() const { return dir_ / "store.db"; }
+  /// <dir>/<name>.
+  std::filesystem::path path(const std::string& name) const { return dir_ / name; }
+
+  /// Writes `content` byte for byte to <dir>/<name> (creating parent folders); returns the path.
+  std::filesystem::path write_file(const std::string& name, const std::string& content) const;
+
+  /// The environment a run gets, after applying `overrides`.
+  std::map<std::string, std::string> environment(const EnvOverrides& overrides = {}) const;
+
+  /// Runs the binary with `args` in the sandbox directory.
+  RunResult run(const std::vector<std::string>& args, const EnvOverrides& overrides = {}) const;
+
+ private:
+  std::filesystem::path dir_;
+};
+
+/// Row count of every table (type 'table' in sqlite_master, internal ones included) of the
+/// SQLite file at `db`, read with the SQLite C API. Throws when the file cannot be read as a
+/// database.
+std::map<std::string, std::int64_t> table_row_counts(const std::filesystem::path& db);
+
+/// Runs `sql` (one or more statements) on the SQLite file at `db` through the C API. Returns
+/// the SQLite result code; `error`, when given, receives SQLite's message ("" on success).
+int exec_sql(const std::filesystem::path& db, const std::string& sql, std::string* error = nullptr);
+
+/// The single value of a one-row, one-column query (as text; "" for NULL).
+std::string query_text(const std::filesystem::path& db, const std::string& sql);
+
+/// The bytes of a file ("" when it does not exist).
+std::string read_file(const std::filesystem::path& path);
+
+/// A method file (TOML, product.md §6) that validates, with the given code and min_r2;
+/// analytes nitrate and sulfate, linear 1/x, 5 levels, valid for 7 days.
+std::string method_toml(const std::string& code = "ANION-IC", const std::string& min_r2 = "0.995");
+
+}  // namespace cw::test

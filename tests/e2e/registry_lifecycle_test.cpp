@@ -1,0 +1,247 @@
+// SPDX-License-Identifier: Apache-2.0
+// End-to-end tests of the registries through the built binary: init, instrument add, method
+// add and revise, lot add and withdraw, with the JSON of each step (product.md §4), the rows
+// each step writes, and an idempotent init.
+#include <catch2/catch.hpp>
+#include <string>
+
+#include "harness.h"
+
+namespace {
+
+using cw::test::RunResult;
+using cw::test::Sandbox;
+using Json = nlohmann::json;
+using Counts = std::map<std::string, std::int64_t>;
+
+// SHA-256 of cw::test::method_toml() and method_toml("ANION-IC", "0.998"), computed
+// independently with Python's hashlib over the same text.
+const char* const kV1Sha = "40228e9b2fcf63b45bc68083d5d144fc2ad9a13a2ea8affcfc7a7dcabb7ce7c5";
+const char* const kV2Sha = "e6ebe7dd0d10475c3f9765ae08fb91361b8676f7a1ac4b85a2735c0dc2f42fee";
+
+/// after − before per table, leaving out SQLite's own sqlite_sequence.
+Counts changes(const Counts& before, const Counts& after) {
+  Counts diff;
+  for (const auto& [table, n] : after) {
+    if (table == "sqlite_sequence") continue;
+    const auto it = before.find(table);
+    const std::int64_t d = n - (it == before.end() ? 0 : it->second);
+    if (d != 0) diff[table] = d;
+  }
+  return diff;
+}
+
+/// Runs `args` expecting exit 0 and one JSON document on stdout.
+Json ok_json(const Sandbox& box, const std::vector<std::string>& args) {
+  const RunResult r = box.run(args);
+  INFO(r.describe());
+  REQUIRE(r.exit_code == 0);
+  CHECK(r.err.empty());
+  return r.json();
+}
+
+}  // namespace
+
+TEST_CASE("e2e registry: init, instrument, method, revision, lot and withdrawal", "[e2e]") {
+  Sandbox box;
+  box.write_file("anion.toml", cw::test::method_toml());
+  box.write_file("anion-v2.toml", cw::test::method_toml("ANION-IC", "0.998"));
+
+  // 1. init
+  box.now = "2026-03-02T08:00:00Z";
+  Json j = ok_json(box, {"init", "--lab", "Water lab", "--tz", "Europe/Berlin", "--json"});
+  CHECK(j["store"] == box.db().string());
+  CHECK(j["created"] == true);
+  CHECK(j["changed"] == true);
+  CHECK(j["lab"] == "Water lab");
+  CHECK(j["time_zone"] == "Europe/Berlin");
+  CHECK(j["schema_version"] == 4);
+  // CURVEWARDEN_NOW is "now" for the migration record too.
+  CHECK(cw::test::query_text(box.db(),
+                             "SELECT group_concat(DISTINCT applied_at) FROM "
+                             "schema_migrations") == "2026-03-02T08:00:00Z");
+  Counts counts = cw::test::table_row_counts(box.db());
+  CHECK(changes({}, counts) ==
+        Counts{{"audit_log", 1}, {"lab_settings", 1}, {"schema_migrations", 4}});
+
+  // 2. instrument add
+  box.now = "2026-03-02T09:00:00Z";
+  j = ok_json(box, {"instrument", "add", "IC-02", "--name", "Ion chromatograph, bay 2", "--json"});
+  CHECK(j == Json::parse(R"({"code": "IC-02", "name": "Ion chromatograph, bay 2",
+                              "registered_at": "2026-03-02T09:00:00Z", "in_service": true,
+                              "service": []})"));
+  Counts next = cw::test::table_row_counts(box.db());
+  CHECK(changes(counts, next) == Counts{{"audit_log", 1}, {"instruments", 1}});
+  counts = next;
+
+  // 3. method add
+  box.now = "2026-03-02T10:00:00Z";
+  j = ok_json(box, {"method", "add", "anion.toml", "--json"});
+  CHECK(j["code"] == "ANION-IC");
+  CHECK(j["version"] == 1);
+  CHECK(j["effective_at"] == "2026-03-02T10:00:00Z");
+  CHECK(j["title"] == "Nitrate and sulfate in drinking water by ion chromatography");
+  CHECK(j["unit"] == "mg/L");
+  CHECK(j["analytes"] == Json::array({"nitrate", "sulfate"}));
+  CHECK(j["internal_standard"].is_null());
+  CHECK(j["calibration"]["model"] == "linear");
+  CHECK(j["calibration"]["weighting"] == "1/x");
+  CHECK(j["calibration"]["min_levels"] == 5);
+  CHECK(j["calibration"]["min_r2"].get<double>() == Approx(0.995).epsilon(1e-12));
+  CHECK(j["calibration"]["max_error_pct"].get<double>() == Approx(15.0).epsilon(1e-12));
+  CHECK(j["calibration"]["valid_for"] == "7 days");
+  CHECK(j["calibration"]["review_required"] == true);
+  CHECK(j["check"]["tolerance_pct"].get<double>() == Approx(10.0).epsilon(1e-12));
+  CHECK(j["check"]["samples_per_check"] == 10);
+  CHECK(j["check"]["check_every"] == "12 hours");
+  CHECK(j["check"]["trend_rules"] == Json::array({"1-3s", "2-2s", "R-4s"}));
+  CHECK(j["source_name"] == "anion.toml");
+  CHECK(j["source_sha256"] == kV1Sha);
+  CHECK(j["reason"].is_null());
+  next = cw::test::table_row_counts(box.db());
+  CHECK(changes(counts, next) == Counts{{"audit_log", 1}, {"method_versions", 1}, {"methods", 1}});
+  counts = next;
+
+  // 4. method revise: version 2 in force from now on
+  box.now = "2026-03-03T10:00:00Z";
+  j = ok_json(box, {"method", "revise", "anion-v2.toml", "--reason", "tighter r2 after validation",
+                    "--json"});
+  CHECK(j["code"] == "ANION-IC");
+  CHECK(j["version"] == 2);
+  CHECK(j["effective_at"] == "2026-03-03T10:00:00Z");
+  CHECK(j["calibration"]["min_r2"].get<double>() == Approx(0.998).epsilon(1e-12));
+  CHECK(j["reason"] == "tighter r2 after validation");
+  CHECK(j["source_name"] == "anion-v2.toml");
+  CHECK(j["source_sha256"] == kV2Sha);
+  next = cw::test::table_row_counts(box.db());
+  CHECK(changes(counts, next) == Counts{{"audit_log", 1}, {"method_versions", 1}});
+  counts = next;
+  // As of an hour before the revision, version 1 is the one in force.
+  j = ok_json(box, {"method", "show", "ANION-IC", "--at", "2026-03-03T09:00:00Z", "--json"});
+  CHECK(j["version"] == 1);
+  CHECK(j["versions"].size() == 2);
+  CHECK(j["source_text"] == cw::test::method_toml());
+  j = ok_json(box, {"method", "list", "--json"});
+  CHECK(j["methods"][0]["latest_version"] == 2);
+  CHECK(j["methods"][0]["version_in_force"] == 2);
+
+  // 5. lot add: opened 2026-03-01 with 30 days in use, so usable through 2026-03-31 (before
+  // the certificate's 2027-03-31), i.e. until 2026-04-01 00:00 CEST = 2026-03-31T22:00:00Z.
+  box.now = "2026-03-04T09:00:00Z";
+  j = ok_json(
+      box, {"lot", "add", "CRM-NO3-0042", "--material", "Nitrate in water, 1000 mg/L", "--expires",
+            "2027-03-31", "--opened", "2026-03-01", "--in-use-days", "30", "--certificate",
+            "CERT-123", "--value", "nitrate=1000±5", "--value", "sulfate=500+/-2.5", "--json"});
+  CHECK(j == Json::parse(R"({
+      "code": "CRM-NO3-0042", "material": "Nitrate in water, 1000 mg/L",
+      "certificate": "CERT-123", "expires_on": "2027-03-31", "opened_on": "2026-03-01",
+      "in_use_days": 30, "in_use_expires_on": "2026-03-31", "effective_expires_on": "2026-03-31",
+      "usable_until": "2026-03-31T22:00:00Z", "status": "usable", "withdrawn_at": null,
+      "withdrawal_reason": null, "registered_at": "2026-03-04T09:00:00Z",
+      "values": [{"analyte": "nitrate", "value": 1000.0, "uncertainty": 5.0},
+                 {"analyte": "sulfate", "value": 500.0, "uncertainty": 2.5}]})"));
+  next = cw::test::table_row_counts(box.db());
+  CHECK(changes(counts, next) == Counts{{"audit_log", 1}, {"lot_values", 2}, {"lots", 1}});
+  counts = next;
+
+  // 6. lot withdraw, back-dated with --at in another offset (08:30 +01:00 = 07:30 UTC)
+  box.now = "2026-03-05T09:00:00Z";
+  j = ok_json(box, {"lot", "withdraw", "CRM-NO3-0042", "--reason", "seal broken on arrival", "--at",
+                    "2026-03-05T08:30:00+01:00", "--json"});
+  CHECK(j["status"] == "withdrawn");
+  CHECK(j["withdrawn_at"] == "2026-03-05T07:30:00Z");
+  CHECK(j["withdrawal_reason"] == "seal broken on arrival");
+  next = cw::test::table_row_counts(box.db());
+  CHECK(changes(counts, next) == Counts{{"audit_log", 1}, {"lot_withdrawals", 1}});
+
+  // The trail: one entry per step, in order, by the acting person, with CURVEWARDEN_NOW noted.
+  const Json entries = ok_json(box, {"audit", "log", "--json"})["entries"];
+  REQUIRE(entries.size() == 6);
+  const char* actions[] = {"lab.init",      "instrument.add", "method.add",
+                           "method.revise", "lot.add",        "lot.withdraw"};
+  for (size_t i = 0; i < 6; ++i) {
+    INFO("entry " << i + 1);
+    CHECK(entries[i]["seq"] == i + 1);
+    CHECK(entries[i]["action"] == actions[i]);
+    CHECK(entries[i]["actor"] == "alice");
+    CHECK(entries[i]["clock_overridden"] == true);
+  }
+  CHECK(entries[0]["prev_hash"] == std::string(64, '0'));
+  CHECK(entries[3]["reason"] == "tighter r2 after validation");
+  CHECK(entries[5]["recorded_at"] == "2026-03-05T09:00:00Z");
+  CHECK(entries[5]["occurred_at"] == "2026-03-05T07:30:00Z");
+  CHECK(entries[5]["back_dated"] == true);
+  CHECK(entries[4]["back_dated"] == false);
+  CHECK(entries[5]["values"]["lot_withdrawals"][0]["reason"] == "seal broken on arrival");
+
+  j = ok_json(box, {"audit", "verify", "--json"});
+  CHECK(j["entries"] == 6);
+  CHECK(j["ok"] == true);
+  CHECK(j["first_broken"].is_null());
+  CHECK(j["head_hash"] == entries[5]["hash"]);
+  const RunResult text = box.run({"audit", "verify"});
+  CHECK(text.exit_code == 0);
+  CHECK_THAT(text.out, Catch::Contains("Audit trail intact: 6 entries"));
+}
+
+TEST_CASE("e2e registry: the text output of the registry commands", "[e2e]") {
+  Sandbox box;
+  box.write_file("anion.toml", cw::test::method_toml());
+  REQUIRE(box.run({"init", "--lab", "Water lab", "--tz", "Europe/Berlin"}).exit_code == 0);
+  RunResult r = box.run({"instrument", "add", "IC-02", "--name", "Ion chromatograph"});
+  CHECK(r.exit_code == 0);
+  CHECK(r.out == "Registered instrument IC-02 (Ion chromatograph).\n");
+  r = box.run({"method", "add", "anion.toml"});
+  CHECK(r.out ==
+        "Registered method ANION-IC version 1 (Nitrate and sulfate in drinking water by ion "
+        "chromatography).\n");
+  // Shown in the lab's zone: 2026-03-31 ends at 2026-04-01 00:00 +02:00 in Berlin.
+  r = box.run({"lot", "add", "CRM-1", "--material", "Nitrate CRM", "--expires", "2026-03-31",
+               "--value", "nitrate=1000"});
+  CHECK(r.out ==
+        "Registered lot CRM-1 (Nitrate CRM), usable through 2026-03-31 (until 2026-04-01 00:00 "
+        "+02:00).\n");
+  r = box.run({"instrument", "service", "IC-02", "--out", "--reason", "pump seal"});
+  CHECK(r.exit_code == 0);
+  CHECK_THAT(r.out, Catch::Contains("Instrument IC-02 is out of service from 2026-03-02 10:00 "
+                                    "+01:00"));
+}
+
+TEST_CASE("e2e registry: init is idempotent", "[e2e]") {
+  Sandbox box;
+  RunResult r = box.run({"init", "--lab", "Water lab", "--tz", "America/New_York", "--json"});
+  REQUIRE(r.exit_code == 0);
+  const Counts counts = cw::test::table_row_counts(box.db());
+  const std::string bytes = cw::test::read_file(box.db());
+  REQUIRE(counts.at("audit_log") == 1);
+
+  // Again, later, without options and with the same options: nothing is written.
+  box.now = "2026-03-09T09:00:00Z";
+  for (const auto& args : std::vector<std::vector<std::string>>{
+           {"init", "--json"},
+           {"init", "--lab", "Water lab", "--tz", "America/New_York", "--json"}}) {
+    r = box.run(args);
+    INFO(r.describe());
+    REQUIRE(r.exit_code == 0);
+    const Json j = r.json();
+    CHECK(j["created"] == false);
+    CHECK(j["changed"] == false);
+    CHECK(j["lab"] == "Water lab");
+    CHECK(j["time_zone"] == "America/New_York");
+    CHECK(j["schema_version"] == 4);
+    CHECK(cw::test::table_row_counts(box.db()) == counts);
+    CHECK(cw::test::read_file(box.db()) == bytes);
+  }
+  r = box.run({"init"});
+  CHECK(r.out == "Store " + box.db().string() +
+                     " is up to date (schema 4): Water lab, time zone America/New_York.\n");
+
+  // A new lab name is a change, recorded as such.
+  r = box.run({"init", "--lab", "Water and soil lab", "--json"});
+  REQUIRE(r.exit_code == 0);
+  CHECK(r.json()["changed"] == true);
+  CHECK(cw::test::table_row_counts(box.db()).at("audit_log") == 2);
+  const Json log = box.run({"audit", "log", "--json"}).json();
+  CHECK(log["entries"][1]["action"] == "lab.change");
+  CHECK(log["entries"][1]["values"]["lab_settings"][0]["time_zone"] == "America/New_York");
+}

@@ -1,0 +1,275 @@
+// SPDX-License-Identifier: Apache-2.0
+// Tests of opening the store (src/store/connection.cpp): migrations on a fresh file, re-opening,
+// a migration that fails halfway, and refusal of newer, foreign and non-SQLite files.
+//
+// The store is inspected through the SQLite C API and, for the header fields, by reading the
+// file's bytes: offsets 18/19 (read/write format version, 2 = WAL), 60 (user_version) and 68
+// (application_id) are from the SQLite file-format description (sqlite.org/fileformat.html,
+// "The Database Header"), 4-byte fields big-endian.
+#include <catch2/catch.hpp>
+#include <string>
+#include <vector>
+
+#include "core/error.h"
+#include "store/connection.h"
+#include "store_test_support.h"
+
+namespace {
+
+using cw::StoreError;
+using cw::store::Connection;
+using cw::store::MigrationSpec;
+using cw::store::OpenOptions;
+using cw::store_test::RawDb;
+using cw::store_test::read_bytes;
+using cw::store_test::TempDir;
+using cw::store_test::write_bytes;
+
+OpenOptions options(const std::filesystem::path& p, bool create) {
+  OpenOptions o;
+  o.path = p.string();
+  o.create = create;
+  return o;
+}
+
+/// The StoreError message that opening throws ("" when it opens).
+std::string open_error(const OpenOptions& o) {
+  try {
+    Connection::open(o);
+  } catch (const StoreError& e) {
+    CHECK(e.exit_code() == cw::ExitCode::Store);
+    return e.what();
+  }
+  return "";
+}
+
+std::string open_error(const OpenOptions& o, const std::vector<MigrationSpec>& migrations) {
+  try {
+    Connection::open(o, migrations);
+  } catch (const StoreError& e) {
+    return e.what();
+  }
+  return "";
+}
+
+std::vector<std::string> table_names(RawDb& raw) {
+  std::vector<std::string> names;
+  for (const auto& r : raw.rows("SELECT name FROM sqlite_master WHERE type = 'table' "
+                                "AND name NOT LIKE 'sqlite%' ORDER BY name")) {
+    names.push_back(r.at(0));
+  }
+  return names;
+}
+
+}  // namespace
+
+TEST_CASE("store: the migrations compiled in are the files of migrations/, in order", "[store]") {
+  const auto m = Connection::embedded_migrations();
+  REQUIRE(m.size() == 4);
+  CHECK(m[0].version == 1);
+  CHECK(m[0].name == "0001_create_audit_and_registries");
+  CHECK(m[1].version == 2);
+  CHECK(m[1].name == "0002_create_calibrations_and_curves");
+  CHECK(m[2].version == 3);
+  CHECK(m[2].name == "0003_create_checks_and_results");
+  CHECK(m[3].version == 4);
+  CHECK(m[3].name == "0004_forbid_updates_and_deletes");
+  CHECK_THAT(m[0].sql, Catch::Contains("CREATE TABLE audit_log"));
+}
+
+TEST_CASE("store: a fresh store records every migration, user_version and application_id",
+          "[store]") {
+  TempDir tmp;
+  const auto path = tmp / "fresh.db";
+  const auto migrations = Connection::embedded_migrations();
+  {
+    auto c = Connection::open(options(path, true));
+    CHECK(c.was_created());
+    CHECK(c.schema_version() == 4);
+  }
+  RawDb raw(path);
+  const auto rows =
+      raw.rows("SELECT version, name, sha256, applied_at FROM schema_migrations ORDER BY version");
+  REQUIRE(rows.size() == 4);
+  for (size_t i = 0; i < rows.size(); ++i) {
+    INFO("migration " << i + 1);
+    CHECK(rows[i][0] == std::to_string(i + 1));
+    CHECK(rows[i][1] == migrations[i].name);
+    // The recorded checksum is SHA-256 of the applied SQL, recomputed here with OpenSSL.
+    CHECK(rows[i][2] == cw::store_test::evp_sha256_hex(migrations[i].sql));
+    CHECK(rows[i][3].size() == 20);  // YYYY-MM-DDTHH:MM:SSZ
+    CHECK(rows[i][3].back() == 'Z');
+  }
+  CHECK(raw.integer("PRAGMA user_version") == 4);
+  CHECK(raw.integer("PRAGMA application_id") == 0x43575244);
+  CHECK(raw.text("PRAGMA journal_mode") == "wal");
+  CHECK(table_names(raw) ==
+        std::vector<std::string>{"audit_log", "calibration_lots", "calibrations", "checks",
+                                 "curve_points", "curve_retirements", "curve_reviews", "curves",
+                                 "instrument_service_events", "instruments", "lab_settings",
+                                 "lot_values", "lot_withdrawals", "lots", "method_versions",
+                                 "methods", "refusals", "results", "schema_migrations"});
+  // Two append-only triggers (no update, no delete) for each of the 19 tables.
+  CHECK(raw.integer("SELECT count(*) FROM sqlite_master WHERE type = 'trigger'") == 38);
+
+  // The same facts in the file header, read as bytes.
+  const std::string header = read_bytes(path).substr(0, 100);
+  CHECK(header.substr(0, 16) == std::string("SQLite format 3\0", 16));
+  CHECK(header.substr(68, 4) == "CWRD");  // application_id 0x43575244
+  CHECK(header.substr(60, 4) == std::string("\0\0\0\x04", 4));
+  CHECK(header[18] == 2);  // WAL
+  CHECK(header[19] == 2);
+}
+
+TEST_CASE("store: re-opening applies nothing", "[store]") {
+  TempDir tmp;
+  const auto path = tmp / "store.db";
+  { Connection::open(options(path, true)); }
+  std::vector<std::vector<std::string>> before;
+  std::int64_t objects_before = 0;
+  {
+    RawDb raw(path);
+    before = raw.rows("SELECT * FROM schema_migrations ORDER BY version");
+    objects_before = raw.integer("SELECT count(*) FROM sqlite_master");
+  }
+  const std::string bytes_before = read_bytes(path);
+
+  for (bool create : {false, true}) {
+    INFO("create = " << create);
+    auto c = Connection::open(options(path, create));
+    CHECK_FALSE(c.was_created());
+    CHECK(c.schema_version() == 4);
+  }
+  RawDb raw(path);
+  CHECK(raw.rows("SELECT * FROM schema_migrations ORDER BY version") == before);
+  CHECK(raw.integer("SELECT count(*) FROM sqlite_master") == objects_before);
+  CHECK(raw.integer("PRAGMA user_version") == 4);
+  CHECK(read_bytes(path) == bytes_before);
+}
+
+TEST_CASE("store: a migration that fails halfway leaves nothing of itself", "[store]") {
+  TempDir tmp;
+  const auto path = tmp / "half.db";
+  const std::vector<MigrationSpec> good = {
+      {1, "0001_create_one", "CREATE TABLE one (x INTEGER) STRICT;"},
+  };
+  // The second migration's first statement is valid, its second refers to a missing table.
+  std::vector<MigrationSpec> broken = good;
+  broken.push_back({2, "0002_half",
+                    "CREATE TABLE two (y INTEGER) STRICT;\n"
+                    "INSERT INTO no_such_table VALUES (1);"});
+
+  const std::string message = open_error(options(path, true), broken);
+  CHECK_THAT(message, Catch::Contains("no_such_table"));
+
+  RawDb raw(path);
+  // Migration 1 was committed on its own; nothing of migration 2 remains.
+  CHECK(table_names(raw) == std::vector<std::string>{"one", "schema_migrations"});
+  CHECK(raw.integer("PRAGMA user_version") == 1);
+  const auto recorded = raw.rows("SELECT version, name FROM schema_migrations ORDER BY version");
+  CHECK(recorded == std::vector<std::vector<std::string>>{{"1", "0001_create_one"}});
+
+  // Fixed, the second migration applies on the next open.
+  std::vector<MigrationSpec> fixed = good;
+  fixed.push_back({2, "0002_half", "CREATE TABLE two (y INTEGER) STRICT;"});
+  auto c = Connection::open(options(path, false), fixed);
+  CHECK(c.schema_version() == 2);
+  CHECK(table_names(raw) == std::vector<std::string>{"one", "schema_migrations", "two"});
+}
+
+TEST_CASE("store: a first migration that fails leaves a bare, unclaimed file", "[store]") {
+  TempDir tmp;
+  const auto path = tmp / "first.db";
+  const std::vector<MigrationSpec> broken = {
+      {1, "0001_bad", "CREATE TABLE one (x INTEGER);\nCREATE TABLE one (x INTEGER);"},
+  };
+  CHECK_THAT(open_error(options(path, true), broken), Catch::Contains("already exists"));
+  {
+    RawDb raw(path);
+    CHECK(raw.integer("SELECT count(*) FROM sqlite_master") == 0);
+    CHECK(raw.integer("PRAGMA user_version") == 0);
+    // Not even the application id: the bootstrap rolled back with the migration.
+    CHECK(raw.integer("PRAGMA application_id") == 0);
+  }
+  // So init can try again.
+  auto c = Connection::open(options(path, true));
+  CHECK(c.schema_version() == 4);
+}
+
+TEST_CASE("store: a store written by a newer version is refused and left byte-identical",
+          "[store]") {
+  TempDir tmp;
+  const auto path = tmp / "newer.db";
+  { Connection::open(options(path, true)); }
+  {
+    RawDb raw(path);
+    REQUIRE(raw.exec("PRAGMA user_version = 99") == SQLITE_OK);
+  }
+  const std::string before = read_bytes(path);
+  for (bool create : {false, true}) {
+    INFO("create = " << create);
+    const std::string message = open_error(options(path, create));
+    CHECK_THAT(message, Catch::Contains("newer version of curvewarden"));
+    CHECK_THAT(message, Catch::Contains("schema 99"));
+    CHECK_THAT(message, Catch::Contains("knows up to 4"));
+    CHECK(read_bytes(path) == before);
+  }
+  RawDb raw(path);
+  CHECK(raw.integer("SELECT count(*) FROM schema_migrations") == 4);
+}
+
+TEST_CASE("store: a file that is not SQLite is refused and left unchanged", "[store]") {
+  TempDir tmp;
+  const auto path = tmp / "notes.db";
+  SECTION("short text") {
+    write_bytes(path, "calibration notes, not a database\n");
+  }
+  SECTION("a page of binary") {
+    std::string bytes(8192, '\0');
+    for (size_t i = 0; i < bytes.size(); ++i) bytes[i] = static_cast<char>((i * 37 + 11) % 256);
+    write_bytes(path, bytes);
+  }
+  const std::string before = read_bytes(path);
+  for (bool create : {false, true}) {
+    INFO("create = " << create);
+    CHECK_THAT(open_error(options(path, create)), Catch::Contains("is not a Curvewarden store"));
+    CHECK(read_bytes(path) == before);
+  }
+  CHECK_FALSE(std::filesystem::exists(tmp / "notes.db-wal"));
+}
+
+TEST_CASE("store: a SQLite file of another application is refused and left unchanged", "[store]") {
+  TempDir tmp;
+  const auto path = tmp / "other.db";
+  {
+    RawDb raw(path, /*create=*/true);
+    SECTION("tables, no application id") {
+      REQUIRE(raw.exec("CREATE TABLE samples (id INTEGER PRIMARY KEY, name TEXT);"
+                       "INSERT INTO samples (name) VALUES ('tap water');") == SQLITE_OK);
+    }
+    SECTION("another application id, no tables") {
+      REQUIRE(raw.exec("PRAGMA application_id = 1234; PRAGMA user_version = 1;") == SQLITE_OK);
+    }
+  }
+  const std::string before = read_bytes(path);
+  for (bool create : {false, true}) {
+    INFO("create = " << create);
+    CHECK_THAT(open_error(options(path, create)), Catch::Contains("is not a Curvewarden store"));
+    CHECK(read_bytes(path) == before);
+  }
+}
+
+TEST_CASE("store: a missing or empty file is not a store unless init creates it", "[store]") {
+  TempDir tmp;
+  const auto missing = tmp / "missing.db";
+  CHECK_THAT(open_error(options(missing, false)), Catch::Contains("no store at"));
+  CHECK_FALSE(std::filesystem::exists(missing));
+
+  const auto empty = tmp / "empty.db";
+  write_bytes(empty, "");
+  CHECK_THAT(open_error(options(empty, false)), Catch::Contains("is an empty file"));
+  CHECK(read_bytes(empty).empty());
+  auto c = Connection::open(options(empty, true));
+  CHECK(c.was_created());
+  CHECK(c.schema_version() == 4);
+}
