@@ -348,6 +348,61 @@ void add_quantitation_commands(CLI::App& app, Ctx& ctx, Arguments& a, Action& ac
   }
 }
 
+std::size_t edit_distance(const std::string& a, const std::string& b) {
+  std::vector<std::size_t> row(b.size() + 1);
+  for (std::size_t j = 0; j <= b.size(); ++j) row[j] = j;
+  for (std::size_t i = 1; i <= a.size(); ++i) {
+    std::size_t diagonal = row[0];
+    row[0] = i;
+    for (std::size_t j = 1; j <= b.size(); ++j) {
+      const std::size_t above = row[j];
+      row[j] = std::min({row[j] + 1, row[j - 1] + 1, diagonal + (a[i - 1] == b[j - 1] ? 0 : 1)});
+      diagonal = above;
+    }
+  }
+  return row[b.size()];
+}
+
+/// When parsing failed because a word is not a command at its level ("curvewarden frobnicate",
+/// "curvewarden curve lsit"), an error that names it and suggests the nearest command.
+std::optional<UsageError> unknown_command(CLI::App& app, const std::vector<std::string>& args) {
+  static const std::vector<std::string> kGlobalsWithValue = {"--db", "--as", "--at"};
+  CLI::App* level = &app;
+  std::string path = "curvewarden";
+  for (std::size_t i = 0; i < args.size(); ++i) {
+    const std::string& word = args[i];
+    if (word.rfind("-", 0) == 0) {
+      if (std::find(kGlobalsWithValue.begin(), kGlobalsWithValue.end(), word) != kGlobalsWithValue.end()) ++i;
+      continue;
+    }
+    const auto subcommands = level->get_subcommands([](CLI::App*) { return true; });
+    if (subcommands.empty()) return std::nullopt;  // a positional argument of a leaf command
+    CLI::App* next = nullptr;
+    std::string names, nearest;
+    std::size_t best = 3;  // suggest only near misses
+    for (CLI::App* sub : subcommands) {
+      if (sub->get_name() == word) next = sub;
+      names += (names.empty() ? "" : ", ") + sub->get_name();
+      if (const std::size_t d = edit_distance(word, sub->get_name()); d < best) {
+        best = d;
+        nearest = sub->get_name();
+      }
+    }
+    if (next == nullptr) {
+      std::string message = "unknown command '" + word + "' for '" + path + "'";
+      if (!nearest.empty()) message += ", did you mean '" + nearest + "'?";
+      return UsageError(message, "commands here: " + names);
+    }
+    level = next;
+    path += " " + word;
+  }
+  const auto subcommands = level->get_subcommands([](CLI::App*) { return true; });
+  if (subcommands.empty()) return std::nullopt;
+  std::string names;
+  for (CLI::App* sub : subcommands) names += (names.empty() ? "" : ", ") + sub->get_name();
+  return UsageError("'" + path + "' needs a command", "one of: " + names);
+}
+
 }  // namespace
 
 int run_cli(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
@@ -380,6 +435,7 @@ int run_cli(const std::vector<std::string>& args, std::ostream& out, std::ostrea
     } catch (const CLI::Success& e) {  // --help, --version
       return app.exit(e, out, err);
     } catch (const CLI::ParseError& e) {
+      if (auto unknown = unknown_command(app, args)) throw *unknown;
       throw UsageError(e.what(), "run 'curvewarden --help' (or 'curvewarden COMMAND --help')");
     }
     if (*db_opt) ctx.global.db = db;

@@ -131,6 +131,8 @@ Connection Connection::open(const OpenOptions& options,
     }
     db.exec("PRAGMA foreign_keys = ON");
     db.exec("PRAGMA synchronous = NORMAL");
+    // With recursive triggers, INSERT OR REPLACE fires the delete guards too.
+    db.exec("PRAGMA recursive_triggers = ON");
     if (user_version < latest) {
       // CURVEWARDEN_NOW replaces "now" everywhere (product.md §3), applied_at included.
       const auto clock = clock_from_environment();

@@ -284,7 +284,7 @@ std::vector<BadCase> cases() {
        "method 'ANION-IC' has no version 7",
        "not-found"},
       // --- command line
-      {"unknown subcommand", {"frobnicate"}, 2, "subcommand", "bad-usage"},
+      {"unknown subcommand", {"frobnicate"}, 2, "unknown command 'frobnicate'", "bad-usage"},
       {"unknown option", {"instrument", "list", "--colour"}, 2, "--colour", "bad-usage"},
       {"missing required option", lot_add({}), 2, "--value is required", "bad-usage"},
       {"missing required --material",
@@ -422,13 +422,13 @@ TEST_CASE("e2e bad input: init with an invalid zone creates no store", "[e2e]") 
   CHECK(std::filesystem::is_empty(box.dir()));
 }
 
-// Known defect (see the test report): an unknown subcommand is reported as "A subcommand is
-// required" without naming the word the user typed. The style guide (anchors.md §3.4) wants
-// "unknown subcommand 'retrie', did you mean 'retire'?". Tagged [!shouldfail] until
-// src/cli/cli_app.cpp names it; remove the tag then.
-TEST_CASE("e2e bad input: an unknown subcommand is named in the message", "[e2e][!shouldfail]") {
+// Style guide (anchors §3.4): a mistyped command is named, with the nearest command suggested.
+TEST_CASE("e2e bad input: an unknown subcommand is named in the message", "[e2e]") {
   Sandbox box;
   const RunResult r = box.run({"instrument", "frobnicate"});
   CHECK(r.exit_code == 2);
   CHECK_THAT(r.err, Catch::Contains("'frobnicate'"));
+  const RunResult near = box.run({"curve", "retrie", "1", "--reason", "x"});
+  CHECK(near.exit_code == 2);
+  CHECK_THAT(near.err, Catch::Contains("did you mean 'retire'?"));
 }
