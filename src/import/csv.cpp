@@ -78,8 +78,7 @@ CsvTable CsvTable::parse(const std::string& file, const std::string& text,
   t.file_ = file;
   std::vector<CsvRecord> records = split_records(file, text);
   if (records.empty()) {
-    throw ValidationError(SourceLocation{file, std::nullopt, std::nullopt, {}},
-                          "'" + file + "' is empty",
+    throw ValidationError(SourceLocation{file, 1, std::nullopt, {}}, "'" + file + "' is empty",
                           "the first line must be a header naming the columns");
   }
   const CsvRecord& header = records.front();
@@ -118,8 +117,9 @@ CsvTable CsvTable::parse(const std::string& file, const std::string& text,
     t.records_.push_back(std::move(records[k]));
   }
   if (t.records_.empty()) {
-    throw ValidationError(SourceLocation{file, std::nullopt, std::nullopt, {}},
-                          "'" + file + "' has a header but no data lines");
+    throw ValidationError(SourceLocation{file, header.line + 1, std::nullopt, {}},
+                          "'" + file + "' has a header but no data lines",
+                          "add one line per calibrator after the header");
   }
   return t;
 }

@@ -171,15 +171,17 @@ PointsFile parse_points_text(const std::string& file_name, const std::string& te
   for (const auto& analyte : method.analytes) {
     std::set<double> levels;
     bool present = false;
+    long first_line = 0;
     for (const auto& row : out.rows) {
       if (row.analyte != analyte) continue;
+      if (!present) first_line = row.line;
       present = true;
       if (!row.exclude_reason) levels.insert(row.nominal);
     }
     if (!present) continue;
     out.analytes.push_back(analyte);
     if (static_cast<int>(levels.size()) < needed) {
-      throw ValidationError(SourceLocation{file_name, std::nullopt, std::nullopt, "level"},
+      throw ValidationError(SourceLocation{file_name, first_line, std::nullopt, "level"},
                             "analyte " + quote(analyte) + " has " + std::to_string(levels.size()) +
                                 " distinct level(s) that are not excluded; the " +
                                 std::string(fitting::to_string(method.calibration.model)) +
