@@ -132,6 +132,26 @@ PointsFile parse_points_text(const std::string& file_name, const std::string& te
     }
     if (table.has_column("exclude") && !r.text("exclude").empty())
       row.exclude_reason = r.text("exclude");
+    // Weights that need a positive value at every fitted point (calibration-practice.md §1.3).
+    const auto weighting = method.calibration.weighting;
+    if (!row.exclude_reason) {
+      if ((weighting == fitting::Weighting::InvX || weighting == fitting::Weighting::InvX2) &&
+          row.nominal <= 0) {
+        r.fail("nominal",
+               "nominal 0 cannot be weighted by " + std::string(fitting::to_string(weighting)) +
+                   " (method " + quote(method.code) + ")",
+               "give the blank or zero level a reason in the 'exclude' column: it is kept, not "
+               "fitted");
+      }
+      if ((weighting == fitting::Weighting::InvY || weighting == fitting::Weighting::InvY2) &&
+          row.y <= 0) {
+        r.fail("response",
+               "a response of 0 or less cannot be weighted by " +
+                   std::string(fitting::to_string(weighting)) + " (method " + quote(method.code) +
+                   ")",
+               "exclude the point with a reason in the 'exclude' column");
+      }
+    }
 
     const auto key = std::make_tuple(row.analyte, row.level, row.replicate);
     if (auto it = seen.find(key); it != seen.end()) {

@@ -79,6 +79,9 @@ std::vector<BadCase> bad_cases() {
        "ANION-IC", 3, 6, "mg/L"},
       {"quoted field never closed", h + kGoodRows + "nitrate,L6,\"10,99.1,1,\n", "ANION-IC", 7, 0,
        "never closed"},
+      // 1/x is undefined at x = 0 (calibration-practice.md §1.3): a blank level must be excluded.
+      {"zero level under 1/x weighting", h + "nitrate,L0,0,0.3,1,\n" + kGoodRows, "NO3-W", 2, 3,
+       "cannot be weighted by 1/x"},
   };
 }
 
@@ -94,6 +97,10 @@ TEST_CASE("points file: bad input is refused naming file, line and column, and n
   with_is.code = "NO3-IS";
   with_is.internal_standard = "bromide";
   lab.add_method(with_is);
+  MethodSpec weighted;
+  weighted.code = "NO3-W";
+  weighted.weighting = "1/x";
+  lab.add_method(weighted);
 
   const auto cases = bad_cases();
   REQUIRE(cases.size() >= 15);
