@@ -171,6 +171,7 @@ WriteTransaction::WriteTransaction(Connection& connection, const Actor& actor)
     : connection_(connection), actor_(actor) {
   auto& impl = connection_.impl();
   try {
+    impl.release_statements();
     impl.db->exec("BEGIN IMMEDIATE");
     open_ = true;
     auto& last = impl.statement("SELECT seq, hash FROM audit_log ORDER BY seq DESC LIMIT 1");
@@ -270,6 +271,7 @@ ReadTransaction::ReadTransaction(Connection& connection) : connection_(connectio
   auto& impl = connection_.impl();
   if (sqlite3_get_autocommit(impl.db->getHandle()) == 0) return;  // already inside one
   try {
+    impl.release_statements();
     impl.db->exec("BEGIN DEFERRED");
     open_ = true;
   } catch (const SQLite::Exception& e) {
@@ -280,6 +282,7 @@ ReadTransaction::ReadTransaction(Connection& connection) : connection_(connectio
 ReadTransaction::~ReadTransaction() {
   if (open_) {
     try {
+      connection_.impl().release_statements();
       connection_.impl().db->exec("COMMIT");
     } catch (...) {
       // Nothing was written; ending a read snapshot cannot lose data.

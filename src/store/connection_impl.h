@@ -32,6 +32,13 @@ struct Connection::Impl {
     }
     return *slot;
   }
+
+  /// Resets every cached statement. A statement stepped to a row and left there keeps a read
+  /// snapshot open; a writer holding one cannot wait for the write lock (SQLite reports busy at
+  /// once instead of calling the busy handler), so every transaction starts from here.
+  void release_statements() {
+    for (auto& [sql, statement] : statements) statement->reset();
+  }
 };
 
 /// Translates an SQLite error into StoreError (exit 4), keeping both result codes.
