@@ -5,11 +5,16 @@
 namespace cw::app {
 
 std::vector<audit::AuditEntry> audit_log(Session& s, const store::AuditFilter& filter) {
-  return store::list_audit(s.db(), filter);
+  auto unit = s.read();
+  return unit->audit().list(filter);
 }
 
-store::VerifyReport verify_audit(Session& s) {
-  return store::verify_audit(s.db());
+VerifyOutcome verify_audit(Session& s) {
+  VerifyOutcome out;
+  out.missing_guards = s.store().missing_guards();
+  auto unit = s.read();
+  out.chain = unit->audit().verify();
+  return out;
 }
 
 }  // namespace cw::app

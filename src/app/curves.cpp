@@ -3,31 +3,115 @@
 #include "app/curves.h"
 
 #include <algorithm>
-#include <set>
+#include <cmath>
 
+#include "app/refusal.h"
 #include "app/registry.h"
 #include "core/error.h"
 #include "core/text.h"
+#include "domain/expiry.h"
 #include "fitting/acceptance.h"
+#include "import/input_file.h"
 #include "import/points_file.h"
-#include "store/curve_repository.h"
-#include "store/registry_repository.h"
 
 namespace cw::app {
 namespace {
 
-std::vector<std::string> split_codes(const std::vector<std::string>& options) {
-  std::vector<std::string> out;
-  for (const auto& o : options) {
-    for (auto& part : split(o, ',')) {
-      std::string code = trim(part);
-      if (code.empty())
-        throw UsageError("--lot has an empty code",
-                         "give lot codes separated by commas, e.g. --lot A,B");
-      if (std::find(out.begin(), out.end(), code) == out.end()) out.push_back(code);
+/// What a calibration is made against, loaded and checked at the acquisition time.
+struct CalibrationBasis {
+  Method method;
+  MethodVersionId version_id;
+  Instrument instrument;
+  std::vector<Lot> lots;
+
+  const MethodVersion& version() const { return *method.version_number(version_number); }
+  int version_number = 0;
+};
+
+CalibrationBasis load_basis(store::ReadUnit& unit, const CurveLogRequest& r, Instant at,
+                            const LabZone& zone) {
+  CalibrationBasis b;
+  b.method = get_method(unit, r.method);
+  const MethodVersion* version = b.method.version_at(at);
+  if (!version) {
+    throw ValidationError(
+        "method " + quote(b.method.code) + " has no version in force at " + zone.format_local(at),
+        "version 1 took effect " + zone.format_local(b.method.versions.front().effective_at));
+  }
+  b.version_id = version->id;
+  b.version_number = version->version;
+  b.instrument = get_instrument(unit, r.instrument);
+  if (at < b.instrument.registered_at) {
+    throw ValidationError("instrument " + quote(b.instrument.code) + " was registered only at " +
+                          zone.format_local(b.instrument.registered_at));
+  }
+  if (const ServiceEvent* out = b.instrument.out_of_service_event_at(at)) {
+    throw ValidationError(
+        "instrument " + quote(b.instrument.code) + " is out of service since " +
+            zone.format_local(out->occurred_at) + " (" + out->reason + ")",
+        "return it with 'instrument service " + b.instrument.code + " --back --reason ...' first");
+  }
+  for (const auto& code : r.lots) {
+    Lot lot = get_lot(unit, code);
+    if (lot.is_withdrawn_at(at)) {
+      throw ValidationError("lot " + quote(code) + " was withdrawn " +
+                                zone.format_local(lot.withdrawal->occurred_at) + " (" +
+                                lot.withdrawal->reason + ")",
+                            "calibrate with another lot");
+    }
+    if (lot.is_expired_at(at, zone)) {
+      throw ValidationError("lot " + quote(code) + " expired at the end of " +
+                                format_date(lot.effective_expires_on()),
+                            "calibrate with a lot that is still usable");
+    }
+    if (at < lot.registered_at) {
+      throw ValidationError("lot " + quote(code) + " was registered only at " +
+                            zone.format_local(lot.registered_at));
+    }
+    b.lots.push_back(std::move(lot));
+  }
+  return b;
+}
+
+/// Refuses a fit whose figures cannot be stored or read: a zero slope or a value that is not
+/// finite (e.g. responses that do not change with concentration).
+void require_storable(const Curve& c, const std::string& file) {
+  const SourceLocation where{file, std::nullopt, std::nullopt, "response"};
+  const auto& f = c.fit;
+  if (f.slope == 0 && f.quadratic == 0) {
+    throw ValidationError(where,
+                          "analyte " + quote(c.analyte) +
+                              ": the responses do not change with concentration (slope 0), so "
+                              "no calibration can be read from them",
+                          "check the response column of the points file");
+  }
+  std::vector<double> values = {
+      f.intercept, f.slope,           f.quadratic, f.se_intercept, f.se_slope,   f.se_quadratic,
+      f.r2,        f.residual_sd,     f.sse,       f.range_low,    f.range_high, f.lod,
+      f.loq,       f.rf_mean,         f.rf_sd,     f.rf_rsd_pct,   f.xbar_w,     f.ybar_w,
+      f.sxx_w,     f.sum_raw_weights, f.sum_x2_w};
+  for (const auto& row : f.covariance) values.insert(values.end(), row.begin(), row.end());
+  if (f.mandel) {
+    values.insert(values.end(), {f.mandel->s_y1, f.mandel->s_y2, f.mandel->ds2,
+                                 f.mandel->test_value, f.mandel->f_critical_99});
+  }
+  for (const auto& p : c.points) {
+    if (p.back_calculated) values.push_back(*p.back_calculated);
+    if (p.error_pct) values.push_back(*p.error_pct);
+  }
+  for (const auto& finding : c.acceptance.failures) {
+    if (!std::isnan(finding.value)) values.push_back(finding.value);
+  }
+  for (double v : values) {
+    if (!std::isfinite(v)) {
+      throw ValidationError(where,
+                            "analyte " + quote(c.analyte) +
+                                ": the fit of these points gives a value that is not a finite "
+                                "number (the concentrations or responses are too large, too "
+                                "small or too nearly equal)",
+                            "check the nominal and response columns of the points file");
     }
   }
-  return out;
 }
 
 /// Fits and judges one analyte's points.
@@ -45,6 +129,26 @@ Curve build_curve(const import::PointsFile& points, const std::string& analyte,
   }
   Curve c;
   c.analyte = analyte;
+  const auto fitted_y = [](const fitting::Observation& o) {
+    return o.excluded ? std::nullopt : std::optional<double>(o.y);
+  };
+  std::optional<double> first_y;
+  bool varies = false;
+  for (const auto& o : observations) {
+    const auto y = fitted_y(o);
+    if (!y) continue;
+    if (first_y && *y != *first_y) varies = true;
+    if (!first_y) first_y = y;
+  }
+  if (first_y && !varies) {
+    throw ValidationError(SourceLocation{points.file_name, std::nullopt, std::nullopt, "response"},
+                          "analyte " + quote(analyte) +
+                              ": the responses do not change with concentration (every fitted "
+                              "response is " +
+                              format_shortest(*first_y) +
+                              "), so no calibration can be read from them",
+                          "check the response column of the points file");
+  }
   try {
     c.fit = fitting::fit(rules.model, rules.weighting, observations);
   } catch (const fitting::FitError& e) {
@@ -54,10 +158,9 @@ Curve build_curve(const import::PointsFile& points, const std::string& analyte,
   c.acceptance = fitting::evaluate_acceptance(c.fit, levels, rules.acceptance_criteria());
   c.verdict = c.acceptance.accepted ? Verdict::Accepted : Verdict::Rejected;
   for (const auto& f : c.acceptance.failures) {
-    const std::string token(fitting::to_string(f.criterion));
-    if (std::find(c.failed_criteria.begin(), c.failed_criteria.end(), token) ==
+    if (std::find(c.failed_criteria.begin(), c.failed_criteria.end(), f.criterion) ==
         c.failed_criteria.end()) {
-      c.failed_criteria.push_back(token);
+      c.failed_criteria.push_back(f.criterion);
     }
   }
   for (std::size_t i = 0; i < rows.size(); ++i) {
@@ -78,256 +181,199 @@ Curve build_curve(const import::PointsFile& points, const std::string& analyte,
     c.points.push_back(std::move(p));
   }
   c.fit.points.clear();  // the per-point table lives in curve_points
+  require_storable(c, points.file_name);
   return c;
+}
+
+/// The points file parsed for one method version, and its curves fitted and judged.
+struct FittedCalibration {
+  import::PointsFile points;
+  std::vector<Curve> curves;
+};
+
+FittedCalibration fit_calibration(const std::string& file, const std::string& text,
+                                  const MethodVersion& version) {
+  FittedCalibration out;
+  out.points = import::parse_points_text(file, text, version.definition);
+  for (const auto& analyte : out.points.analytes) {
+    out.curves.push_back(build_curve(out.points, analyte, version));
+  }
+  return out;
+}
+
+std::string failed_list(const Curve& c) {
+  std::string out;
+  for (const auto& t : c.failed_criteria) {
+    out += (out.empty() ? "" : ", ") + std::string(fitting::to_string(t));
+  }
+  return out;
 }
 
 }  // namespace
 
-void require_acquired(const Session& s, const Curve& c) {
-  if (s.at() < c.acquired_at) {
-    throw ValidationError("--at " + s.zone().format_local(s.at()) + " is before curve " +
+void require_acquired(Instant at, const Curve& c, const LabZone& zone) {
+  if (at < c.acquired_at) {
+    throw ValidationError("--at " + zone.format_local(at) + " is before curve " +
                           std::to_string(c.id.value) + " was acquired (" +
-                          s.zone().format_local(c.acquired_at) + ")");
+                          zone.format_local(c.acquired_at) + ")");
   }
-}
-
-CurveId parse_curve_id(const std::string& text) {
-  auto v = parse_integer(text);
-  if (!v || *v < 1) throw UsageError("curve id " + quote(text) + " is not a positive whole number");
-  return CurveId{*v};
-}
-
-void refuse(Session& s, const std::string& action, const std::string& entity_kind,
-            const std::string& entity_id, const std::vector<std::string>& reasons,
-            const std::string& message, const std::string& hint) {
-  auto tx = s.write();
-  store::insert_refusal(tx, {action, entity_kind, entity_id, reasons, message, s.at()});
-  tx.append_entry({action + "-refused", entity_kind, entity_id, message, s.at()});
-  tx.commit();
-  throw RefusedError(message, hint);
-}
-
-CurveView make_view(FactLoader& facts, CurveId id, Instant at) {
-  CurveView v;
-  const Curve& c = facts.curve(id);
-  v.curve = c;
-  v.method_code = facts.method(c.method_id).code;
-  v.version = facts.version_of(id);
-  v.instrument_code = facts.instrument(c.instrument_id).code;
-  for (const Lot* lot : facts.lots_of(id)) v.lots.push_back(*lot);
-  v.status = facts.status(id, at);
-  v.as_of = at;
-  return v;
 }
 
 CurveLogOutcome log_calibration(Session& s, const CurveLogRequest& r) {
   const Instant at = s.at();
-  const std::vector<std::string> lot_codes = split_codes(r.lots);
-  if (lot_codes.empty())
-    throw UsageError("give at least one --lot CODE",
-                     "the reference-material lot(s) the calibrators were made from");
-  std::optional<std::string> note;
-  if (r.note) note = checked_reason(*r.note, "--note");
+  // 1. Outside the write lock: what the file is checked against, the file, the fit.
+  const std::string text =
+      import::read_text_file(r.points, import::kMaxPointsFileBytes, "--points");
+  CalibrationBasis basis;
+  {
+    auto unit = s.read();
+    basis = load_basis(*unit, r, at, s.zone());
+  }
+  FittedCalibration fitted = fit_calibration(r.points, text, basis.version());
 
-  auto tx = s.write();
-  const Method method = get_method(s, r.method);
-  const MethodVersion* version = method.version_at(at);
-  if (!version) {
-    throw ValidationError(
-        "method " + quote(method.code) + " has no version in force at " + s.zone().format_local(at),
-        "version 1 took effect " + s.zone().format_local(method.versions.front().effective_at));
+  // 2. One transaction: the same checks on the current facts, then the facts and entries.
+  auto unit = s.write();
+  const CalibrationBasis now = load_basis(*unit, r, at, s.zone());
+  if (now.version_id != basis.version_id) {
+    // The method was revised in between: judge against the version in force now.
+    fitted = fit_calibration(r.points, text, now.version());
   }
-  const import::PointsFile points = import::read_points_file(r.points, version->definition);
-  const Instrument instrument = get_instrument(s, r.instrument);
-  if (at < instrument.registered_at) {
-    throw ValidationError("instrument " + quote(instrument.code) + " was registered only at " +
-                          s.zone().format_local(instrument.registered_at));
-  }
-  if (const ServiceEvent* out = instrument.out_of_service_event_at(at)) {
-    throw ValidationError(
-        "instrument " + quote(instrument.code) + " is out of service since " +
-            s.zone().format_local(out->occurred_at) + " (" + out->reason + ")",
-        "return it with 'instrument service " + instrument.code + " --back --reason ...' first");
-  }
-  std::vector<Lot> lots;
+  const MethodVersion& version = now.version();
+
   CurveLogOutcome outcome;
-  for (const auto& code : lot_codes) {
-    Lot lot = get_lot(s, code);
-    if (lot.is_withdrawn_at(at)) {
-      throw ValidationError("lot " + quote(code) + " was withdrawn " +
-                                s.zone().format_local(lot.withdrawal->occurred_at) + " (" +
-                                lot.withdrawal->reason + ")",
-                            "calibrate with another lot");
-    }
-    if (lot.is_expired_at(at, s.zone())) {
-      throw ValidationError("lot " + quote(code) + " expired at the end of " +
-                                format_date(lot.effective_expires_on()),
-                            "calibrate with a lot that is still usable");
-    }
-    if (at < lot.registered_at) {
-      throw ValidationError("lot " + quote(code) + " was registered only at " +
-                            s.zone().format_local(lot.registered_at));
-    }
-    lots.push_back(std::move(lot));
-  }
-  for (const auto& analyte : points.analytes) {
-    const bool certified =
-        std::any_of(lots.begin(), lots.end(), [&](const Lot& l) { return l.value_for(analyte); });
-    if (!certified)
+  for (const auto& analyte : fitted.points.analytes) {
+    const bool certified = std::any_of(now.lots.begin(), now.lots.end(),
+                                       [&](const Lot& l) { return l.value_for(analyte); });
+    if (!certified) {
       outcome.warnings.push_back("no lot given certifies a value for analyte '" + analyte + "'");
+    }
   }
-  for (const auto& analyte : version->definition.analytes) {
-    if (std::find(points.analytes.begin(), points.analytes.end(), analyte) ==
-        points.analytes.end()) {
+  for (const auto& analyte : version.definition.analytes) {
+    if (std::find(fitted.points.analytes.begin(), fitted.points.analytes.end(), analyte) ==
+        fitted.points.analytes.end()) {
       outcome.warnings.push_back("the points file has no calibrators for analyte '" + analyte +
                                  "'");
     }
   }
-
-  Instant expires = add_duration(at, version->definition.calibration.valid_for, s.zone());
-  for (const auto& lot : lots) expires = std::min(expires, lot.expiry_instant(s.zone()));
-
-  std::vector<Curve> curves;
-  for (const auto& analyte : points.analytes)
-    curves.push_back(build_curve(points, analyte, *version));
+  std::vector<const Lot*> lots;
+  for (const auto& lot : now.lots) lots.push_back(&lot);
+  const Instant expires = expiry_of(at, version, lots, s.zone()).at;
 
   Calibration calibration;
-  calibration.method_version_id = version->id;
-  calibration.instrument_id = instrument.id;
+  calibration.method_version_id = version.id;
+  calibration.instrument_id = now.instrument.id;
   calibration.acquired_at = at;
   calibration.analyst = s.actor().name;
-  calibration.note = note;
-  calibration.points_file = points.file_name;
-  calibration.points_sha256 = points.sha256;
-  for (const auto& lot : lots) calibration.lots.push_back(lot.id);
-  const CalibrationId calibration_id = store::insert_calibration(tx, calibration);
-  tx.append_entry(
-      {"calibration.log", "calibration", std::to_string(calibration_id.value), note, at});
+  calibration.note = r.note;
+  calibration.points_file = fitted.points.file_name;
+  calibration.points_sha256 = fitted.points.sha256;
+  for (const auto& lot : now.lots) calibration.lots.push_back(lot.id);
+  const CalibrationId calibration_id = unit->curve_writer().add_calibration(calibration);
+  unit->append_entry(
+      {"calibration.log", "calibration", std::to_string(calibration_id.value), r.note, at});
   std::vector<CurveId> ids;
-  for (auto& c : curves) {
+  for (auto& c : fitted.curves) {
     c.calibration_id = calibration_id;
-    c.method_id = method.id;
-    c.method_version_id = version->id;
-    c.instrument_id = instrument.id;
+    c.method_id = now.method.id;
+    c.method_version_id = version.id;
+    c.instrument_id = now.instrument.id;
     c.acquired_at = at;
     c.analyst = s.actor().name;
     c.expires_at = expires;
-    const CurveId id = store::insert_curve(tx, c);
+    const CurveId id = unit->curve_writer().add_curve(c);
     ids.push_back(id);
     std::string summary = c.analyte + ": " + std::string(to_string(c.verdict));
-    for (const auto& t : c.failed_criteria) summary += " " + t;
-    tx.append_entry({"curve.log", "curve", std::to_string(id.value), summary, at});
+    for (const auto& t : c.failed_criteria) summary += " " + std::string(fitting::to_string(t));
+    unit->append_entry({"curve.log", "curve", std::to_string(id.value), summary, at});
     outcome.any_rejected = outcome.any_rejected || c.verdict == Verdict::Rejected;
   }
-  tx.commit();
-
+  FactSet facts(*unit, s.zone());
+  outcome.curves = make_views(facts, ids, at, /*with_points=*/true);
+  unit->commit();
   outcome.calibration_id = calibration_id;
-  FactLoader facts(s);
-  for (CurveId id : ids) outcome.curves.push_back(make_view(facts, id, at));
   return outcome;
 }
 
 std::vector<CurveView> list_curves(Session& s, const CurveListRequest& r) {
-  std::optional<CurveState> state;
-  if (r.state) {
-    state = parse_curve_state(*r.state);
-    if (!state) {
-      throw UsageError("unknown state " + quote(*r.state),
-                       "states are rejected, awaiting-review, active, stale, retired");
-    }
-  }
-  store::ReadTransaction read(s.db());
+  auto unit = s.read();
   store::CurveFilter filter;
-  if (r.method) filter.method = get_method(s, *r.method).id;
-  if (r.instrument) filter.instrument = get_instrument(s, *r.instrument).id;
+  if (r.method) filter.method = get_method(*unit, *r.method).id;
+  if (r.instrument) filter.instrument = get_instrument(*unit, *r.instrument).id;
   filter.analyte = r.analyte;
   filter.acquired_by = s.at();
-  FactLoader facts(s);
+  FactSet facts(*unit, s.zone());
   std::vector<CurveView> out;
-  for (CurveId id : store::list_curve_ids(s.db(), filter)) {
-    CurveView v = make_view(facts, id, s.at());
-    if (state && v.status.state != *state) continue;
+  for (auto& v : make_views(facts, unit->curves().list(filter), s.at())) {
+    if (r.state && v.status.state != *r.state) continue;
     out.push_back(std::move(v));
   }
   return out;
 }
 
 CurveView show_curve(Session& s, CurveId id) {
-  store::ReadTransaction read(s.db());
-  FactLoader facts(s);
-  require_acquired(s, facts.curve(id));
-  return make_view(facts, id, s.at());
+  auto unit = s.read();
+  FactSet facts(*unit, s.zone());
+  require_acquired(s.at(), facts.curve(id, /*with_points=*/true), s.zone());
+  return make_views(facts, {id}, s.at(), true).front();
 }
 
-CurveView review_curve(Session& s, CurveId id, ReviewDecision decision,
-                       const std::string& reason_text) {
-  const std::string reason = checked_reason(reason_text);
-  const std::string action = decision == ReviewDecision::Approve ? "curve.approve" : "curve.reject";
+CurveView change_curve(Session& s, CurveId id, CurveAction action, const std::string& reason) {
+  const Instant at = s.at();
   const std::string entity = std::to_string(id.value);
-  std::optional<std::pair<std::vector<std::string>, std::string>> refusal;
+  auto unit = s.write();
   {
-    store::ReadTransaction read(s.db());
-    FactLoader facts(s);
+    FactSet facts(*unit, s.zone());
     const Curve& c = facts.curve(id);
-    require_acquired(s, c);
-    const CurveStatus status = facts.status(id, s.at());
-    if (c.analyst == s.actor().name) {
-      refusal = {{"self-review"},
-                 "curve " + entity + " was logged by " + c.analyst +
-                     "; a second person must review it (the reviewer cannot be the analyst)"};
-    } else if (c.verdict == Verdict::Rejected) {
-      std::string criteria;
-      for (const auto& t : c.failed_criteria) criteria += (criteria.empty() ? "" : ", ") + t;
-      refusal = {{"rejected"},
-                 "curve " + entity + " was rejected by acceptance (" + criteria +
-                     "); it cannot be reviewed. Log a new calibration"};
-    } else if (status.state != CurveState::AwaitingReview) {
-      std::string why = "curve " + entity + " is " + std::string(to_string(status.state)) +
-                        ", not awaiting review";
-      if (status.cause) why += ": " + status.cause->message;
-      if (status.state == CurveState::Active || status.state == CurveState::Stale) {
-        if (!c.reviews.empty()) {
-          why += " (approved by " + c.reviews.front().reviewer + " on " +
-                 s.zone().format_local(c.reviews.front().occurred_at) + ")";
-        } else {
-          why += " (its method version does not require review)";
+    require_acquired(at, c, s.zone());
+    const CurveStatus status = facts.status(id, at);
+    const bool self = c.analyst == s.actor().name;
+    if (const auto refusal = transition_refusal(action, status.state, c.verdict, self)) {
+      std::string message;
+      switch (*refusal) {
+        case Reason::SelfReview:
+          message = "curve " + entity + " was logged by " + c.analyst +
+                    "; a second person must review it (the reviewer cannot be the analyst)";
+          break;
+        case Reason::CurveRejected:
+          message = "curve " + entity + " was rejected by acceptance (" + failed_list(c) +
+                    "); it cannot be reviewed. Log a new calibration";
+          break;
+        case Reason::NotRetirable:
+          message = "curve " + entity + " is already " + std::string(to_string(status.state)) +
+                    (status.cause ? ": " + status.cause->message : "");
+          break;
+        default: {
+          message = "curve " + entity + " is " + std::string(to_string(status.state)) +
+                    ", not awaiting review";
+          if (status.cause) message += ": " + status.cause->message;
+          if (status.state == CurveState::Active || status.state == CurveState::Stale) {
+            if (!c.reviews.empty()) {
+              message += " (approved by " + c.reviews.front().reviewer + " on " +
+                         s.zone().format_local(c.reviews.front().occurred_at) + ")";
+            } else {
+              message += " (its method version does not require review)";
+            }
+          }
         }
       }
-      refusal = {{"not-awaiting-review"}, why};
+      const std::string attempted = action == CurveAction::Retire ? "curve.retire" : "curve.review";
+      refuse(*unit, attempted, "curve", entity, {*refusal}, message, at);
     }
   }
-  if (refusal) refuse(s, "curve.review", "curve", entity, refusal->first, refusal->second);
-
-  auto tx = s.write();
-  store::insert_review(tx, id, {decision, s.actor().name, reason, s.at()});
-  tx.append_entry({action, "curve", entity, reason, s.at()});
-  tx.commit();
-  FactLoader facts(s);
-  return make_view(facts, id, s.at());
-}
-
-CurveView retire_curve(Session& s, CurveId id, const std::string& reason_text) {
-  const std::string reason = checked_reason(reason_text);
-  const std::string entity = std::to_string(id.value);
-  std::optional<std::string> refusal;
-  {
-    store::ReadTransaction read(s.db());
-    FactLoader facts(s);
-    const Curve& c = facts.curve(id);
-    require_acquired(s, c);
-    const CurveStatus status = facts.status(id, s.at());
-    if (status.state == CurveState::Retired || status.state == CurveState::Rejected) {
-      refusal = "curve " + entity + " is already " + std::string(to_string(status.state)) +
-                (status.cause ? ": " + status.cause->message : "");
-    }
+  if (action == CurveAction::Retire) {
+    unit->curve_writer().add_retirement(id, {s.actor().name, reason, at});
+    unit->append_entry({"curve.retire", "curve", entity, reason, at});
+  } else {
+    const ReviewDecision decision =
+        action == CurveAction::Approve ? ReviewDecision::Approve : ReviewDecision::Reject;
+    unit->curve_writer().add_review(id, {decision, s.actor().name, reason, at});
+    unit->append_entry({action == CurveAction::Approve ? "curve.approve" : "curve.reject", "curve",
+                        entity, reason, at});
   }
-  if (refusal) refuse(s, "curve.retire", "curve", entity, {"not-retirable"}, *refusal);
-  auto tx = s.write();
-  store::insert_retirement(tx, id, {s.actor().name, reason, s.at()});
-  tx.append_entry({"curve.retire", "curve", entity, reason, s.at()});
-  tx.commit();
-  FactLoader facts(s);
-  return make_view(facts, id, s.at());
+  FactSet after(*unit, s.zone());
+  CurveView view = make_views(after, {id}, at).front();
+  unit->commit();
+  return view;
 }
 
 }  // namespace cw::app

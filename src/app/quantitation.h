@@ -1,22 +1,23 @@
 // SPDX-License-Identifier: Apache-2.0
 // Check standards and blanks against a curve, and quantitation of samples (product.md §5.3).
+// Each is decided by a pure function (domain/) inside the one transaction that records it.
 #pragma once
 
 #include <optional>
 #include <string>
 #include <vector>
 
-#include "app/curves.h"
+#include "app/curve_view.h"
+#include "app/session.h"
 #include "domain/check.h"
+#include "domain/check_judgement.h"
+#include "domain/quantitation.h"
 
 namespace cw::app {
 
 struct CheckRequest {
-  std::string curve;
-  std::optional<double> nominal;
-  double response = 0;
-  std::optional<double> is_response;
-  CheckKind kind = CheckKind::Check;
+  CurveId curve;
+  CheckReading reading;
 };
 
 struct CheckOutcome {
@@ -27,18 +28,21 @@ struct CheckOutcome {
 };
 
 /// Records a check or blank; a failure makes the curve stale (check-failed) and lists the
-/// results quantified from it since its last passing check.
+/// results quantified from it since its last passing check. A check against a rejected or
+/// retired curve is refused (recorded, RefusedError).
 CheckOutcome log_check(Session& s, const CheckRequest& request);
 
+/// Which curve to quantify against: one by id, or the one active curve of a group.
+struct CurveChoice {
+  std::optional<CurveId> curve;
+  std::string method;
+  std::string instrument;
+  std::string analyte;
+};
+
 struct QuantifyRequest {
-  std::optional<std::string> curve;
-  std::optional<std::string> method;
-  std::optional<std::string> instrument;
-  std::optional<std::string> analyte;
-  std::vector<double> responses;  ///< one, or the m readings (their mean is used)
-  std::optional<double> is_response;
-  double dilution = 1;
-  std::optional<int> replicates;  ///< m when `responses` holds their mean
+  CurveChoice target;
+  QuantitationReading reading;
   std::string sample;
 };
 
@@ -46,7 +50,7 @@ struct QuantifyOutcome {
   Result result;
   std::optional<CurveView> curve;
   std::string unit;
-  std::optional<std::string> report_as;  ///< e.g. "< 0.5 mg/L" below the working range
+  std::optional<double> reporting_limit;  ///< below the working range: "< limit"
   std::optional<double> suggested_dilution;
   std::vector<Lot> lots;
   std::optional<int> method_version;

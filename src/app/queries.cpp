@@ -4,34 +4,38 @@
 
 #include <algorithm>
 
+#include "app/curves.h"
 #include "app/registry.h"
 #include "core/error.h"
 #include "core/text.h"
-#include "store/curve_repository.h"
-#include "store/registry_repository.h"
+#include "domain/expiry.h"
+#include "rules/curve_facts.h"
 
 namespace cw::app {
 namespace {
 
-std::vector<ExpiringCurve> active_expiring(Session& s, FactLoader& facts, Instant now, Instant to,
+std::vector<ExpiringCurve> active_expiring(store::ReadUnit& unit, FactSet& facts,
+                                           const LabZone& zone, Instant now, Instant to,
                                            std::optional<InstrumentId> instrument) {
-  std::vector<ExpiringCurve> out;
-  for (CurveId id : store::curves_expiring_between(s.db(), now, to)) {
+  std::vector<CurveId> candidates;
+  for (CurveId id : unit.curves().expiring_between(now, to)) candidates.push_back(id);
+  facts.load(candidates);
+  std::vector<CurveId> ids;
+  for (CurveId id : candidates) {
     const Curve& c = facts.curve(id);
     if (instrument && c.instrument_id != *instrument) continue;
     if (c.expires_at <= now || c.acquired_at > now) continue;
-    CurveView v = make_view(facts, id, now);
+    ids.push_back(id);
+  }
+  std::vector<ExpiringCurve> out;
+  for (auto& v : make_views(facts, ids, now)) {
     if (v.status.state != CurveState::Active) continue;
     ExpiringCurve e;
-    const Instant by_interval =
-        add_duration(c.acquired_at, v.version.definition.calibration.valid_for, s.zone());
-    e.limited_by = "valid for " + to_string(v.version.definition.calibration.valid_for);
-    if (c.expires_at < by_interval) {
-      for (const auto& lot : v.lots) {
-        if (lot.expiry_instant(s.zone()) == c.expires_at)
-          e.limited_by = "lot " + lot.code + " expiry";
-      }
-    }
+    const CurveExpiry expiry =
+        expiry_of(v.curve.acquired_at, v.version, facts.lots_of(v.curve.id), zone);
+    e.limited_by = expiry.limiting_lot != nullptr
+                       ? "lot " + expiry.limiting_lot->code + " expiry"
+                       : "valid for " + to_string(v.version.definition.calibration.valid_for);
     e.curve = std::move(v);
     out.push_back(std::move(e));
   }
@@ -40,87 +44,76 @@ std::vector<ExpiringCurve> active_expiring(Session& s, FactLoader& facts, Instan
 
 }  // namespace
 
-ResultId parse_result_id(const std::string& text) {
-  auto v = parse_integer(text);
-  if (!v || *v < 1)
-    throw UsageError("result id " + quote(text) + " is not a positive whole number");
-  return ResultId{*v};
-}
-
 ExpiringOutcome expiring(Session& s, const ExpiringRequest& r) {
-  if (r.this_week && r.within) throw UsageError("give --this-week or --within, not both");
   const Instant now = s.at();
   ExpiringOutcome out;
   if (r.this_week) {
     std::tie(out.from, out.to) = s.zone().iso_week_of(now);
   } else {
-    const Duration d = parse_duration(r.within.value_or("7 days"), "--within");
     out.from = now;
-    out.to = add_duration(now, d, s.zone());
+    out.to = add_duration(now, r.within.value_or(Duration{7, Duration::Unit::Days}), s.zone());
   }
-  store::ReadTransaction read(s.db());
-  FactLoader facts(s);
-  out.curves = active_expiring(s, facts, std::max(now, out.from), out.to, std::nullopt);
+  auto unit = s.read();
+  FactSet facts(*unit, s.zone());
+  out.curves =
+      active_expiring(*unit, facts, s.zone(), std::max(now, out.from), out.to, std::nullopt);
   return out;
 }
 
 std::vector<InstrumentStatus> status_board(Session& s) {
   const Instant now = s.at();
-  store::ReadTransaction read(s.db());
-  FactLoader facts(s);
+  const Instant week = add_duration(now, Duration{7, Duration::Unit::Days}, s.zone());
+  auto unit = s.read();
+  FactSet facts(*unit, s.zone());
   std::vector<InstrumentStatus> out;
-  for (const auto& instrument : store::list_instruments(s.db())) {
+  for (const auto& instrument : unit->registry().instruments()) {
     InstrumentStatus st;
     st.instrument = instrument;
-    for (CurveState state : {CurveState::Active, CurveState::AwaitingReview, CurveState::Stale,
-                             CurveState::Rejected, CurveState::Retired}) {
-      st.counts[state] = 0;
+    for (CurveState state : kAllCurveStates) st.counts[state] = 0;
+    // Curves whose expiry moment has passed are counted from the facts that decide their state,
+    // grouped in the store; the rules engine names the state of each group.
+    for (const auto& g : unit->curves().settled_groups(instrument.id, now)) {
+      const rules::SettledFacts f{g.verdict, g.rejected_by_review, g.retired, g.review_required,
+                                  g.reviewed};
+      st.counts[rules::settled_state(f)] += g.count;
     }
-    // Curves past their expiry moment can no longer be active: count them in SQL.
-    const auto settled = store::settled_curve_counts(s.db(), instrument.id, now);
-    st.counts[CurveState::Rejected] += settled.rejected;
-    st.counts[CurveState::Retired] += settled.retired;
-    st.counts[CurveState::AwaitingReview] += settled.awaiting_review;
-    st.counts[CurveState::Stale] += settled.stale;
-    for (CurveId id : store::live_curves_of_instrument(s.db(), instrument.id, now)) {
-      st.counts[facts.status(id, now).state] += 1;
-    }
-    st.expiring_soon = active_expiring(
-        s, facts, now, add_duration(now, Duration{7, Duration::Unit::Days}, s.zone()),
-        instrument.id);
-    for (const auto& [method_id, analyte] :
-         store::method_analytes_of_instrument(s.db(), instrument.id)) {
+    const auto live = unit->curves().live_of_instrument(instrument.id, now);
+    for (const auto& [id, status] : facts.statuses(live, now)) st.counts[status.state] += 1;
+    st.expiring_soon = active_expiring(*unit, facts, s.zone(), now, week, instrument.id);
+    for (const auto& [method_id, analyte] : unit->curves().method_analytes(instrument.id)) {
       const Method& method = facts.method(method_id);
       const MethodVersion* v = method.version_at(now);
       if (!v || !v->definition.has_analyte(analyte)) continue;
-      bool active = false;
-      for (CurveId id : store::live_curves_in_group(s.db(), method_id, instrument.id, analyte,
-                                                    std::nullopt, now)) {
-        if (facts.status(id, now).state == CurveState::Active) {
-          active = true;
-          break;
-        }
-      }
+      const auto group =
+          unit->curves().live_in_group(method_id, instrument.id, analyte, std::nullopt, now);
+      const auto states = facts.statuses(group, now);
+      const bool active = std::any_of(states.begin(), states.end(), [](const auto& entry) {
+        return entry.second.state == CurveState::Active;
+      });
       if (!active) st.blocked.emplace_back(method.code, analyte);
     }
-    st.recent_failures = store::recent_failed_checks(s.db(), instrument.id, now, 5);
+    st.recent_failures = unit->curves().recent_failed_checks(instrument.id, now, 5);
     out.push_back(std::move(st));
   }
   return out;
 }
 
 ResultTrace trace_result(Session& s, ResultId id) {
-  store::ReadTransaction read(s.db());
-  auto result = store::find_result(s.db(), id);
-  if (!result) throw NotFoundError("no result " + std::to_string(id.value));
+  auto unit = s.read();
+  auto result = unit->curves().result(id);
+  if (!result) {
+    throw NotFoundError("no result " + std::to_string(id.value),
+                        "result ids are printed by 'quantify' and listed by 'trace curve'");
+  }
   ResultTrace t;
   t.result = *result;
-  FactLoader facts(s);
+  FactSet facts(*unit, s.zone());
   if (result->method_id) t.method_code = facts.method(*result->method_id).code;
   if (result->instrument_id) t.instrument = facts.instrument(*result->instrument_id);
   if (result->curve_id) {
     const CurveId cid = *result->curve_id;
-    t.curve = make_view(facts, cid, result->occurred_at);
+    facts.load({cid}, /*with_points=*/true);
+    t.curve = make_views(facts, {cid}, result->occurred_at, true).front();
     t.calibration = facts.calibration(facts.curve(cid).calibration_id);
     t.method_version = facts.version_of(cid);
     for (const Lot* lot : facts.lots_of(cid)) t.lots.push_back(*lot);
@@ -136,24 +129,24 @@ ResultTrace trace_result(Session& s, ResultId id) {
 }
 
 CurveTrace trace_curve(Session& s, CurveId id) {
-  store::ReadTransaction read(s.db());
-  FactLoader facts(s);
+  auto unit = s.read();
+  FactSet facts(*unit, s.zone());
+  require_acquired(s.at(), facts.curve(id, true), s.zone());
   CurveTrace t;
-  require_acquired(s, facts.curve(id));
-  t.curve = make_view(facts, id, s.at());
+  t.curve = make_views(facts, {id}, s.at(), true).front();
   t.checks = facts.facts(id).checks;
-  t.results = store::results_of_curve(s.db(), id);
+  t.results = unit->curves().results_of({id});
   return t;
 }
 
 LotTrace trace_lot(Session& s, const std::string& code) {
-  store::ReadTransaction read(s.db());
+  auto unit = s.read();
   LotTrace t;
-  t.lot = get_lot(s, code);
-  FactLoader facts(s);
-  const auto ids = store::curves_of_lot(s.db(), t.lot.id);
-  for (CurveId id : ids) t.curves.push_back(make_view(facts, id, s.at()));
-  t.results = store::results_of_curves(s.db(), ids);
+  t.lot = get_lot(*unit, code);
+  FactSet facts(*unit, s.zone());
+  const auto ids = unit->curves().of_lot(t.lot.id);
+  t.curves = make_views(facts, ids, s.at());
+  t.results = unit->curves().results_of(ids);
   return t;
 }
 

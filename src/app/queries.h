@@ -1,5 +1,6 @@
 // SPDX-License-Identifier: Apache-2.0
-// Read-only questions: what expires soon, the status board, and provenance traces.
+// Read-only questions: what expires soon, the status board, and provenance traces. Each reads
+// one consistent snapshot.
 #pragma once
 
 #include <map>
@@ -7,7 +8,8 @@
 #include <string>
 #include <vector>
 
-#include "app/curves.h"
+#include "app/curve_view.h"
+#include "app/session.h"
 #include "domain/check.h"
 
 namespace cw::app {
@@ -15,11 +17,11 @@ namespace cw::app {
 // ---- expiring
 struct ExpiringRequest {
   bool this_week = false;
-  std::optional<std::string> within;  ///< duration text; default "7 days"
+  std::optional<Duration> within;  ///< default 7 days
 };
 struct ExpiringCurve {
   CurveView curve;
-  std::string limited_by;  ///< "valid_for" or "lot CODE"
+  std::string limited_by;  ///< "valid for 7 days" or "lot CODE expiry"
 };
 struct ExpiringOutcome {
   Instant from, to;
@@ -31,18 +33,13 @@ ExpiringOutcome expiring(Session& s, const ExpiringRequest& request);
 struct InstrumentStatus {
   Instrument instrument;
   std::map<CurveState, long> counts;
-  std::vector<ExpiringCurve> expiring_soon;  ///< next 7 days
-  std::vector<std::pair<std::string, std::string>>
-      blocked;  ///< (method, analyte) without an active curve
+  std::vector<ExpiringCurve> expiring_soon;                  ///< next 7 days
+  std::vector<std::pair<std::string, std::string>> blocked;  ///< (method, analyte) w/o active curve
   std::vector<Check> recent_failures;
 };
 std::vector<InstrumentStatus> status_board(Session& s);
 
 // ---- traces
-struct CheckWithCurve {
-  Check check;
-  std::string analyte;
-};
 struct ResultTrace {
   Result result;
   std::optional<CurveView> curve;  ///< state as of the result's time
@@ -69,7 +66,5 @@ struct LotTrace {
   std::vector<Result> results;
 };
 LotTrace trace_lot(Session& s, const std::string& code);
-
-ResultId parse_result_id(const std::string& text);
 
 }  // namespace cw::app

@@ -1,6 +1,6 @@
 // SPDX-License-Identifier: Apache-2.0
 // Use cases of the registries: the lab, instruments, methods and lots. Each write is one
-// transaction ending with its audit entry.
+// transaction that checks, appends and ends with its audit entry.
 #pragma once
 
 #include <optional>
@@ -11,29 +11,37 @@
 #include "domain/instrument.h"
 #include "domain/lot.h"
 #include "domain/method.h"
-#include "store/registry_repository.h"
+#include "store/registry.h"
 
 namespace cw::app {
+
+// ---- lookups shared by the use cases (NotFoundError naming the code)
+Instrument get_instrument(store::ReadUnit& unit, const std::string& code);
+Method get_method(store::ReadUnit& unit, const std::string& code);
+Lot get_lot(store::ReadUnit& unit, const std::string& code);
 
 // ---- lab
 struct InitRequest {
   std::optional<std::string> lab;
-  std::optional<std::string> tz;
+  std::optional<LabZone> zone;
+  std::optional<std::string> reason;  ///< required to rename an existing lab
 };
 struct InitOutcome {
-  bool created = false;  ///< the store file was created now
+  bool created = false;  ///< the store was created now
   bool changed = false;  ///< lab name or zone recorded now
   store::LabSettings settings;
   int schema_version = 0;
 };
-/// Checks the request before opening (so a bad zone writes nothing), then creates or updates.
-InitOutcome init_store(const GlobalOptions& options, const InitRequest& request);
+/// Creates the store or applies pending migrations, and records the lab's name and zone. The
+/// zone of a store that holds any fact besides its settings cannot change (refused and recorded);
+/// renaming the lab needs a reason and is an audited event.
+InitOutcome init_store(Session& s, const InitRequest& request);
 
 // ---- instruments
 Instrument add_instrument(Session& s, const std::string& code,
                           const std::optional<std::string>& name);
 std::vector<Instrument> list_instruments(Session& s);
-Instrument get_instrument(Session& s, const std::string& code);
+Instrument show_instrument(Session& s, const std::string& code);
 struct ServiceRequest {
   std::string code;
   ServiceDirection direction = ServiceDirection::Out;
@@ -45,26 +53,13 @@ Instrument record_service(Session& s, const ServiceRequest& request);
 MethodVersion add_method(Session& s, const std::string& file);
 MethodVersion revise_method(Session& s, const std::string& file, const std::string& reason);
 std::vector<Method> list_methods(Session& s);
-Method get_method(Session& s, const std::string& code);
+Method show_method(Session& s, const std::string& code);
 
 // ---- lots
-struct LotRequest {
-  std::string code;
-  std::string material;
-  std::string expires;
-  std::optional<std::string> opened;
-  std::optional<long> in_use_days;
-  std::optional<std::string> certificate;
-  std::vector<std::string> values;  ///< "ANALYTE=CONC[±U]"
-};
-Lot add_lot(Session& s, const LotRequest& request);
+/// A lot as given (values parsed and checked at the boundary); registered_at is set here.
+Lot add_lot(Session& s, Lot lot);
 std::vector<Lot> list_lots(Session& s);
-Lot get_lot(Session& s, const std::string& code);
+Lot show_lot(Session& s, const std::string& code);
 Lot withdraw_lot(Session& s, const std::string& code, const std::string& reason);
-
-/// Parses "ANALYTE=CONC", "ANALYTE=CONC±U" or "ANALYTE=CONC+/-U".
-CertifiedValue parse_certified_value(const std::string& text);
-/// A reason text given with --reason: trimmed, non-empty, UTF-8, one line.
-std::string checked_reason(const std::string& reason, const std::string& option = "--reason");
 
 }  // namespace cw::app

@@ -1,6 +1,7 @@
 // SPDX-License-Identifier: Apache-2.0
-// What every use case needs: the open store, who acts, what "now" is, the moment the command
-// is about (--at), and the lab's time zone.
+// What every use case needs, as plain values resolved by the front end (cli/ today): the open
+// store, who acts, what "now" is, the moment the command is about, and the lab's time zone.
+// Nothing here reads argv or the environment.
 #pragma once
 
 #include <memory>
@@ -9,25 +10,24 @@
 
 #include "core/clock.h"
 #include "core/time.h"
-#include "store/connection.h"
+#include "store/store.h"
 
 namespace cw::app {
 
-/// The global options of every command (product.md §4).
-struct GlobalOptions {
-  std::optional<std::string> db;  ///< --db
-  std::optional<std::string> as;  ///< --as
-  std::optional<std::string> at;  ///< --at (ISO-8601 with zone)
-  bool json = false;              ///< --json
+struct SessionSpec {
+  std::string location;       ///< the store: a file path
+  std::string actor;          ///< the person acting (already checked)
+  std::optional<Instant> at;  ///< the moment the command is about; nullopt: now
+  std::shared_ptr<const Clock> clock;
+  bool create = false;  ///< create the store when missing (init only)
 };
 
 class Session {
  public:
-  /// Opens the store named by the options (--db, else $CURVEWARDEN_DB, else ./curvewarden.db).
-  /// `create` only for init.
-  static Session open(const GlobalOptions& options, bool create = false);
+  /// Opens the store and reads the lab's zone (the system zone before `init`).
+  static Session open(const SessionSpec& spec);
 
-  store::Connection& db() { return db_; }
+  store::Store& store() { return *store_; }
   const store::Actor& actor() const { return actor_; }
   const LabZone& zone() const { return zone_; }
   void set_zone(LabZone zone) { zone_ = std::move(zone); }
@@ -35,26 +35,22 @@ class Session {
   Instant at() const { return at_; }
   bool at_given() const { return at_given_; }
   Instant now() const { return clock_->now(); }
-  const std::string& db_path() const { return db_.path(); }
+  const std::string& location() const { return store_->location(); }
 
-  /// Starts a write use case (BEGIN IMMEDIATE).
-  store::WriteTransaction write() { return store::WriteTransaction(db_, actor_); }
+  std::unique_ptr<store::ReadUnit> read() { return store_->read(); }
+  /// A write transaction (the write lock is held from here until commit or destruction).
+  std::unique_ptr<store::WriteUnit> write() { return store_->write(actor_); }
 
  private:
-  Session(store::Connection db, std::unique_ptr<Clock> clock, store::Actor actor, LabZone zone,
-          Instant at, bool at_given);
-  store::Connection db_;
-  std::unique_ptr<Clock> clock_;
+  Session(std::unique_ptr<store::Store> store, std::shared_ptr<const Clock> clock,
+          store::Actor actor, LabZone zone, Instant at, bool at_given);
+  std::unique_ptr<store::Store> store_;
+  std::shared_ptr<const Clock> clock_;
   store::Actor actor_;
   LabZone zone_;
   Instant at_;
   bool at_given_;
 };
-
-/// --db, else $CURVEWARDEN_DB, else ./curvewarden.db.
-std::string resolve_db_path(const GlobalOptions& options);
-/// --as, else $CURVEWARDEN_USER, else the login name; checked to be a usable name.
-std::string resolve_actor(const GlobalOptions& options);
 
 /// The program's version, recorded in every audit entry.
 const char* tool_version();

@@ -32,12 +32,16 @@ class Error : public std::runtime_error {
   const std::string& hint() const { return hint_; }
   const std::optional<SourceLocation>& location() const { return location_; }
   void set_location(SourceLocation where) { location_ = std::move(where); }
+  /// The command-line option (or environment variable) the error is about, e.g. "--response".
+  const std::string& option() const { return option_; }
+  void set_option(std::string option) { option_ = std::move(option); }
 
  private:
   ExitCode code_;
   std::string kind_;
   std::string hint_;
   std::optional<SourceLocation> location_;
+  std::string option_;
 };
 
 /// Bad command-line usage (unknown option, missing argument, conflicting flags). Exit 2.
@@ -58,6 +62,15 @@ class ValidationError : public Error {
   }
 };
 
+/// A ValidationError about the value given with `option`; when it is a command-line option
+/// ("--nominal") it is named in the JSON error object.
+inline ValidationError option_error(const std::string& option, const std::string& message,
+                                    std::string hint = {}) {
+  ValidationError e(message, std::move(hint));
+  if (option.rfind("--", 0) == 0) e.set_option(option);
+  return e;
+}
+
 /// A named thing (instrument, method, lot, curve, ...) does not exist. Exit 2.
 class NotFoundError : public Error {
  public:
@@ -72,20 +85,12 @@ class RefusedError : public Error {
       : Error(ExitCode::Refused, "refused", message, std::move(hint)) {}
 };
 
-/// The store cannot be used: missing, not ours, too new, locked or corrupt. Exit 4.
+/// The store cannot be used: missing, not ours, too new, locked, damaged or corrupt. Exit 4.
+/// Backend-neutral: a backend's own error codes stay in the message.
 class StoreError : public Error {
  public:
-  explicit StoreError(const std::string& message, std::string hint = {}, int sqlite_code = 0,
-                      int sqlite_extended_code = 0)
-      : Error(ExitCode::Store, "store", message, std::move(hint)),
-        sqlite_code_(sqlite_code),
-        sqlite_extended_code_(sqlite_extended_code) {}
-  int sqlite_code() const { return sqlite_code_; }
-  int sqlite_extended_code() const { return sqlite_extended_code_; }
-
- private:
-  int sqlite_code_;
-  int sqlite_extended_code_;
+  explicit StoreError(const std::string& message, std::string hint = {})
+      : Error(ExitCode::Store, "store", message, std::move(hint)) {}
 };
 
 /// The audit chain or a fact row does not match its recorded hash. Exit 5.

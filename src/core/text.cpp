@@ -7,7 +7,10 @@
 #include <cmath>
 #include <cstdio>
 
+#include "core/clean_text.h"
 #include "core/error.h"
+#include "core/number.h"
+#include "core/utf8.h"
 
 namespace cw {
 
@@ -38,22 +41,7 @@ std::vector<std::string> split(std::string_view s, char sep) {
 }
 
 std::optional<double> parse_number(std::string_view raw) {
-  const std::string text = trim(raw);
-  if (text.empty()) return std::nullopt;
-  for (char c : text) {
-    if (!(std::isdigit(static_cast<unsigned char>(c)) || c == '.' || c == '-' || c == '+' ||
-          c == 'e' || c == 'E')) {
-      return std::nullopt;
-    }
-  }
-  const char* begin = text.data();
-  if (*begin == '+') ++begin;
-  double value = 0;
-  auto [ptr, ec] = std::from_chars(begin, text.data() + text.size(), value);
-  if (ec != std::errc() || ptr != text.data() + text.size() || !std::isfinite(value)) {
-    return std::nullopt;
-  }
-  return value;
+  return parse_decimal(raw).value;
 }
 
 std::optional<long> parse_integer(std::string_view raw) {
@@ -70,7 +58,33 @@ std::optional<long> parse_integer(std::string_view raw) {
 void check_code(std::string_view code, std::string_view what) {
   const std::string hint =
       "use 1 to 64 letters, digits and . _ - /, starting with a letter or digit";
+  const auto ascii_ok = [](char c) {
+    return std::isalnum(static_cast<unsigned char>(c)) || c == '.' || c == '_' || c == '-' ||
+           c == '/';
+  };
   if (code.empty()) throw ValidationError(std::string(what) + " is empty", hint);
+  // Name the first character that is not allowed: printable ASCII in quotes, anything else by
+  // its code point, so that the message itself stays plain text.
+  for (std::size_t pos = 0; pos < code.size();) {
+    const std::size_t at = pos;
+    const auto cp = next_code_point(code, pos);
+    if (!cp) {
+      throw ValidationError(std::string(what) + " is not valid UTF-8 text", hint);
+    }
+    if (*cp < 0x80 && ascii_ok(static_cast<char>(*cp))) continue;
+    char shown[16];
+    if (*cp >= 0x20 && *cp < 0x7F) {
+      std::snprintf(shown, sizeof shown, "'%c'", static_cast<char>(*cp));
+    } else {
+      std::snprintf(shown, sizeof shown, "U+%04X", static_cast<unsigned>(*cp));
+    }
+    const std::string printable =
+        *cp >= 0x20 && *cp < 0x7F && is_valid_utf8(code) ? " " + quote(code) : "";
+    throw ValidationError(std::string(what) + printable + " contains the character " + shown +
+                              " (character " +
+                              std::to_string(code_point_count(code.substr(0, at)) + 1) + ")",
+                          hint);
+  }
   if (code.size() > 64) {
     throw ValidationError(std::string(what) + " " + quote(code) + " is longer than 64 characters",
                           hint);
@@ -79,34 +93,19 @@ void check_code(std::string_view code, std::string_view what) {
     throw ValidationError(
         std::string(what) + " " + quote(code) + " must start with a letter or digit", hint);
   }
-  for (char c : code) {
-    if (!(std::isalnum(static_cast<unsigned char>(c)) || c == '.' || c == '_' || c == '-' ||
-          c == '/')) {
-      throw ValidationError(std::string(what) + " " + quote(code) + " contains the character " +
-                                quote(std::string(1, c)),
-                            hint);
-    }
-  }
 }
 
 void check_analyte_name(std::string_view name, std::string_view what) {
   const std::string hint =
-      "use 1 to 100 printable characters without '=' and without leading or trailing spaces";
-  if (name.empty()) throw ValidationError(std::string(what) + " is empty", hint);
-  if (name.size() > 100) {
-    throw ValidationError(std::string(what) + " " + quote(name) + " is too long", hint);
-  }
-  if (std::isspace(static_cast<unsigned char>(name.front())) ||
-      std::isspace(static_cast<unsigned char>(name.back()))) {
+      "use 1 to 100 visible characters without '=' and without leading or trailing spaces";
+  const std::string clean = clean_text(name, what, kMaxLabelChars);
+  if (clean.size() != name.size()) {
     throw ValidationError(std::string(what) + " " + quote(name) + " has leading or trailing spaces",
                           hint);
   }
-  for (char c : name) {
-    const auto u = static_cast<unsigned char>(c);
-    if (u < 0x20 || u == 0x7f || c == '=') {
-      throw ValidationError(
-          std::string(what) + " " + quote(name) + " contains a forbidden character", hint);
-    }
+  if (name.find('=') != std::string_view::npos) {
+    throw ValidationError(
+        std::string(what) + " " + quote(name) + " contains the forbidden character '='", hint);
   }
 }
 
@@ -129,6 +128,13 @@ std::string format_plain(double value, int digits) {
   char buf[64];
   std::snprintf(buf, sizeof buf, "%.*g", digits, value);
   return buf;
+}
+
+std::string format_shortest(double value) {
+  char buf[64];
+  const auto [end, ec] = std::to_chars(buf, buf + sizeof buf, value);
+  if (ec != std::errc()) return format_plain(value, 17);
+  return std::string(buf, end);
 }
 
 std::string format_fixed(double value, int decimals) {

@@ -14,8 +14,7 @@ std::string trim(std::string_view s);
 std::string to_lower(std::string_view s);
 std::vector<std::string> split(std::string_view s, char sep);
 
-/// Strict decimal number: the whole text must be a finite number ("1e3", "-0.5"); no "nan",
-/// "inf", hex or trailing text. Returns nullopt otherwise.
+/// parse_decimal(text).value (core/number.h): a plain, finite decimal or nullopt.
 std::optional<double> parse_number(std::string_view text);
 /// Strict integer (optional sign, digits only), within long's range.
 std::optional<long> parse_integer(std::string_view text);
@@ -23,8 +22,8 @@ std::optional<long> parse_integer(std::string_view text);
 /// Codes of instruments, methods and lots: 1–64 characters, letters, digits and . _ - /,
 /// starting with a letter or digit. Throws ValidationError naming `what` otherwise.
 void check_code(std::string_view code, std::string_view what);
-/// Analyte names: 1–100 printable characters, no '=', no control characters, no leading or
-/// trailing space. Throws ValidationError naming `what` otherwise.
+/// Analyte names: clean_text() with at most 100 characters, no '=', and no leading or trailing
+/// space (names must match the method file exactly). Throws ValidationError naming `what`.
 void check_analyte_name(std::string_view name, std::string_view what);
 
 /// `value` with `digits` significant figures, without an exponent for everyday magnitudes.
@@ -32,6 +31,9 @@ std::string format_sig(double value, int digits = 6);
 /// `value` as a person would write it: up to `digits` significant figures, trailing zeros
 /// dropped ("0.995", "15", "1000", "2.5e-07").
 std::string format_plain(double value, int digits = 10);
+/// `value` in its shortest form that reads back to the same double (std::to_chars), e.g. "6.9",
+/// "1e-09", "1000": how echoed inputs are printed.
+std::string format_shortest(double value);
 /// `value` with a fixed number of decimals.
 std::string format_fixed(double value, int decimals);
 /// Wraps `s` in single quotes (user values in messages).

@@ -127,7 +127,20 @@ Instant parse_instant(std::string_view raw, std::string_view what) {
   }
   const auto local = date::sys_days{*ymd} + std::chrono::hours{*hh} + std::chrono::minutes{*mm} +
                      std::chrono::seconds{ss};
-  return Instant{local - offset};
+  const Instant t{local - offset};
+  if (!in_supported_range(t)) {
+    throw ValidationError(
+        std::string(what) + " " + quote(text) + " lies outside the years 0001 to 9999 (in UTC)",
+        "check the year and the zone offset");
+  }
+  return t;
+}
+
+bool in_supported_range(Instant t) {
+  static const Instant first{date::sys_days{date::year{1} / 1 / 1}};
+  static const Instant last{date::sys_days{date::year{9999} / 12 / 31} + std::chrono::hours{24} -
+                            std::chrono::seconds{1}};
+  return t >= first && t <= last;
 }
 
 std::string format_utc(Instant t) {
@@ -142,9 +155,10 @@ CalendarDate parse_date(std::string_view raw, std::string_view what) {
     throw ValidationError("invalid " + std::string(what) + " " + quote(text),
                           "expected a date as YYYY-MM-DD, e.g. 2027-03-31");
   }
-  if (!ymd->ok()) {
+  if (!ymd->ok() || ymd->year() < date::year{1}) {
     throw ValidationError(std::string(what) + " " + quote(text) + " is not a calendar date",
-                          "expected a date as YYYY-MM-DD, e.g. 2027-03-31");
+                          "expected a date as YYYY-MM-DD from 0001-01-01 to 9999-12-31, e.g. "
+                          "2027-03-31");
   }
   return from_ymd(*ymd);
 }
@@ -214,6 +228,25 @@ std::pair<Instant, Instant> LabZone::iso_week_of(Instant t) const {
   return {start_of_day(monday), start_of_day(add_days(monday, 7))};
 }
 
+long max_count(Duration::Unit unit) {
+  // 100 years of 366 days, in each unit (product.md: durations are bounded).
+  switch (unit) {
+    case Duration::Unit::Minutes:
+      return 100L * 366 * 24 * 60;
+    case Duration::Unit::Hours:
+      return 100L * 366 * 24;
+    case Duration::Unit::Days:
+      return 100L * 366;
+    case Duration::Unit::Weeks:
+      return 100L * 366 / 7;
+    case Duration::Unit::Months:
+      return 1200;
+    case Duration::Unit::Years:
+      return 100;
+  }
+  return 0;
+}
+
 Duration parse_duration(std::string_view raw, std::string_view what) {
   const std::string text = trim(raw);
   const std::string hint =
@@ -248,6 +281,11 @@ Duration parse_duration(std::string_view raw, std::string_view what) {
     throw ValidationError(std::string(what) + " " + quote(text) + " must be longer than zero",
                           hint);
   }
+  if (count > max_count(d.unit)) {
+    throw ValidationError(std::string(what) + " " + quote(text) + " is longer than 100 years",
+                          "durations are at most 100 years (" + std::to_string(max_count(d.unit)) +
+                              " " + to_string(Duration{2, d.unit}).substr(2) + ")");
+  }
   return d;
 }
 
@@ -277,6 +315,15 @@ std::string to_string(const Duration& d) {
 }
 
 Instant add_duration(Instant t, const Duration& d, const LabZone& zone) {
+  const Instant end = add_duration_unchecked(t, d, zone);
+  if (!in_supported_range(end)) {
+    throw ValidationError(format_utc(t) + " + " + to_string(d) + " lies beyond the year 9999",
+                          "use an earlier time or a shorter duration");
+  }
+  return end;
+}
+
+Instant add_duration_unchecked(Instant t, const Duration& d, const LabZone& zone) {
   switch (d.unit) {
     case Duration::Unit::Minutes:
       return t + std::chrono::minutes{d.count};

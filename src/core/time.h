@@ -31,8 +31,11 @@ struct CalendarDate {
 /// Parses an ISO-8601 instant that names its zone: `2026-12-01T09:30:00Z`,
 /// `2026-12-01T10:30+01:00`, `2026-12-01 09:30Z`. Seconds are optional, fractions are
 /// truncated. Throws ValidationError (naming `what`) for anything else, including a time
-/// without a zone.
+/// without a zone and a time that falls outside the years 0001–9999 once its offset is applied.
 Instant parse_instant(std::string_view text, std::string_view what = "time");
+
+/// True for instants in the years 0001 to 9999 (UTC): the only ones the store holds.
+bool in_supported_range(Instant t);
 
 /// Formats as `YYYY-MM-DDTHH:MM:SSZ` (the stored form).
 std::string format_utc(Instant t);
@@ -79,14 +82,21 @@ struct Duration {
   bool operator==(const Duration&) const = default;
 };
 
+/// The largest count of `unit` a duration may have: 100 years' worth.
+long max_count(Duration::Unit unit);
+
 /// Parses "N unit" (unit singular or plural; also the short forms min, h, d, w, mo, y).
-/// Throws ValidationError naming `what` when the text is not a positive duration.
+/// Throws ValidationError naming `what` when the text is not a positive duration of at most
+/// 100 years.
 Duration parse_duration(std::string_view text, std::string_view what = "duration");
 /// Canonical text, e.g. "7 days", "1 month".
 std::string to_string(const Duration& d);
 /// `t` + `d`: minutes and hours exactly; calendar units in the lab's local calendar, keeping
 /// the wall-clock time (the day is clamped to the month's end: Jan 31 + 1 month = Feb 28/29;
 /// a wall-clock time that does not exist after a DST jump moves to the first valid instant).
+/// Throws ValidationError when the result falls after the year 9999.
 Instant add_duration(Instant t, const Duration& d, const LabZone& zone);
+/// add_duration() without the range check (for callers that have bounded their inputs).
+Instant add_duration_unchecked(Instant t, const Duration& d, const LabZone& zone);
 
 }  // namespace cw

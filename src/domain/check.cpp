@@ -2,20 +2,48 @@
 // Text forms of check and result enums.
 #include "domain/check.h"
 
+#include <algorithm>
+
+#include "domain/enum_text.h"
+
 namespace cw {
+namespace {
+
+constexpr std::pair<CheckKind, std::string_view> kKinds[] = {{CheckKind::Check, "check"},
+                                                             {CheckKind::Blank, "blank"}};
+constexpr std::pair<ResultStatus, std::string_view> kStatuses[] = {
+    {ResultStatus::Reported, "reported"}, {ResultStatus::Refused, "refused"}};
+constexpr std::pair<ResultFlag, std::string_view> kFlags[] = {
+    {ResultFlag::BelowRange, "below-range"}};
+
+}  // namespace
 
 std::string_view to_string(CheckKind k) {
-  return k == CheckKind::Check ? "check" : "blank";
+  return text_of(kKinds, k);
 }
-
 std::optional<CheckKind> parse_check_kind(std::string_view text) {
-  if (text == "check") return CheckKind::Check;
-  if (text == "blank") return CheckKind::Blank;
-  return std::nullopt;
+  return value_of(kKinds, text);
+}
+std::string_view to_string(ResultStatus s) {
+  return text_of(kStatuses, s);
+}
+std::optional<ResultStatus> parse_result_status(std::string_view text) {
+  return value_of(kStatuses, text);
+}
+std::string_view to_string(ResultFlag f) {
+  return text_of(kFlags, f);
+}
+std::optional<ResultFlag> parse_result_flag(std::string_view text) {
+  return value_of(kFlags, text);
+}
+std::vector<ResultFlag> all_result_flags() {
+  std::vector<ResultFlag> out;
+  for (const auto& [flag, text] : kFlags) out.push_back(flag);
+  return out;
 }
 
-std::string_view to_string(ResultStatus s) {
-  return s == ResultStatus::Reported ? "reported" : "refused";
+bool Result::has_flag(ResultFlag f) const {
+  return std::find(flags.begin(), flags.end(), f) != flags.end();
 }
 
 }  // namespace cw

@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "core/time.h"
+#include "domain/curve_state.h"
 #include "domain/ids.h"
 
 namespace cw {
@@ -33,13 +34,15 @@ struct Check {
 
 enum class ResultStatus { Reported, Refused };
 std::string_view to_string(ResultStatus s);  // "reported" | "refused"
+std::optional<ResultStatus> parse_result_status(std::string_view text);
 
-/// Why a result was refused or what a stale curve suffers from, in words for people.
-struct ReasonDetail {
-  std::string reason;            ///< token, e.g. "method-revised"
-  std::optional<Instant> since;  ///< when it started to hold
-  std::string message;           ///< plain words with the facts behind it
+/// Remarks attached to a reported result.
+enum class ResultFlag {
+  BelowRange,  ///< below the lowest calibrator: released as "< limit"
 };
+std::string_view to_string(ResultFlag f);  // "below-range"
+std::optional<ResultFlag> parse_result_flag(std::string_view text);
+std::vector<ResultFlag> all_result_flags();
 
 struct Result {
   ResultId id;
@@ -58,11 +61,12 @@ struct Result {
   std::optional<double> concentration;
   std::optional<double> ci_low;
   std::optional<double> ci_high;
-  std::vector<std::string> flags;
-  std::vector<std::string> reasons;
-  std::vector<ReasonDetail> details;
+  std::vector<ResultFlag> flags;
+  std::vector<Finding> reasons;  ///< why it was refused, each with its facts
   std::string analyst;
   Instant occurred_at;
+
+  bool has_flag(ResultFlag f) const;
 };
 
 }  // namespace cw

@@ -2,13 +2,29 @@
 // Text forms of curve enums.
 #include "domain/curve.h"
 
+#include "domain/enum_text.h"
+
 namespace cw {
+namespace {
+
+constexpr std::pair<Verdict, std::string_view> kVerdicts[] = {{Verdict::Accepted, "accepted"},
+                                                              {Verdict::Rejected, "rejected"}};
+constexpr std::pair<ReviewDecision, std::string_view> kDecisions[] = {
+    {ReviewDecision::Approve, "approve"}, {ReviewDecision::Reject, "reject"}};
+
+}  // namespace
 
 std::string_view to_string(Verdict v) {
-  return v == Verdict::Accepted ? "accepted" : "rejected";
+  return text_of(kVerdicts, v);
+}
+std::optional<Verdict> parse_verdict(std::string_view text) {
+  return value_of(kVerdicts, text);
 }
 std::string_view to_string(ReviewDecision d) {
-  return d == ReviewDecision::Approve ? "approve" : "reject";
+  return text_of(kDecisions, d);
+}
+std::optional<ReviewDecision> parse_review_decision(std::string_view text) {
+  return value_of(kDecisions, text);
 }
 
 }  // namespace cw

@@ -31,9 +31,11 @@ struct CalibrationPoint {
 
 enum class Verdict { Accepted, Rejected };
 std::string_view to_string(Verdict v);  // "accepted" | "rejected"
+std::optional<Verdict> parse_verdict(std::string_view text);
 
 enum class ReviewDecision { Approve, Reject };
 std::string_view to_string(ReviewDecision d);  // "approve" | "reject"
+std::optional<ReviewDecision> parse_review_decision(std::string_view text);
 
 struct CurveReview {
   ReviewDecision decision = ReviewDecision::Approve;
@@ -72,7 +74,7 @@ struct Curve {
   fitting::FitResult fit;  ///< points are in `points`, not in fit.points
   fitting::Acceptance acceptance;
   Verdict verdict = Verdict::Rejected;
-  std::vector<std::string> failed_criteria;
+  std::vector<fitting::Criterion> failed_criteria;  ///< each failing criterion once, in order
   Instant expires_at;
   std::vector<CalibrationPoint> points;
   std::vector<CurveReview> reviews;          ///< in time order

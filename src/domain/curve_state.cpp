@@ -2,21 +2,18 @@
 // Text forms of curve states and reasons.
 #include "domain/curve_state.h"
 
-#include <array>
-#include <utility>
+#include "domain/enum_text.h"
 
 namespace cw {
 namespace {
 
-constexpr std::array<std::pair<CurveState, std::string_view>, 5> kStates = {{
-    {CurveState::Rejected, "rejected"},
-    {CurveState::AwaitingReview, "awaiting-review"},
-    {CurveState::Active, "active"},
-    {CurveState::Stale, "stale"},
+constexpr std::pair<CurveState, std::string_view> kStates[] = {
+    {CurveState::Rejected, "rejected"}, {CurveState::AwaitingReview, "awaiting-review"},
+    {CurveState::Active, "active"},     {CurveState::Stale, "stale"},
     {CurveState::Retired, "retired"},
-}};
+};
 
-constexpr std::array<std::pair<Reason, std::string_view>, 15> kReasons = {{
+constexpr std::pair<Reason, std::string_view> kReasons[] = {
     {Reason::Expired, "expired"},
     {Reason::MethodRevised, "method-revised"},
     {Reason::CheckFailed, "check-failed"},
@@ -32,36 +29,34 @@ constexpr std::array<std::pair<Reason, std::string_view>, 15> kReasons = {{
     {Reason::NoActiveCurve, "no-active-curve"},
     {Reason::AboveRange, "above-range"},
     {Reason::NoSolution, "no-solution"},
-}};
+    {Reason::SelfReview, "self-review"},
+    {Reason::NotAwaitingReview, "not-awaiting-review"},
+    {Reason::NotRetirable, "not-retirable"},
+    {Reason::ZoneFixed, "zone-fixed"},
+};
 
 }  // namespace
 
 std::string_view to_string(CurveState s) {
-  for (const auto& [state, text] : kStates) {
-    if (state == s) return text;
-  }
-  return "";
+  return text_of(kStates, s);
 }
 
 std::optional<CurveState> parse_curve_state(std::string_view text) {
-  for (const auto& [state, t] : kStates) {
-    if (t == text) return state;
-  }
-  return std::nullopt;
+  return value_of(kStates, text);
 }
 
 std::string_view to_string(Reason r) {
-  for (const auto& [reason, text] : kReasons) {
-    if (reason == r) return text;
-  }
-  return "";
+  return text_of(kReasons, r);
 }
 
 std::optional<Reason> parse_reason(std::string_view text) {
-  for (const auto& [reason, t] : kReasons) {
-    if (t == text) return reason;
-  }
-  return std::nullopt;
+  return value_of(kReasons, text);
+}
+
+std::vector<Reason> all_reasons() {
+  std::vector<Reason> out;
+  for (const auto& [reason, text] : kReasons) out.push_back(reason);
+  return out;
 }
 
 bool is_stale_reason(Reason r) {

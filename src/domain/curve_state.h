@@ -1,6 +1,7 @@
 // SPDX-License-Identifier: Apache-2.0
 // The derived state of a curve at a moment and the typed reasons behind it (product.md §5.2),
-// plus the reasons a quantitation can be refused. Each value has exactly one text form.
+// plus the reasons an action or a quantitation is refused. Each value has exactly one text form
+// (curve_state.cpp); text that parses to no value is never silently read as another.
 #pragma once
 
 #include <optional>
@@ -17,6 +18,10 @@ enum class CurveState { Rejected, AwaitingReview, Active, Stale, Retired };
 /// "rejected", "awaiting-review", "active", "stale", "retired".
 std::string_view to_string(CurveState s);
 std::optional<CurveState> parse_curve_state(std::string_view text);
+/// Every state, in the order of the contract's table.
+inline constexpr CurveState kAllCurveStates[] = {CurveState::Rejected, CurveState::AwaitingReview,
+                                                 CurveState::Active, CurveState::Stale,
+                                                 CurveState::Retired};
 
 enum class Reason {
   // Stale reasons: a curve that was active stops being usable.
@@ -37,21 +42,31 @@ enum class Reason {
   NoActiveCurve,  ///< no active curve for the method, instrument and analyte
   AboveRange,     ///< above the highest calibrator: dilute and re-run
   NoSolution,     ///< the response has no solution on the curve
+  // Why a review or a retirement is refused.
+  SelfReview,         ///< the reviewer logged the calibration
+  NotAwaitingReview,  ///< the curve is not waiting for a review
+  NotRetirable,       ///< the curve is already retired or rejected
+  // Why a change of the lab's settings is refused.
+  ZoneFixed,  ///< the lab's zone cannot change once the store holds records
 };
 
 /// "expired", "method-revised", "check-failed", "check-overdue", "lot-expired",
 /// "lot-withdrawn", "instrument-serviced", "superseded", "rejected", "awaiting-review",
-/// "retired", "not-yet-acquired", "no-active-curve", "above-range", "no-solution".
+/// "retired", "not-yet-acquired", "no-active-curve", "above-range", "no-solution",
+/// "self-review", "not-awaiting-review", "not-retirable", "zone-fixed".
 std::string_view to_string(Reason r);
 std::optional<Reason> parse_reason(std::string_view text);
 /// True for the reasons that make an active curve stale.
 bool is_stale_reason(Reason r);
+/// Every reason (for round-trip tests and documentation).
+std::vector<Reason> all_reasons();
 
 /// One reason that holds, with when it began and the facts behind it in plain words.
 struct Finding {
   Reason reason;
   std::optional<Instant> since;
   std::string message;
+  bool operator==(const Finding&) const = default;
 };
 
 struct CurveStatus {

@@ -2,10 +2,21 @@
 // Service history queries.
 #include "domain/instrument.h"
 
+#include "domain/enum_text.h"
+
 namespace cw {
+namespace {
+
+constexpr std::pair<ServiceDirection, std::string_view> kDirections[] = {
+    {ServiceDirection::Out, "out"}, {ServiceDirection::Back, "back"}};
+
+}  // namespace
 
 std::string_view to_string(ServiceDirection d) {
-  return d == ServiceDirection::Out ? "out" : "back";
+  return text_of(kDirections, d);
+}
+std::optional<ServiceDirection> parse_service_direction(std::string_view text) {
+  return value_of(kDirections, text);
 }
 
 const ServiceEvent* Instrument::out_of_service_event_at(Instant t) const {

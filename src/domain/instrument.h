@@ -13,6 +13,7 @@ namespace cw {
 
 enum class ServiceDirection { Out, Back };
 std::string_view to_string(ServiceDirection d);  // "out" | "back"
+std::optional<ServiceDirection> parse_service_direction(std::string_view text);
 
 struct ServiceEvent {
   ServiceDirection direction = ServiceDirection::Out;

@@ -48,4 +48,9 @@ struct Lot {
   const CertifiedValue* value_for(const std::string& analyte) const;
 };
 
+/// Parses a certified value as written on the command line: "ANALYTE=CONC", "ANALYTE=CONC±U" or
+/// "ANALYTE=CONC+/-U" (CONC above 0, U not negative, both plain decimals). Throws ValidationError
+/// starting with `what`.
+CertifiedValue parse_certified_value(const std::string& text, const std::string& what);
+
 }  // namespace cw

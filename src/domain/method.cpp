@@ -4,6 +4,9 @@
 
 #include <algorithm>
 
+#include "core/error.h"
+#include "core/number.h"
+
 namespace cw {
 
 fitting::AcceptanceCriteria CalibrationRules::acceptance_criteria() const {
@@ -19,6 +22,31 @@ fitting::AcceptanceCriteria CalibrationRules::acceptance_criteria() const {
 
 bool MethodDefinition::has_analyte(const std::string& name) const {
   return std::find(analytes.begin(), analytes.end(), name) != analytes.end();
+}
+
+double MethodDefinition::fitted_response(double response, const std::optional<double>& is_response,
+                                         const std::string& response_label,
+                                         const std::string& is_response_label) const {
+  if (internal_standard) {
+    if (!is_response) {
+      throw option_error(is_response_label,
+                         "method '" + code + "' uses the internal standard '" + *internal_standard +
+                             "': give " + is_response_label,
+                         "the response is divided by the internal-standard response");
+    }
+    if (!(*is_response > 0)) {
+      throw option_error(is_response_label, is_response_label + " must be above 0",
+                         "the internal-standard response divides the analyte response");
+    }
+    return require_finite(response / *is_response,
+                          "the ratio " + response_label + " / " + is_response_label,
+                          is_response_label);
+  }
+  if (is_response) {
+    throw option_error(is_response_label, "method '" + code + "' has no internal standard; " +
+                                              is_response_label + " does not apply");
+  }
+  return response;
 }
 
 const MethodVersion* Method::version_at(Instant t) const {

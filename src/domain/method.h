@@ -49,6 +49,13 @@ struct MethodDefinition {
   CheckRules check;
 
   bool has_analyte(const std::string& name) const;
+  /// The response on the fitted scale: `response`, or `response / is_response` when the method
+  /// uses an internal standard. Throws ValidationError (naming the labels) when the
+  /// internal-standard response is missing, given without an internal standard, not above 0, or
+  /// when the ratio overflows.
+  double fitted_response(double response, const std::optional<double>& is_response,
+                         const std::string& response_label,
+                         const std::string& is_response_label) const;
 };
 
 struct MethodVersion {

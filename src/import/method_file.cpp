@@ -7,9 +7,10 @@
 #include <set>
 
 #include "audit/sha256.h"
+#include "core/clean_text.h"
 #include "core/error.h"
 #include "core/text.h"
-#include "import/text_file.h"
+#include "import/input_file.h"
 
 namespace cw::import {
 namespace {
@@ -68,7 +69,7 @@ class TableReader {
     return value;
   }
 
-  std::optional<long> optional_integer(const std::string& key, long low) const {
+  std::optional<long> optional_integer(const std::string& key, long low, long high) const {
     const auto* node = find(key);
     if (!node) return std::nullopt;
     auto i = node->as_integer();
@@ -76,10 +77,10 @@ class TableReader {
       fail(*node, key,
            "key " + quote(dotted(key)) + " must be a whole number, got " + type_of(*node));
     }
-    if (i->get() < low) {
+    if (i->get() < low || i->get() > high) {
       fail(*node, key,
-           "key " + quote(dotted(key)) + " must be at least " + std::to_string(low) + ", got " +
-               std::to_string(i->get()));
+           "key " + quote(dotted(key)) + " must be a whole number from " + std::to_string(low) +
+               " to " + std::to_string(high) + ", got " + std::to_string(i->get()));
     }
     return static_cast<long>(i->get());
   }
@@ -223,7 +224,7 @@ CalibrationRules read_calibration(const TableReader& r) {
                "is not weighted)");
   }
   if (!r.find("min_levels")) r.fail_missing("min_levels");
-  c.min_levels = static_cast<int>(*r.optional_integer("min_levels", 1));
+  c.min_levels = static_cast<int>(*r.optional_integer("min_levels", 1, 1000));
   const int needed = fitting::min_levels_to_fit(c.model);
   if (c.min_levels < needed) {
     r.fail(*r.find("min_levels"), "min_levels",
@@ -261,7 +262,7 @@ CheckRules read_check(const TableReader& r) {
       r.optional_number("tolerance_pct", 0.0, 100.0, false, "a percentage above 0 and at most 100");
   if (!tolerance) r.fail_missing("tolerance_pct");
   c.tolerance_pct = *tolerance;
-  if (auto n = r.optional_integer("samples_per_check", 1))
+  if (auto n = r.optional_integer("samples_per_check", 1, 100000))
     c.samples_per_check = static_cast<int>(*n);
   c.check_every = r.optional_duration("check_every");
   c.trend_rules = r.string_array("trend_rules", false);
@@ -306,10 +307,18 @@ MethodFile parse_method_text(const std::string& file_name, const std::string& te
   } catch (const ValidationError& e) {
     top.fail(*top.find("code"), "code", e.what(), e.hint());
   }
-  d.title = trim(top.required_string("title"));
-  if (d.title.empty()) top.fail(*top.find("title"), "title", "key 'title' is empty");
-  d.unit = trim(top.required_string("unit"));
-  if (d.unit.empty()) top.fail(*top.find("unit"), "unit", "key 'unit' is empty");
+  const std::string title = top.required_string("title");
+  try {
+    d.title = clean_text(title, "key 'title'", kMaxNameChars);
+  } catch (const ValidationError& e) {
+    top.fail(*top.find("title"), "title", e.what(), e.hint());
+  }
+  const std::string unit = top.required_string("unit");
+  try {
+    d.unit = clean_text(unit, "key 'unit'", kMaxLabelChars);
+  } catch (const ValidationError& e) {
+    top.fail(*top.find("unit"), "unit", e.what(), e.hint());
+  }
   d.analytes = top.string_array("analytes", true);
   if (d.analytes.empty())
     top.fail(*top.find("analytes"), "analytes", "key 'analytes' is an empty list");
@@ -350,7 +359,7 @@ MethodFile parse_method_text(const std::string& file_name, const std::string& te
 }
 
 MethodFile read_method_file(const std::string& path) {
-  return parse_method_text(path, read_text_file(path, 1u << 20));
+  return parse_method_text(path, read_text_file(path, kMaxMethodFileBytes, "method file"));
 }
 
 }  // namespace cw::import

@@ -6,11 +6,13 @@
 #include <set>
 
 #include "audit/sha256.h"
+#include "core/clean_text.h"
 #include "core/error.h"
+#include "core/number.h"
 #include "core/text.h"
 #include "fitting/fit.h"
 #include "import/csv.h"
-#include "import/text_file.h"
+#include "import/input_file.h"
 
 namespace cw::import {
 namespace {
@@ -30,16 +32,23 @@ class RowReader {
 
   const std::string& text(const std::string& column) const { return t_.field(r_, column); }
 
+  /// The field as free text (clean_text), the error naming the line and column.
+  std::string clean(const std::string& column, std::size_t max_chars) const {
+    try {
+      return clean_text(text(column), "'" + column + "'", max_chars);
+    } catch (const ValidationError& e) {
+      fail(column, e.what(), e.hint());
+    }
+  }
+
   double number(const std::string& column) const {
     const std::string& s = text(column);
     if (s.empty()) fail(column, "'" + column + "' is empty", "give a number");
-    auto v = parse_number(s);
-    if (!v) {
-      fail(
-          column, "'" + column + "' must be a finite number, got " + quote(s),
-          "use a decimal point and no units, e.g. 12.5 or 1.2e3; NaN and infinity are not allowed");
+    try {
+      return decimal_or_throw(s, "'" + column + "'");
+    } catch (const ValidationError& e) {
+      fail(column, e.what(), e.hint());
     }
-    return *v;
   }
 
   std::optional<double> optional_number(const std::string& column) const {
@@ -90,9 +99,9 @@ PointsFile parse_points_text(const std::string& file_name, const std::string& te
              "unknown analyte " + quote(row.analyte) + " for method " + quote(method.code),
              "the method's analytes are: " + list);
     }
-    row.level = r.text("level");
-    if (row.level.empty())
+    if (r.text("level").empty())
       r.fail("level", "'level' is empty", "name the calibration level, e.g. 1, 2, 3 or L1");
+    row.level = r.clean("level", kMaxLabelChars);
     if (table.has_column("replicate") && !r.text("replicate").empty()) {
       auto rep = parse_integer(r.text("replicate"));
       if (!rep || *rep < 1 || *rep > 1000) {
@@ -130,8 +139,8 @@ PointsFile parse_points_text(const std::string& file_name, const std::string& te
              "unit " + quote(r.text("unit")) + " is not the method's unit " + quote(method.unit),
              "convert the nominal concentrations to " + method.unit);
     }
-    if (table.has_column("exclude") && !r.text("exclude").empty())
-      row.exclude_reason = r.text("exclude");
+    if (table.has_column("exclude") && !trim(r.text("exclude")).empty())
+      row.exclude_reason = r.clean("exclude", kMaxReasonChars);
     // Weights that need a positive value at every fitted point (calibration-practice.md §1.3).
     const auto weighting = method.calibration.weighting;
     if (!row.exclude_reason) {
@@ -215,7 +224,7 @@ PointsFile parse_points_text(const std::string& file_name, const std::string& te
 }
 
 PointsFile read_points_file(const std::string& path, const MethodDefinition& method) {
-  return parse_points_text(path, read_text_file(path, 64u << 20), method);
+  return parse_points_text(path, read_text_file(path, kMaxPointsFileBytes, "--points"), method);
 }
 
 }  // namespace cw::import

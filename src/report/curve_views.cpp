@@ -156,7 +156,7 @@ Json curve_json(const app::CurveView& v, const LabZone& zone) {
       {"rf_rsd_pct", f.rf_rsd_pct},
       {"mandel", mandel},
       {"verdict", std::string(to_string(c.verdict))},
-      {"failed_criteria", c.failed_criteria},
+      {"failed_criteria", tokens(c.failed_criteria)},
       {"criteria_failures", findings(c.acceptance.failures)},
       {"criteria_warnings", findings(c.acceptance.warnings)},
       {"state", state_word(v.status)},
@@ -306,7 +306,9 @@ void print_curve_list(std::ostream& out, const std::vector<app::CurveView>& list
     for (const auto& f : v.status.reasons)
       reasons += (reasons.empty() ? "" : ", ") + std::string(to_string(f.reason));
     if (v.status.cause && reasons.empty() && v.status.state == CurveState::Rejected) {
-      for (const auto& t2 : v.curve.failed_criteria) reasons += (reasons.empty() ? "" : ", ") + t2;
+      for (const auto& t2 : v.curve.failed_criteria) {
+        reasons += (reasons.empty() ? "" : ", ") + std::string(fitting::to_string(t2));
+      }
     }
     t.add_row({std::to_string(v.curve.id.value), v.curve.analyte,
                v.method_code + " v" + std::to_string(v.version.version), v.instrument_code,

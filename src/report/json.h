@@ -6,6 +6,7 @@
 #include <nlohmann/json.hpp>
 #include <optional>
 #include <string>
+#include <vector>
 
 #include "core/time.h"
 
@@ -25,6 +26,13 @@ inline Json json_number(const std::optional<double>& v) {
 template <class T>
 Json json_optional(const std::optional<T>& v) {
   return v ? Json(*v) : Json(nullptr);
+}
+/// A JSON array of the text forms of typed values (reasons, flags, criteria).
+template <class E>
+Json tokens(const std::vector<E>& values) {
+  Json list = Json::array();
+  for (const auto& v : values) list.push_back(std::string(to_string(v)));
+  return list;
 }
 
 }  // namespace cw::report

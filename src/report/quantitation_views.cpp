@@ -24,13 +24,9 @@ std::string csv_field(const std::string& s) {
   return out + "\"";
 }
 
-Json details_json(const std::vector<ReasonDetail>& details) {
+Json reason_tokens(const std::vector<Finding>& findings) {
   Json list = Json::array();
-  for (const auto& d : details) {
-    list.push_back({{"reason", d.reason},
-                    {"since", d.since ? json_instant(*d.since) : Json(nullptr)},
-                    {"message", d.message}});
-  }
+  for (const auto& f : findings) list.push_back(std::string(to_string(f.reason)));
   return list;
 }
 
@@ -40,7 +36,7 @@ std::string result_value_text(const Result& r, const std::string& unit) {
   std::string s = format_sig(*r.concentration, 4) + " " + unit;
   if (r.ci_low && r.ci_high)
     s += " (95 % CI " + format_sig(*r.ci_low, 4) + " to " + format_sig(*r.ci_high, 4) + ")";
-  for (const auto& f : r.flags) s += " [" + f + "]";
+  for (const auto& f : r.flags) s += " [" + std::string(to_string(f)) + "]";
   return s;
 }
 
@@ -134,9 +130,9 @@ Json result_json(const Result& r) {
               {"concentration", json_number(r.concentration)},
               {"ci_low", json_number(r.ci_low)},
               {"ci_high", json_number(r.ci_high)},
-              {"flags", r.flags},
-              {"reasons", r.reasons},
-              {"reason_details", details_json(r.details)},
+              {"flags", tokens(r.flags)},
+              {"reasons", reason_tokens(r.reasons)},
+              {"reason_details", reason_details_json(r.reasons)},
               {"analyst", r.analyst},
               {"at", json_instant(r.occurred_at)}};
 }
@@ -144,7 +140,8 @@ Json result_json(const Result& r) {
 Json quantify_json(const app::QuantifyOutcome& o) {
   Json j = result_json(o.result);
   j["unit"] = o.unit.empty() ? Json(nullptr) : Json(o.unit);
-  j["report_as"] = json_optional(o.report_as);
+  j["report_as"] = o.reporting_limit ? Json("< " + format_plain(*o.reporting_limit) + " " + o.unit)
+                                     : Json(nullptr);
   j["suggested_dilution"] = json_number(o.suggested_dilution);
   j["method"] = o.curve ? Json(o.curve->method_code) : Json(nullptr);
   j["method_version"] = json_optional(o.method_version);
@@ -160,14 +157,17 @@ void print_quantify(std::ostream& out, const app::QuantifyOutcome& o, const LabZ
   out << "Result " << r.id.value << "  sample " << r.sample << "  " << r.analyte << "\n";
   if (r.status == ResultStatus::Refused) {
     out << "  REFUSED at " << zone.format_local(r.occurred_at) << ":\n";
-    for (const auto& d : r.details) out << "  - " << d.reason << ": " << d.message << "\n";
+    for (const auto& d : r.reasons) {
+      out << "  - " << to_string(d.reason) << ": " << d.message << "\n";
+    }
     out << "  Nothing may be reported for this sample from this quantitation; the refusal is "
            "recorded.\n";
     return;
   }
-  if (o.report_as) {
-    out << "  reported as " << *o.report_as << " (below the lowest calibrator; computed "
-        << format_sig(*r.concentration, 4) << " " << o.unit << ")\n";
+  if (o.reporting_limit) {
+    out << "  reported as < " << format_plain(*o.reporting_limit) << " " << o.unit
+        << " (below the lowest calibrator; computed " << format_sig(*r.concentration, 4) << " "
+        << o.unit << ")\n";
   } else {
     out << "  concentration " << format_sig(*r.concentration, 4) << " " << o.unit << "  (95 % CI "
         << format_sig(*r.ci_low, 4) << " to " << format_sig(*r.ci_high, 4) << " " << o.unit
@@ -342,7 +342,7 @@ void print_trace_result(std::ostream& out, const app::ResultTrace& t, const LabZ
       << result_value_text(r, unit) << "\n  quantified " << zone.format_local(r.occurred_at)
       << " by " << r.analyst << " from response " << format_plain(r.response) << ", dilution "
       << format_plain(r.dilution) << "\n";
-  for (const auto& d : r.details) out << "  - " << d.reason << ": " << d.message << "\n";
+  for (const auto& d : r.reasons) out << "  - " << to_string(d.reason) << ": " << d.message << "\n";
   if (!t.curve) {
     out << "  no curve was used\n";
     return;
@@ -482,7 +482,7 @@ void print_trace_lot_csv(std::ostream& out, const app::LotTrace& t) {
       if (r.curve_id && c.curve.id == *r.curve_id) v = &c;
     }
     std::string flags;
-    for (const auto& f : r.flags) flags += (flags.empty() ? "" : ";") + f;
+    for (const auto& f : r.flags) flags += (flags.empty() ? "" : ";") + std::string(to_string(f));
     auto num = [](const std::optional<double>& x) {
       return x ? format_plain(*x, 12) : std::string();
     };

@@ -339,25 +339,33 @@ void print_audit_log(std::ostream& out, const std::vector<audit::AuditEntry>& en
   }
 }
 
-Json verify_json(const store::VerifyReport& r) {
+Json verify_json(const app::VerifyOutcome& o) {
+  const store::VerifyReport& r = o.chain;
   return Json{{"entries", r.entries},
-              {"ok", r.ok},
+              {"ok", r.ok && o.missing_guards.empty()},
+              {"chain_intact", r.ok},
               {"first_broken", json_optional(r.first_broken)},
               {"problem", r.ok ? Json(nullptr) : Json(r.problem)},
-              {"head_hash", r.ok ? Json(r.head_hash) : Json(nullptr)}};
+              {"head_hash", r.ok ? Json(r.head_hash) : Json(nullptr)},
+              {"missing_guards", o.missing_guards}};
 }
 
-void print_verify(std::ostream& out, const store::VerifyReport& r) {
+void print_verify(std::ostream& out, const app::VerifyOutcome& o) {
+  const store::VerifyReport& r = o.chain;
   if (r.ok) {
     out << "Audit trail intact: " << r.entries
         << " entries, every hash and every fact row checked.\n";
     out << "Head hash " << r.head_hash << "\n";
     out << "(Record the head hash outside this store, e.g. in the lab notebook, so that a rewrite "
-           "of the whole "
-           "file can be detected later.)\n";
+           "of the whole file can be detected later.)\n";
   } else {
     out << "AUDIT TRAIL BROKEN at entry "
         << (r.first_broken ? std::to_string(*r.first_broken) : "?") << ": " << r.problem << "\n";
+  }
+  if (!o.missing_guards.empty()) {
+    out << "APPEND-ONLY GUARDS MISSING (" << o.missing_guards.size()
+        << "): the store was altered outside curvewarden; writes are refused.\n";
+    for (const auto& g : o.missing_guards) out << "  missing trigger " << g << "\n";
   }
 }
 

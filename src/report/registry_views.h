@@ -5,10 +5,10 @@
 #include <ostream>
 #include <vector>
 
+#include "app/audit.h"
 #include "app/registry.h"
 #include "audit/audit_entry.h"
 #include "report/json.h"
-#include "store/audit_repository.h"
 
 namespace cw::report {
 
@@ -37,7 +37,7 @@ std::string lot_status(const Lot& lot, const LabZone& zone, Instant at);
 Json audit_entry_json(const audit::AuditEntry& e);
 void print_audit_log(std::ostream& out, const std::vector<audit::AuditEntry>& entries,
                      const LabZone& zone);
-Json verify_json(const store::VerifyReport& r);
-void print_verify(std::ostream& out, const store::VerifyReport& r);
+Json verify_json(const app::VerifyOutcome& o);
+void print_verify(std::ostream& out, const app::VerifyOutcome& o);
 
 }  // namespace cw::report

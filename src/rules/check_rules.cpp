@@ -52,7 +52,7 @@ std::optional<Finding> check_overdue_rule(const RuleInput& in) {
       any = true;
     }
   }
-  const Instant due = add_duration(last, *every, in.zone);
+  const Instant due = add_duration_unchecked(last, *every, in.zone);
   if (due > in.at) return std::nullopt;
   return Finding{Reason::CheckOverdue, due,
                  "a passing check is due every " + to_string(*every) + "; " +

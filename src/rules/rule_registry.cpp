@@ -55,7 +55,9 @@ std::string list_criteria(const Curve& c) {
   std::string out;
   for (const auto& f : c.acceptance.failures) out += (out.empty() ? "" : "; ") + f.detail;
   if (out.empty()) {
-    for (const auto& t : c.failed_criteria) out += (out.empty() ? "" : ", ") + t;
+    for (const auto& t : c.failed_criteria) {
+      out += (out.empty() ? "" : ", ") + std::string(fitting::to_string(t));
+    }
   }
   return out;
 }
@@ -71,6 +73,15 @@ std::optional<Instant> usable_from(const CurveFacts& f, Instant at) {
   if (!f.version().definition.calibration.review_required) return c.acquired_at;
   if (!review) return std::nullopt;
   return std::max(c.acquired_at, review->occurred_at);
+}
+
+CurveState settled_state(const SettledFacts& f) {
+  // The precedence of evaluate() below, for a curve whose expiry moment has passed (so at least
+  // the expired reason holds and it cannot be active).
+  if (f.verdict == Verdict::Rejected || f.rejected_by_review) return CurveState::Rejected;
+  if (f.retired) return CurveState::Retired;
+  if (f.review_required && !f.reviewed) return CurveState::AwaitingReview;
+  return CurveState::Stale;
 }
 
 CurveStatus evaluate(const CurveFacts& f, Instant at, const LabZone& zone,

@@ -37,7 +37,7 @@ inline constexpr std::array kAllFactTables = {
     FactTable::Checks,          FactTable::Results,
 };
 
-/// The SQL table name (a fixed identifier, never user input).
+/// The table name (a fixed identifier, never user input); see row_form.h.
 std::string_view table_name(FactTable t);
 
 }  // namespace cw::store

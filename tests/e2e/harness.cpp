@@ -5,11 +5,13 @@
 
 #include <fcntl.h>
 #include <poll.h>
+#include <signal.h>
 #include <sqlite3.h>
 #include <sys/wait.h>
 #include <unistd.h>
 
 #include <cerrno>
+#include <chrono>
 #include <cstdlib>
 #include <cstring>
 #include <fstream>
@@ -30,15 +32,26 @@ namespace {
 }
 
 /// Reads both pipes until the child closes them (poll, so neither pipe can fill up and block).
-void drain(int out_fd, int err_fd, std::string& out, std::string& err) {
+/// A child still running at `deadline` is killed (a hung tool fails its test instead of
+/// hanging the suite); `timed_out` tells.
+void drain(int out_fd, int err_fd, std::string& out, std::string& err, pid_t pid,
+           std::chrono::steady_clock::time_point deadline, bool& timed_out) {
   pollfd fds[2] = {{out_fd, POLLIN, 0}, {err_fd, POLLIN, 0}};
   int open_fds = 2;
   char buffer[4096];
   while (open_fds > 0) {
-    if (poll(fds, 2, -1) < 0) {
+    const auto left = std::chrono::duration_cast<std::chrono::milliseconds>(
+        deadline - std::chrono::steady_clock::now());
+    if (left.count() <= 0 && !timed_out) {
+      kill(pid, SIGKILL);
+      timed_out = true;
+    }
+    const int ready = poll(fds, 2, timed_out ? -1 : static_cast<int>(left.count()) + 1);
+    if (ready < 0) {
       if (errno == EINTR) continue;
       fail_errno("poll");
     }
+    if (ready == 0) continue;
     for (int i = 0; i < 2; ++i) {
       if (fds[i].fd < 0 || (fds[i].revents & (POLLIN | POLLHUP | POLLERR)) == 0) continue;
       const ssize_t n = read(fds[i].fd, buffer, sizeof buffer);
@@ -156,11 +169,15 @@ RunResult run_process(const std::filesystem::path& binary, const std::vector<std
 
   RunResult result;
   result.args = args;
-  drain(out_pipe[0], err_pipe[0], result.out, result.err);
+  const auto started = std::chrono::steady_clock::now();
+  drain(out_pipe[0], err_pipe[0], result.out, result.err, pid, started + kRunTimeout,
+        result.timed_out);
   int status = 0;
   while (waitpid(pid, &status, 0) < 0) {
     if (errno != EINTR) fail_errno("waitpid");
   }
+  result.seconds =
+      std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count();
   if (WIFEXITED(status)) {
     result.exit_code = WEXITSTATUS(status);
   } else if (WIFSIGNALED(status)) {

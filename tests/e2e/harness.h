@@ -22,6 +22,7 @@
 // rows, or compare file bytes.
 #pragma once
 
+#include <chrono>
 #include <cstdint>
 #include <filesystem>
 #include <map>
@@ -35,9 +36,15 @@ namespace cw::test {
 /// Environment overrides for one run: a value sets the variable, nullopt removes it.
 using EnvOverrides = std::map<std::string, std::optional<std::string>>;
 
+/// How long one run may take before the harness kills it (a hang fails the test, it does not
+/// stall the suite).
+inline constexpr std::chrono::seconds kRunTimeout{120};
+
 /// What one run of the binary produced.
 struct RunResult {
   int exit_code = -1;             ///< the process exit status; 128 + N when killed by signal N
+  bool timed_out = false;         ///< killed after kRunTimeout
+  double seconds = 0;             ///< wall-clock duration of the run
   std::string out;                ///< everything written to stdout
   std::string err;                ///< everything written to stderr
   std::vector<std::string> args;  ///< the arguments (for failure messages)

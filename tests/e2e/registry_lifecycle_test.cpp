@@ -236,12 +236,17 @@ TEST_CASE("e2e registry: init is idempotent", "[e2e]") {
   CHECK(r.out == "Store " + box.db().string() +
                      " is up to date (schema 4): Water lab, time zone America/New_York.\n");
 
-  // A new lab name is a change, recorded as such.
+  // A new lab name is a change that needs a reason, recorded as a rename with it.
   r = box.run({"init", "--lab", "Water and soil lab", "--json"});
+  CHECK(r.exit_code == 2);
+  CHECK_THAT(r.json()["error"]["message"].get<std::string>(), Catch::Contains("needs --reason"));
+  CHECK(cw::test::table_row_counts(box.db()) == counts);
+  r = box.run({"init", "--lab", "Water and soil lab", "--reason", "soil section joined", "--json"});
   REQUIRE(r.exit_code == 0);
   CHECK(r.json()["changed"] == true);
   CHECK(cw::test::table_row_counts(box.db()).at("audit_log") == 2);
   const Json log = box.run({"audit", "log", "--json"}).json();
-  CHECK(log["entries"][1]["action"] == "lab.change");
+  CHECK(log["entries"][1]["action"] == "lab.rename");
+  CHECK(log["entries"][1]["reason"] == "soil section joined");
   CHECK(log["entries"][1]["values"]["lab_settings"][0]["time_zone"] == "America/New_York");
 }

@@ -6,8 +6,9 @@
 #include <catch2/catch.hpp>
 
 #include "scenario_support.h"
-#include "store/connection.h"
-#include "store/curve_repository.h"
+#include "store/sqlite/diagnostics.h"
+#include "store/sqlite/sql.h"
+#include "store/store.h"
 
 using namespace cw::scenario;
 
@@ -109,9 +110,11 @@ TEST_CASE("expiring: the window query uses the index curves_by_expiry", "[scenar
   lab.add_method(MethodSpec{});
   log_m1(lab, "ANION-IC", "IC-01", "2026-03-02T09:00:00Z");
   cw::store::OpenOptions options;
-  options.path = lab.box.db().string();
-  cw::store::Connection connection = cw::store::Connection::open(options);
-  const std::string plan = cw::store::explain_expiring_query(connection);
+  options.location = lab.box.db().string();
+  auto store = cw::store::Store::open(options);
+  // The very statement the repository executes for 'expiring'.
+  const std::string plan =
+      cw::store::sqlite::query_plan(*store, cw::store::sqlite::sql::kCurvesExpiringBetween);
   INFO("plan:\n" << plan);
   CHECK_THAT(plan, Catch::Contains("curves_by_expiry"));
   CHECK_THAT(plan, !Catch::Contains("SCAN curves\n"));  // no full table scan

@@ -50,10 +50,16 @@ std::vector<BadCase> bad_cases() {
        5, "'1.5'"},
       {"unknown analyte", h + kGoodRows + "chloride,L6,10,99.1,1,\n", "ANION-IC", 7, 1,
        "'chloride'"},
-      {"line count survives a quoted line break",
+      // A reason is one line of text: a quoted line break is refused where its record starts
+      // (the same rule as for --reason on the command line).
+      {"a quoted line break in an exclude reason",
        h + kGoodRows + "sulfate,S1,2,7.1,1,\"re-injected:\nvial cap loose\"\n" +
            "chloride,L6,10,99.1,1,\n",
-       "ANION-IC", 9, 1, "'chloride'"},
+       "ANION-IC", 7, 6, "U+000A"},
+      {"line count survives a quoted comma",
+       h + kGoodRows + "sulfate,S1,2,7.1,1,\"re-injected, vial cap loose\"\n" +
+           "chloride,L6,10,99.1,1,\n",
+       "ANION-IC", 8, 1, "'chloride'"},
       {"missing column", "analyte,level,nominal,replicate\nnitrate,L1,1,1\n", "ANION-IC", 1, 0,
        "'response'"},
       {"unknown column", "analyte,level,nominal,response,area\nnitrate,L1,1,10.2,10.2\n",
@@ -121,7 +127,7 @@ TEST_CASE("points file: bad input is refused naming file, line and column, and n
     CHECK(error.at("file") == file);
     if (c.line > 0) {
       CHECK(error.at("line") == c.line);
-      CHECK_THAT(r.err, Catch::Contains("line " + std::to_string(c.line)));
+      CHECK_THAT(r.err, Catch::Contains(file + ":" + std::to_string(c.line)));
     } else {
       // A whole-file error still names a line of the file (product.md §4: errors name the
       // file and line for input files).
@@ -130,11 +136,12 @@ TEST_CASE("points file: bad input is refused naming file, line and column, and n
         CHECK(error.at("line").get<long>() >= 1);
         CHECK(error.at("line").get<long>() <= last_line);
       }
-      CHECK(std::regex_search(r.err, std::regex("line [0-9]+")));
+      CHECK(std::regex_search(r.err, std::regex(":[0-9]+")));
     }
     if (c.column > 0) {
       CHECK(error.at("column") == c.column);
-      CHECK_THAT(r.err, Catch::Contains("column " + std::to_string(c.column)));
+      CHECK_THAT(r.err, Catch::Contains(file + ":" + std::to_string(c.line) + ":" +
+                                        std::to_string(c.column)));
     }
   }
 }

@@ -64,7 +64,7 @@ TEST_CASE("text: check_analyte_name refuses '=', control characters and edge spa
   CHECK_THAT(validation_message([] { cw::check_analyte_name("a=b", "analyte"); }),
              Catch::Contains("forbidden character"));
   CHECK_THAT(validation_message([] { cw::check_analyte_name("ni\ttrate", "analyte"); }),
-             Catch::Contains("forbidden character"));
+             Catch::Contains("control or formatting character U+0009"));
   CHECK_THAT(validation_message([] { cw::check_analyte_name(" nitrate", "analyte"); }),
              Catch::Contains("leading or trailing spaces"));
   CHECK(validation_message([] { cw::check_analyte_name("", "analyte"); }) == "analyte is empty");

@@ -265,7 +265,7 @@ TEST_CASE("rules: state precedence: rejected, retired, awaiting-review, stale", 
   }
   SECTION("failed acceptance is rejected whatever else holds") {
     w.curve.verdict = Verdict::Rejected;
-    w.curve.failed_criteria = {"r2-below-min"};
+    w.curve.failed_criteria = {cw::fitting::Criterion::R2BelowMin};
     CHECK(w.at("2026-03-02T09:00:00Z").state == CurveState::Rejected);
   }
 }

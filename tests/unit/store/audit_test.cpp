@@ -13,18 +13,14 @@
 #include "audit/sha256.h"
 #include "core/date_include.h"
 #include "core/error.h"
-#include "store/audit_repository.h"
-#include "store/connection.h"
-#include "store/registry_repository.h"
+#include "store/store.h"
 #include "store_test_support.h"
 
 namespace {
 
 using cw::Instant;
 using cw::store::Actor;
-using cw::store::Connection;
 using cw::store::EntryHeader;
-using cw::store::WriteTransaction;
 using cw::store_test::evp_sha256_hex;
 using cw::store_test::RawDb;
 using cw::store_test::TempDir;
@@ -53,20 +49,20 @@ struct Fixture {
   std::filesystem::path path = tmp / "audit.db";
   cw::FixedClock clock{utc(2026, 3, 2, 9)};
   Actor actor{"alice", &clock, "curvewarden test"};
-  Connection c = open();
+  std::unique_ptr<cw::store::Store> c = open();
 
-  Connection open() {
+  std::unique_ptr<cw::store::Store> open() {
     cw::store::OpenOptions o;
-    o.path = path.string();
+    o.location = path.string();
     o.create = true;
-    return Connection::open(o);
+    return cw::store::Store::open(o);
   }
 
   void add_instrument(const std::string& code, Instant at) {
-    WriteTransaction tx(c, actor);
-    cw::store::insert_instrument(tx, code, std::string("Ion chromatograph"), at);
-    tx.append_entry({"instrument.add", "instrument", code, std::nullopt, at});
-    tx.commit();
+    auto tx = c->write(actor);
+    tx->registry_writer().add_instrument(code, std::string("Ion chromatograph"), at);
+    tx->append_entry({"instrument.add", "instrument", code, std::nullopt, at});
+    tx->commit();
   }
 };
 
@@ -112,25 +108,25 @@ TEST_CASE("audit: an exception before commit leaves neither rows nor an entry", 
 
   SECTION("thrown after the entry was appended") {
     try {
-      WriteTransaction tx(f.c, f.actor);
-      cw::store::insert_instrument(tx, "IC-02", std::nullopt, utc(2026, 3, 2, 8));
-      tx.append_entry({"instrument.add", "instrument", "IC-02", std::nullopt, utc(2026, 3, 2, 8)});
+      auto tx = f.c->write(f.actor);
+      tx->registry_writer().add_instrument("IC-02", std::nullopt, utc(2026, 3, 2, 8));
+      tx->append_entry({"instrument.add", "instrument", "IC-02", std::nullopt, utc(2026, 3, 2, 8)});
       throw std::runtime_error("power cut");
     } catch (const std::runtime_error&) {
     }
   }
   SECTION("thrown before the entry was appended") {
     try {
-      WriteTransaction tx(f.c, f.actor);
-      cw::store::insert_instrument(tx, "IC-02", std::nullopt, utc(2026, 3, 2, 8));
+      auto tx = f.c->write(f.actor);
+      tx->registry_writer().add_instrument("IC-02", std::nullopt, utc(2026, 3, 2, 8));
       throw std::runtime_error("power cut");
     } catch (const std::runtime_error&) {
     }
   }
   SECTION("commit refused for rows without an entry") {
-    WriteTransaction tx(f.c, f.actor);
-    cw::store::insert_instrument(tx, "IC-02", std::nullopt, utc(2026, 3, 2, 8));
-    CHECK_THROWS_AS(tx.commit(), std::logic_error);
+    auto tx = f.c->write(f.actor);
+    tx->registry_writer().add_instrument("IC-02", std::nullopt, utc(2026, 3, 2, 8));
+    CHECK_THROWS_AS(tx->commit(), std::logic_error);
   }
 
   {
@@ -145,7 +141,7 @@ TEST_CASE("audit: an exception before commit leaves neither rows nor an entry", 
   CHECK(raw.integer("SELECT max(seq) FROM audit_log") == 2);
   CHECK(raw.text("SELECT prev_hash FROM audit_log WHERE seq = 2") ==
         raw.text("SELECT hash FROM audit_log WHERE seq = 1"));
-  const auto report = cw::store::verify_audit(f.c);
+  const auto report = f.c->read()->audit().verify();
   CHECK(report.ok);
   CHECK(report.entries == 2);
 }
@@ -155,11 +151,11 @@ TEST_CASE("audit: each entry links to the hash of the one before", "[store][audi
   f.add_instrument("IC-02", utc(2026, 3, 1, 8));
   {
     // Two entries in one transaction, the second writing rows of two tables.
-    WriteTransaction tx(f.c, f.actor);
-    const auto id = cw::store::find_instrument(f.c, std::string("IC-02"))->id;
-    cw::store::insert_service_event(tx, id,
-                                    {cw::ServiceDirection::Out, "pump seal", utc(2026, 3, 1, 12)});
-    tx.append_entry(
+    auto tx = f.c->write(f.actor);
+    const auto id = tx->registry().instrument("IC-02")->id;
+    tx->registry_writer().add_service_event(
+        id, {cw::ServiceDirection::Out, "pump seal", utc(2026, 3, 1, 12)});
+    tx->append_entry(
         {"instrument.service-out", "instrument", "IC-02", "pump seal", utc(2026, 3, 1, 12)});
     cw::Lot lot;
     lot.code = "CRM-1";
@@ -167,9 +163,9 @@ TEST_CASE("audit: each entry links to the hash of the one before", "[store][audi
     lot.expires_on = {2027, 3, 31};
     lot.registered_at = utc(2026, 3, 1, 13);
     lot.values.push_back({"nitrate", 1000.0, 5.0});
-    cw::store::insert_lot(tx, lot);
-    tx.append_entry({"lot.add", "lot", "CRM-1", std::nullopt, utc(2026, 3, 1, 13)});
-    tx.commit();
+    tx->registry_writer().add_lot(lot);
+    tx->append_entry({"lot.add", "lot", "CRM-1", std::nullopt, utc(2026, 3, 1, 13)});
+    tx->commit();
   }
 
   RawDb raw(f.path);
@@ -187,7 +183,7 @@ TEST_CASE("audit: each entry links to the hash of the one before", "[store][audi
         R"("code":"CRM-1","expires_on":"2027-03-31","id":1,"in_use_days":null,)"
         R"("material":"Nitrate CRM","opened_on":null,"registered_at":"2026-03-01T13:00:00Z"}]})");
 
-  const auto report = cw::store::verify_audit(f.c);
+  const auto report = f.c->read()->audit().verify();
   CHECK(report.ok);
   CHECK(report.entries == 3);
   CHECK_FALSE(report.first_broken.has_value());
@@ -201,13 +197,13 @@ TEST_CASE("audit: the stored hash matches an independent SHA-256 of the canonica
   UnflaggedClock unflagged(utc(2026, 3, 2, 10, 15));
   const Actor bob{"bob", &unflagged, "curvewarden test"};
   {
-    WriteTransaction tx(f.c, bob);
-    const auto id = cw::store::find_instrument(f.c, std::string("IC-02"))->id;
-    cw::store::insert_service_event(
-        tx, id, {cw::ServiceDirection::Out, "pump seal \"leaking\" ±", utc(2026, 3, 1, 12)});
-    tx.append_entry({"instrument.service-out", "instrument", "IC-02", "pump seal \"leaking\" ±",
-                     utc(2026, 3, 1, 12)});
-    tx.commit();
+    auto tx = f.c->write(bob);
+    const auto id = tx->registry().instrument("IC-02")->id;
+    tx->registry_writer().add_service_event(
+        id, {cw::ServiceDirection::Out, "pump seal \"leaking\" ±", utc(2026, 3, 1, 12)});
+    tx->append_entry({"instrument.service-out", "instrument", "IC-02", "pump seal \"leaking\" ±",
+                      utc(2026, 3, 1, 12)});
+    tx->commit();
   }
 
   RawDb raw(f.path);
@@ -233,7 +229,7 @@ TEST_CASE("audit: the stored hash matches an independent SHA-256 of the canonica
   CHECK(rows[1][2] == evp_sha256_hex(rows[0][2] + "\n" + header2 + "\n" + payload2));
 
   // The project's canonical header agrees with the hand-written one.
-  const auto entries = cw::store::list_audit(f.c, {});
+  const auto entries = f.c->read()->audit().list({});
   REQUIRE(entries.size() == 2);
   CHECK(cw::audit::canonical_header(entries[0]) == header1);
   CHECK(cw::audit::canonical_header(entries[1]) == header2);
@@ -250,14 +246,14 @@ TEST_CASE("audit: verify names the first entry that no longer holds", "[store][a
 
   SECTION("an entry is missing") {
     REQUIRE(raw.exec("DELETE FROM audit_log WHERE seq = 2") == SQLITE_OK);
-    const auto r = cw::store::verify_audit(f.c);
+    const auto r = f.c->read()->audit().verify();
     CHECK_FALSE(r.ok);
     CHECK(r.first_broken == 2);
     CHECK_THAT(r.problem, Catch::Contains("entry 2 is missing"));
   }
   SECTION("an entry's actor is changed") {
     REQUIRE(raw.exec("UPDATE audit_log SET actor = 'mallory' WHERE seq = 2") == SQLITE_OK);
-    const auto r = cw::store::verify_audit(f.c);
+    const auto r = f.c->read()->audit().verify();
     CHECK_FALSE(r.ok);
     CHECK(r.first_broken == 2);
     CHECK_THAT(r.problem, Catch::Contains("its hash does not match"));
@@ -273,14 +269,14 @@ TEST_CASE("audit: verify names the first entry that no longer holds", "[store][a
                        "\n" + raw.text("SELECT payload FROM audit_log WHERE seq = 2"));
     REQUIRE(raw.exec("UPDATE audit_log SET actor = 'mallory', hash = '" + forged +
                      "' WHERE seq = 2") == SQLITE_OK);
-    const auto r = cw::store::verify_audit(f.c);
+    const auto r = f.c->read()->audit().verify();
     CHECK_FALSE(r.ok);
     CHECK(r.first_broken == 3);
     CHECK_THAT(r.problem, Catch::Contains("does not link to the entry before it"));
   }
   SECTION("a fact row is changed") {
     REQUIRE(raw.exec("UPDATE instruments SET name = 'Other' WHERE code = 'IC-03'") == SQLITE_OK);
-    const auto r = cw::store::verify_audit(f.c);
+    const auto r = f.c->read()->audit().verify();
     CHECK_FALSE(r.ok);
     CHECK(r.first_broken == 3);
     CHECK_THAT(r.problem, Catch::Contains("row instruments id 3 differs from what was recorded"));
@@ -288,7 +284,7 @@ TEST_CASE("audit: verify names the first entry that no longer holds", "[store][a
   SECTION("a fact row is added behind the tool's back") {
     REQUIRE(raw.exec("INSERT INTO instruments (code, registered_at, audit_seq) "
                      "VALUES ('IC-99', '2026-03-01T11:00:00Z', 3)") == SQLITE_OK);
-    const auto r = cw::store::verify_audit(f.c);
+    const auto r = f.c->read()->audit().verify();
     CHECK_FALSE(r.ok);
     CHECK(r.first_broken == 3);
     CHECK_THAT(r.problem, Catch::Contains("row instruments id 4 has no audit entry"));

@@ -11,15 +11,15 @@
 #include <vector>
 
 #include "core/error.h"
-#include "store/connection.h"
+#include "store/sqlite/open.h"
+#include "store/store.h"
 #include "store_test_support.h"
 
 namespace {
 
 using cw::StoreError;
-using cw::store::Connection;
-using cw::store::MigrationSpec;
 using cw::store::OpenOptions;
+using cw::store::sqlite::MigrationSpec;
 using cw::store_test::RawDb;
 using cw::store_test::read_bytes;
 using cw::store_test::TempDir;
@@ -27,7 +27,7 @@ using cw::store_test::write_bytes;
 
 OpenOptions options(const std::filesystem::path& p, bool create) {
   OpenOptions o;
-  o.path = p.string();
+  o.location = p.string();
   o.create = create;
   return o;
 }
@@ -35,7 +35,7 @@ OpenOptions options(const std::filesystem::path& p, bool create) {
 /// The StoreError message that opening throws ("" when it opens).
 std::string open_error(const OpenOptions& o) {
   try {
-    Connection::open(o);
+    cw::store::Store::open(o);
   } catch (const StoreError& e) {
     CHECK(e.exit_code() == cw::ExitCode::Store);
     return e.what();
@@ -45,7 +45,7 @@ std::string open_error(const OpenOptions& o) {
 
 std::string open_error(const OpenOptions& o, const std::vector<MigrationSpec>& migrations) {
   try {
-    Connection::open(o, migrations);
+    cw::store::sqlite::open_sqlite(o, migrations);
   } catch (const StoreError& e) {
     return e.what();
   }
@@ -64,7 +64,7 @@ std::vector<std::string> table_names(RawDb& raw) {
 }  // namespace
 
 TEST_CASE("store: the migrations compiled in are the files of migrations/, in order", "[store]") {
-  const auto m = Connection::embedded_migrations();
+  const auto m = cw::store::sqlite::embedded_migrations();
   REQUIRE(m.size() == 4);
   CHECK(m[0].version == 1);
   CHECK(m[0].name == "0001_create_audit_and_registries");
@@ -81,11 +81,11 @@ TEST_CASE("store: a fresh store records every migration, user_version and applic
           "[store]") {
   TempDir tmp;
   const auto path = tmp / "fresh.db";
-  const auto migrations = Connection::embedded_migrations();
+  const auto migrations = cw::store::sqlite::embedded_migrations();
   {
-    auto c = Connection::open(options(path, true));
-    CHECK(c.was_created());
-    CHECK(c.schema_version() == 4);
+    auto c = cw::store::Store::open(options(path, true));
+    CHECK(c->was_created());
+    CHECK(c->schema_version() == 4);
   }
   RawDb raw(path);
   const auto rows =
@@ -124,7 +124,7 @@ TEST_CASE("store: a fresh store records every migration, user_version and applic
 TEST_CASE("store: re-opening applies nothing", "[store]") {
   TempDir tmp;
   const auto path = tmp / "store.db";
-  { Connection::open(options(path, true)); }
+  { cw::store::Store::open(options(path, true)); }
   std::vector<std::vector<std::string>> before;
   std::int64_t objects_before = 0;
   {
@@ -136,9 +136,9 @@ TEST_CASE("store: re-opening applies nothing", "[store]") {
 
   for (bool create : {false, true}) {
     INFO("create = " << create);
-    auto c = Connection::open(options(path, create));
-    CHECK_FALSE(c.was_created());
-    CHECK(c.schema_version() == 4);
+    auto c = cw::store::Store::open(options(path, create));
+    CHECK_FALSE(c->was_created());
+    CHECK(c->schema_version() == 4);
   }
   RawDb raw(path);
   CHECK(raw.rows("SELECT * FROM schema_migrations ORDER BY version") == before);
@@ -172,8 +172,8 @@ TEST_CASE("store: a migration that fails halfway leaves nothing of itself", "[st
   // Fixed, the second migration applies on the next open.
   std::vector<MigrationSpec> fixed = good;
   fixed.push_back({2, "0002_half", "CREATE TABLE two (y INTEGER) STRICT;"});
-  auto c = Connection::open(options(path, false), fixed);
-  CHECK(c.schema_version() == 2);
+  auto c = cw::store::sqlite::open_sqlite(options(path, false), fixed);
+  CHECK(c->schema_version() == 2);
   CHECK(table_names(raw) == std::vector<std::string>{"one", "schema_migrations", "two"});
 }
 
@@ -192,15 +192,15 @@ TEST_CASE("store: a first migration that fails leaves a bare, unclaimed file", "
     CHECK(raw.integer("PRAGMA application_id") == 0);
   }
   // So init can try again.
-  auto c = Connection::open(options(path, true));
-  CHECK(c.schema_version() == 4);
+  auto c = cw::store::Store::open(options(path, true));
+  CHECK(c->schema_version() == 4);
 }
 
 TEST_CASE("store: a store written by a newer version is refused and left byte-identical",
           "[store]") {
   TempDir tmp;
   const auto path = tmp / "newer.db";
-  { Connection::open(options(path, true)); }
+  { cw::store::Store::open(options(path, true)); }
   {
     RawDb raw(path);
     REQUIRE(raw.exec("PRAGMA user_version = 99") == SQLITE_OK);
@@ -269,7 +269,7 @@ TEST_CASE("store: a missing or empty file is not a store unless init creates it"
   write_bytes(empty, "");
   CHECK_THAT(open_error(options(empty, false)), Catch::Contains("is an empty file"));
   CHECK(read_bytes(empty).empty());
-  auto c = Connection::open(options(empty, true));
-  CHECK(c.was_created());
-  CHECK(c.schema_version() == 4);
+  auto c = cw::store::Store::open(options(empty, true));
+  CHECK(c->was_created());
+  CHECK(c->schema_version() == 4);
 }

@@ -11,7 +11,7 @@
 #include <sstream>
 #include <string>
 
-#include "store/connection.h"
+#include "store/store.h"
 #include "store_test_support.h"
 
 #ifndef CW_SCHEMA_SNAPSHOT
@@ -68,9 +68,9 @@ TEST_CASE("store: schema/current.sql matches the schema the migrations build", "
   const auto path = tmp / "schema.db";
   {
     cw::store::OpenOptions o;
-    o.path = path.string();
+    o.location = path.string();
     o.create = true;
-    cw::store::Connection::open(o);
+    cw::store::Store::open(o);
   }
   const std::string generated = schema_dump(path);
   CHECK_THAT(generated, Catch::Contains("-- table audit_log\nCREATE TABLE audit_log ("));

@@ -1,0 +1,208 @@
+// SPDX-License-Identifier: Apache-2.0
+// Batch fact loading.
+#include "app/fact_set.h"
+
+#include <algorithm>
+#include <tuple>
+
+#include "core/error.h"
+
+namespace cw::app {
+namespace {
+
+template <class Map, class Id>
+void add_missing(const Map& map, Id id, std::vector<Id>& out) {
+  if (!map.count(id) && std::find(out.begin(), out.end(), id) == out.end()) out.push_back(id);
+}
+
+[[noreturn]] void damaged_reference(const std::string& what) {
+  throw StoreError("the store is damaged: " + what,
+                   "run 'curvewarden audit verify' and restore the store from a backup");
+}
+
+}  // namespace
+
+void FactSet::load(const std::vector<CurveId>& ids, bool with_points) {
+  std::vector<CurveId> wanted;
+  for (CurveId id : ids) {
+    const bool have = curves_.count(id) && (!with_points || with_points_.count(id));
+    if (!have && std::find(wanted.begin(), wanted.end(), id) == wanted.end()) wanted.push_back(id);
+  }
+  if (wanted.empty()) return;
+  std::vector<CurveId> fresh;
+  for (auto& c : unit_.curves().curves(wanted, with_points)) {
+    const CurveId id = c.id;
+    if (with_points) with_points_.insert(id);
+    if (auto it = curves_.find(id); it != curves_.end()) {
+      // Loaded before without points: add them, keeping the object others refer to.
+      it->second->points = std::move(c.points);
+      continue;
+    }
+    fresh.push_back(id);
+    curves_[id] = std::make_unique<Curve>(std::move(c));
+  }
+  if (fresh.empty()) return;
+  for (auto& k : unit_.curves().checks_of(fresh)) checks_[k.curve_id].push_back(std::move(k));
+  std::vector<CalibrationId> calibrations;
+  std::vector<MethodId> methods;
+  std::vector<InstrumentId> instruments;
+  for (CurveId id : fresh) {
+    const Curve& c = *curves_.at(id);
+    add_missing(calibrations_, c.calibration_id, calibrations);
+    add_missing(methods_, c.method_id, methods);
+    add_missing(instruments_, c.instrument_id, instruments);
+  }
+  if (!calibrations.empty()) {
+    for (auto& k : unit_.curves().calibrations(calibrations)) {
+      const CalibrationId id = k.id;
+      calibrations_[id] = std::make_unique<Calibration>(std::move(k));
+    }
+  }
+  std::vector<LotId> lots;
+  for (CalibrationId id : calibrations) {
+    if (!calibrations_.count(id))
+      damaged_reference("calibration " + std::to_string(id.value) + " is missing");
+    for (LotId lot : calibrations_.at(id)->lots) add_missing(lots_, lot, lots);
+  }
+  if (!methods.empty()) {
+    for (auto& m : unit_.registry().methods(methods)) {
+      const MethodId id = m.id;
+      methods_[id] = std::make_unique<Method>(std::move(m));
+    }
+  }
+  if (!instruments.empty()) {
+    for (auto& i : unit_.registry().instruments(instruments)) {
+      const InstrumentId id = i.id;
+      instruments_[id] = std::make_unique<Instrument>(std::move(i));
+    }
+  }
+  if (!lots.empty()) {
+    for (auto& l : unit_.registry().lots(lots)) {
+      const LotId id = l.id;
+      lots_[id] = std::make_unique<Lot>(std::move(l));
+    }
+  }
+}
+
+const Curve& FactSet::curve(CurveId id, bool with_points) {
+  load({id}, with_points);
+  auto it = curves_.find(id);
+  if (it == curves_.end()) {
+    throw NotFoundError("no curve " + std::to_string(id.value),
+                        "list curves with 'curvewarden curve list'");
+  }
+  return *it->second;
+}
+
+const Method& FactSet::method(MethodId id) {
+  auto it = methods_.find(id);
+  if (it == methods_.end()) {
+    auto found = unit_.registry().methods({id});
+    if (found.empty()) damaged_reference("method id " + std::to_string(id.value) + " is missing");
+    it = methods_.emplace(id, std::make_unique<Method>(std::move(found.front()))).first;
+  }
+  return *it->second;
+}
+
+const Instrument& FactSet::instrument(InstrumentId id) {
+  auto it = instruments_.find(id);
+  if (it == instruments_.end()) {
+    auto found = unit_.registry().instruments({id});
+    if (found.empty()) {
+      damaged_reference("instrument id " + std::to_string(id.value) + " is missing");
+    }
+    it = instruments_.emplace(id, std::make_unique<Instrument>(std::move(found.front()))).first;
+  }
+  return *it->second;
+}
+
+const Calibration& FactSet::calibration(CalibrationId id) {
+  auto it = calibrations_.find(id);
+  if (it == calibrations_.end()) {
+    auto found = unit_.curves().calibration(id);
+    if (!found) damaged_reference("calibration " + std::to_string(id.value) + " is missing");
+    it = calibrations_.emplace(id, std::make_unique<Calibration>(std::move(*found))).first;
+  }
+  return *it->second;
+}
+
+const rules::CurveFacts& FactSet::facts(CurveId id) {
+  auto& slot = facts_[id];
+  if (!slot) {
+    const Curve& c = curve(id);
+    auto f = std::make_unique<rules::CurveFacts>();
+    f->curve = &c;
+    f->method = &method(c.method_id);
+    f->instrument = &instrument(c.instrument_id);
+    for (LotId lot_id : calibration(c.calibration_id).lots) {
+      auto it = lots_.find(lot_id);
+      if (it == lots_.end()) {
+        auto found = unit_.registry().lots({lot_id});
+        if (found.empty()) {
+          damaged_reference("lot id " + std::to_string(lot_id.value) + " is missing");
+        }
+        it = lots_.emplace(lot_id, std::make_unique<Lot>(std::move(found.front()))).first;
+      }
+      f->lots.push_back(it->second.get());
+    }
+    if (auto k = checks_.find(id); k != checks_.end()) f->checks = k->second;
+    bool has_version = false;
+    for (const auto& v : f->method->versions)
+      has_version = has_version || v.id == c.method_version_id;
+    if (!has_version) {
+      damaged_reference("curve " + std::to_string(id.value) +
+                        " refers to a method version its method does not have");
+    }
+    slot = std::move(f);
+  }
+  return *slot;
+}
+
+std::vector<CurveId> FactSet::newer_live_in_group(const Curve& c, Instant at) {
+  if (c.acquired_at > at) return {};
+  return unit_.curves().live_in_group(c.method_id, c.instrument_id, c.analyte, c.acquired_at, at);
+}
+
+CurveStatus FactSet::status(CurveId id, Instant at) {
+  return statuses({id}, at).at(id);
+}
+
+std::map<CurveId, CurveStatus> FactSet::statuses(const std::vector<CurveId>& ids, Instant at) {
+  load(ids);
+  for (CurveId id : ids) curve(id);  // NotFoundError for an unknown id
+  // One query per group: the live curves acquired since the group's oldest curve asked about.
+  using Group = std::tuple<MethodId, InstrumentId, std::string>;
+  std::map<Group, Instant> oldest;
+  for (CurveId id : ids) {
+    const Curve& c = *curves_.at(id);
+    if (c.acquired_at > at) continue;
+    const Group g{c.method_id, c.instrument_id, c.analyte};
+    auto [it, inserted] = oldest.emplace(g, c.acquired_at);
+    if (!inserted) it->second = std::min(it->second, c.acquired_at);
+  }
+  std::map<Group, std::vector<CurveId>> members;
+  std::vector<CurveId> all;
+  for (const auto& [g, since] : oldest) {
+    auto live =
+        unit_.curves().live_in_group(std::get<0>(g), std::get<1>(g), std::get<2>(g), since, at);
+    all.insert(all.end(), live.begin(), live.end());
+    members[g] = std::move(live);
+  }
+  load(all);
+  std::map<CurveId, CurveStatus> out;
+  for (CurveId id : ids) {
+    const rules::CurveFacts& own = facts(id);
+    std::vector<const rules::CurveFacts*> newer;
+    const Curve& c = *own.curve;
+    if (c.acquired_at <= at) {
+      for (CurveId other : members[{c.method_id, c.instrument_id, c.analyte}]) {
+        const Curve& o = *curves_.at(other);
+        if (other != id && o.acquired_at >= c.acquired_at) newer.push_back(&facts(other));
+      }
+    }
+    out.emplace(id, rules::evaluate(own, at, zone_, newer));
+  }
+  return out;
+}
+
+}  // namespace cw::app

@@ -1,0 +1,55 @@
+// SPDX-License-Identifier: Apache-2.0
+// The facts the rules engine needs (curves, their method, instrument, lots and checks), loaded in
+// batches through one unit of work, and the state of curves at a moment.
+#pragma once
+
+#include <map>
+#include <memory>
+#include <set>
+#include <vector>
+
+#include "domain/curve.h"
+#include "rules/curve_facts.h"
+#include "store/store.h"
+
+namespace cw::app {
+
+class FactSet {
+ public:
+  FactSet(store::ReadUnit& unit, const LabZone& zone) : unit_(unit), zone_(zone) {}
+
+  /// Loads the curves and everything their state needs in a handful of queries, whatever their
+  /// number; with `with_points` their calibration points too. Unknown ids are skipped.
+  void load(const std::vector<CurveId>& ids, bool with_points = false);
+
+  /// The curve (loaded on demand); NotFoundError naming it when there is none.
+  const Curve& curve(CurveId id, bool with_points = false);
+  const rules::CurveFacts& facts(CurveId id);
+  const Method& method(MethodId id);
+  const Instrument& instrument(InstrumentId id);
+  const Calibration& calibration(CalibrationId id);
+  const MethodVersion& version_of(CurveId id) { return facts(id).version(); }
+  std::vector<const Lot*> lots_of(CurveId id) { return facts(id).lots; }
+
+  /// The state at `at`, superseded included (the group's newer live curves are loaded).
+  CurveStatus status(CurveId id, Instant at);
+  /// The states of many curves at `at`, with one group query per distinct (method, instrument,
+  /// analyte) and one batch load.
+  std::map<CurveId, CurveStatus> statuses(const std::vector<CurveId>& ids, Instant at);
+
+ private:
+  std::vector<CurveId> newer_live_in_group(const Curve& c, Instant at);
+
+  store::ReadUnit& unit_;
+  const LabZone& zone_;
+  std::map<CurveId, std::unique_ptr<Curve>> curves_;
+  std::set<CurveId> with_points_;
+  std::map<CurveId, std::vector<Check>> checks_;
+  std::map<MethodId, std::unique_ptr<Method>> methods_;
+  std::map<InstrumentId, std::unique_ptr<Instrument>> instruments_;
+  std::map<LotId, std::unique_ptr<Lot>> lots_;
+  std::map<CalibrationId, std::unique_ptr<Calibration>> calibrations_;
+  std::map<CurveId, std::unique_ptr<rules::CurveFacts>> facts_;
+};
+
+}  // namespace cw::app

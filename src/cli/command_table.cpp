@@ -1,0 +1,253 @@
+// SPDX-License-Identifier: Apache-2.0
+// The table of commands (product.md §4).
+#include "cli/command_table.h"
+
+#include "cli/handlers.h"
+
+namespace cw::cli {
+
+const char* const kCautionText =
+    "Curvewarden records calibration data and applies the rules your laboratory has configured. "
+    "It supports your quality system and never replaces it: your SOPs and method validation, your "
+    "accreditation body and the regulations that apply to you decide acceptance criteria, "
+    "intervals and reporting. Limits in the examples come from published documents and common "
+    "practice and may not suit your method. A qualified, authorised person reviews every result "
+    "before it is released.";
+
+namespace {
+
+using K = OptionKind;
+namespace h = handlers;
+
+OptionSpec flag(std::string_view name, std::string_view help) {
+  return {name, "", help, K::Flag, false};
+}
+OptionSpec value(std::string_view name, std::string_view value_name, std::string_view help,
+                 bool required = false) {
+  return {name, value_name, help, K::Value, required};
+}
+OptionSpec repeated(std::string_view name, std::string_view value_name, std::string_view help,
+                    bool required = false) {
+  return {name, value_name, help, K::Repeated, required};
+}
+OptionSpec positional(std::string_view name, std::string_view help) {
+  return {name, "", help, K::Positional, true};
+}
+
+const OptionSpec kReason = value("--reason", "TEXT", "Why (required; up to 2000 characters)", true);
+
+}  // namespace
+
+const std::vector<OptionSpec>& global_options() {
+  static const std::vector<OptionSpec> options = {
+      value("--db", "PATH", "Store file (else $CURVEWARDEN_DB, else ./curvewarden.db)"),
+      value("--as", "NAME", "Person acting (else $CURVEWARDEN_USER, else the login name)"),
+      value("--at", "TIME",
+            "When it happened / as of when (ISO-8601 with zone; default now; an event may not "
+            "be dated more than 5 minutes ahead)"),
+      flag("--json", "Print one JSON document on stdout"),
+  };
+  return options;
+}
+
+const std::vector<CommandSpec>& command_table() {
+  static const std::vector<CommandSpec> table = {
+      {"init",
+       "Create the store (idempotent; applies pending migrations)",
+       {value("--lab", "NAME", "Name of the laboratory; renaming an existing lab needs --reason"),
+        value("--tz", "ZONE",
+              "IANA time zone of the lab (default: the system zone); fixed once the store holds "
+              "records"),
+        value("--reason", "TEXT", "Why the lab is renamed (required for a rename)")},
+       true,
+       h::init},
+
+      {"instrument", "Register and list instruments, record service", {}, false, nullptr},
+      {"instrument add",
+       "Register an instrument",
+       {positional("code", "Lab code of the instrument, e.g. IC-02"),
+        value("--name", "TEXT", "Description, e.g. 'Ion chromatograph, bay 2'")},
+       true,
+       h::instrument_add},
+      {"instrument list",
+       "List instruments with their service status",
+       {},
+       false,
+       h::instrument_list},
+      {"instrument show",
+       "Show one instrument and its service history",
+       {positional("code", "Instrument code")},
+       false,
+       h::instrument_show},
+      {"instrument service",
+       "Take an instrument out of service or return it",
+       {positional("code", "Instrument code"), flag("--out", "Take it out of service"),
+        flag("--back", "Return it to service"), kReason},
+       true,
+       h::instrument_service},
+
+      {"method", "Register methods and their versions", {}, false, nullptr},
+      {"method add",
+       "Register a new method from its TOML file (version 1)",
+       {positional("file", "Method file (TOML, at most 1 MiB)")},
+       true,
+       h::method_add},
+      {"method revise",
+       "Register the next version of a method",
+       {positional("file", "Method file (TOML) with the same code"),
+        value("--reason", "TEXT", "Why the method changed (required)", true)},
+       true,
+       h::method_revise},
+      {"method list", "List methods with the version in force", {}, false, h::method_list},
+      {"method show",
+       "Show a method version (default: the one in force)",
+       {positional("code", "Method code"), value("--version", "N", "Version number")},
+       false,
+       h::method_show},
+
+      {"lot", "Reference-material lots", {}, false, nullptr},
+      {"lot add",
+       "Register a lot with its certified values",
+       {positional("code", "Lot code"),
+        value("--material", "TEXT", "What the material is (required)", true),
+        value("--expires", "DATE", "Certificate expiry date, YYYY-MM-DD (required)", true),
+        value("--opened", "DATE", "Date the lot was opened, YYYY-MM-DD"),
+        value("--in-use-days", "N", "Days the opened lot may be used (1 to 36500)"),
+        value("--certificate", "TEXT", "Certificate number or reference"),
+        repeated("--value", "ANALYTE=CONC[±U]",
+                 "Certified value, e.g. nitrate=1000±5; repeat for each analyte", true)},
+       true,
+       h::lot_add},
+      {"lot list", "List lots with their status", {}, false, h::lot_list},
+      {"lot show", "Show one lot", {positional("code", "Lot code")}, false, h::lot_show},
+      {"lot withdraw",
+       "Withdraw a lot: curves made with it stop being valid",
+       {positional("code", "Lot code"), kReason},
+       true,
+       h::lot_withdraw},
+
+      {"curve", "Log, list, show, review and retire calibration curves", {}, false, nullptr},
+      {"curve log",
+       "Fit, judge and store one calibration (one curve per analyte); exit 3 if any is rejected",
+       {value("--method", "CODE", "Method code (the version in force at --at is used)", true),
+        value("--instrument", "CODE", "Instrument code", true),
+        repeated("--lot", "CODE[,CODE]",
+                 "Reference-material lot code(s), comma-separated or repeated", true),
+        value("--points", "FILE",
+              "Points file (CSV: analyte,level,nominal,response[,replicate][,is_response]"
+              "[,exclude]; at most 16 MiB)",
+              true),
+        value("--note", "TEXT", "Free-text note kept with the calibration")},
+       true,
+       h::curve_log},
+      {"curve list",
+       "List curves with their state now (or --at)",
+       {value("--state", "STATE",
+              "Only this state: rejected, awaiting-review, active, stale, retired"),
+        value("--method", "CODE", "Only this method"),
+        value("--instrument", "CODE", "Only this instrument"),
+        value("--analyte", "NAME", "Only this analyte")},
+       false,
+       h::curve_list},
+      {"curve show",
+       "Show a curve: fit report, points, state and reasons",
+       {positional("id", "Curve id")},
+       false,
+       h::curve_show},
+      {"curve review",
+       "Second-person review (the reviewer must not be the analyst)",
+       {positional("id", "Curve id"), flag("--approve", "Approve the curve for use"),
+        flag("--reject", "Reject the curve"), kReason},
+       true,
+       h::curve_review},
+      {"curve retire",
+       "Withdraw a curve from use",
+       {positional("id", "Curve id"), kReason},
+       true,
+       h::curve_retire},
+
+      {"check", "Check standards and blanks", {}, false, nullptr},
+      {"check log",
+       "Record a check standard or blank against a curve (exit 3 if it fails)",
+       {value("--curve", "ID", "Curve id", true),
+        value("--nominal", "CONC", "Nominal concentration of the check standard"),
+        value("--response", "R", "Measured response", true),
+        value("--is-response", "R", "Internal-standard response (methods with one)"),
+        value("--kind", "KIND", "check (default) or blank")},
+       true,
+       h::check_log},
+
+      {"quantify",
+       "Quantify one sample (95 % CI) or refuse with every reason (exit 3)",
+       {value("--curve", "ID", "Curve id (or give --method, --instrument and --analyte)"),
+        value("--method", "CODE", "Method code: the one active curve is used"),
+        value("--instrument", "CODE", "Instrument code"),
+        value("--analyte", "NAME", "Analyte name"),
+        repeated("--response", "R",
+                 "Sample response; repeat for replicate readings (their mean is used)", true),
+        value("--is-response", "R", "Internal-standard response (methods with one)"),
+        value("--dilution", "F",
+              "Dilution factor applied to the concentration and its interval (default 1)"),
+        value("--replicates", "M", "Number of readings the --response value is the mean of"),
+        value("--sample", "ID", "Sample id (required)", true)},
+       true,
+       h::quantify},
+
+      {"expiring",
+       "Active curves whose validity ends in a window, soonest first",
+       {flag("--this-week", "The lab-local ISO week (Monday to Sunday) holding now"),
+        value("--within", "DURATION", "From now for this long, e.g. '3 days' (default 7 days)")},
+       false,
+       h::expiring},
+      {"status",
+       "One screen per instrument: curves by state, expiring, blocked, failures",
+       {},
+       false,
+       h::status},
+
+      {"trace", "Provenance: of a result, of a curve, the impact of a lot", {}, false, nullptr},
+      {"trace result",
+       "The curve, calibration, method version, instrument, lots and checks of a result",
+       {positional("id", "Result id")},
+       false,
+       h::trace_result},
+      {"trace curve",
+       "Every check and result a curve produced",
+       {positional("id", "Curve id")},
+       false,
+       h::trace_curve},
+      {"trace lot",
+       "Every curve made with a lot and every result those curves produced",
+       {positional("code", "Lot code"), flag("--csv", "Print the affected results as CSV")},
+       false,
+       h::trace_lot},
+
+      {"audit", "Read and verify the audit trail", {}, false, nullptr},
+      {"audit log",
+       "List audit entries",
+       {value("--since", "TIME", "Only entries recorded at or after this time"),
+        value("--entity", "KIND",
+              "Only this kind: lab, instrument, method, lot, calibration, curve, check, result"),
+        value("--id", "ID", "Only this entity id (a code or a number)")},
+       false,
+       h::audit_log},
+      {"audit verify",
+       "Recompute the hash chain, check every fact row and the append-only guards (exit 5 if "
+       "broken)",
+       {},
+       false,
+       h::audit_verify},
+
+      {"help", "Show the help of a command: curvewarden help curve log", {}, false, nullptr},
+  };
+  return table;
+}
+
+const CommandSpec* find_command(std::string_view path) {
+  for (const auto& c : command_table()) {
+    if (c.path == path) return &c;
+  }
+  return nullptr;
+}
+
+}  // namespace cw::cli

@@ -1,0 +1,45 @@
+// SPDX-License-Identifier: Apache-2.0
+// The command handlers: each reads its options through the Invocation, calls one use case of
+// app/ and shows the outcome with a view of report/. Nothing here parses argv or prints errors.
+#pragma once
+
+#include "cli/invocation.h"
+
+namespace cw::cli::handlers {
+
+// lab, instruments, methods, lots (handlers_registry.cpp)
+int init(Invocation& in);
+int instrument_add(Invocation& in);
+int instrument_list(Invocation& in);
+int instrument_show(Invocation& in);
+int instrument_service(Invocation& in);
+int method_add(Invocation& in);
+int method_revise(Invocation& in);
+int method_list(Invocation& in);
+int method_show(Invocation& in);
+int lot_add(Invocation& in);
+int lot_list(Invocation& in);
+int lot_show(Invocation& in);
+int lot_withdraw(Invocation& in);
+
+// curves (handlers_curve.cpp)
+int curve_log(Invocation& in);
+int curve_list(Invocation& in);
+int curve_show(Invocation& in);
+int curve_review(Invocation& in);
+int curve_retire(Invocation& in);
+
+// checks, quantitation, questions, traces (handlers_quantitation.cpp)
+int check_log(Invocation& in);
+int quantify(Invocation& in);
+int expiring(Invocation& in);
+int status(Invocation& in);
+int trace_result(Invocation& in);
+int trace_curve(Invocation& in);
+int trace_lot(Invocation& in);
+
+// audit trail (handlers_audit.cpp)
+int audit_log(Invocation& in);
+int audit_verify(Invocation& in);
+
+}  // namespace cw::cli::handlers

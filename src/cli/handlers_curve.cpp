@@ -1,0 +1,122 @@
+// SPDX-License-Identifier: Apache-2.0
+// Handlers of the curve commands.
+#include "app/curves.h"
+#include "cli/handlers.h"
+#include "core/clean_text.h"
+#include "core/error.h"
+#include "core/text.h"
+#include "report/curve_views.h"
+
+namespace cw::cli::handlers {
+
+int curve_log(Invocation& in) {
+  app::CurveLogRequest r;
+  r.method = in.code("--method", "method code");
+  r.instrument = in.code("--instrument", "instrument code");
+  r.lots = in.codes("--lot", "lot code");
+  if (r.lots.empty()) {
+    throw UsageError("give at least one --lot CODE",
+                     "the reference-material lot(s) the calibrators were made from");
+  }
+  r.points = in.path("--points");
+  r.note = in.optional_text("--note", kMaxReasonChars);
+  auto s = in.open_session();
+  const auto outcome = app::log_calibration(s, r);
+  for (const auto& w : outcome.warnings) in.warn(w);
+  if (in.json()) {
+    report::Json curves = report::Json::array();
+    for (const auto& v : outcome.curves) curves.push_back(report::curve_json(v, s.zone()));
+    in.emit(report::Json{{"calibration_id", outcome.calibration_id.value}, {"curves", curves}});
+  } else {
+    report::print_calibration_header(in.out(), outcome.curves.front(), s.zone(),
+                                     outcome.calibration_id);
+    for (const auto& v : outcome.curves) report::print_curve_report(in.out(), v, s.zone());
+    int rejected = 0;
+    for (const auto& v : outcome.curves) rejected += v.curve.verdict == Verdict::Rejected ? 1 : 0;
+    in.out() << "\n" << outcome.curves.size() << " curve(s) stored, " << rejected << " rejected.";
+    if (outcome.curves.front().status.state == CurveState::AwaitingReview) {
+      in.out() << " Accepted curves wait for a second person: curvewarden curve review ID "
+                  "--approve --reason ...";
+    }
+    in.out() << "\n" << report::kReviewCaution << "\n";
+  }
+  if (outcome.any_rejected) {
+    return in.refused("calibration " + std::to_string(outcome.calibration_id.value) +
+                      ": at least one curve was rejected by the method's acceptance criteria "
+                      "(stored as rejected)");
+  }
+  return 0;
+}
+
+int curve_list(Invocation& in) {
+  app::CurveListRequest r;
+  if (auto state = in.optional_text("--state", kMaxLabelChars)) {
+    r.state = parse_curve_state(*state);
+    if (!r.state) {
+      UsageError e("--state " + quote(*state) + " is not a state",
+                   "states are rejected, awaiting-review, active, stale, retired");
+      e.set_option("--state");
+      throw e;
+    }
+  }
+  r.method = in.optional_code("--method", "method code");
+  r.instrument = in.optional_code("--instrument", "instrument code");
+  r.analyte = in.optional_analyte("--analyte");
+  auto s = in.open_session();
+  const auto list = app::list_curves(s, r);
+  if (in.json()) {
+    report::Json items = report::Json::array();
+    for (const auto& v : list) items.push_back(report::curve_list_item_json(v));
+    in.emit(report::Json{{"as_of", report::json_instant(s.at())}, {"curves", items}});
+  } else {
+    report::print_curve_list(in.out(), list, s.zone());
+  }
+  return 0;
+}
+
+int curve_show(Invocation& in) {
+  const CurveId id = in.curve_id("id");
+  auto s = in.open_session();
+  const auto v = app::show_curve(s, id);
+  if (in.json()) {
+    in.emit(report::curve_json(v, s.zone()));
+  } else {
+    report::print_calibration_header(in.out(), v, s.zone(), v.curve.calibration_id);
+    report::print_curve_report(in.out(), v, s.zone());
+  }
+  return 0;
+}
+
+int curve_review(Invocation& in) {
+  const CurveId id = in.curve_id("id");
+  const CurveAction action =
+      in.either("--approve", "--reject") ? CurveAction::Approve : CurveAction::Reject;
+  const std::string reason = in.text("--reason", kMaxReasonChars);
+  auto s = in.open_session();
+  const auto v = app::change_curve(s, id, action, reason);
+  if (in.json()) {
+    in.emit(report::curve_json(v, s.zone()));
+  } else {
+    in.out() << "Curve " << v.curve.id.value << " (" << v.curve.analyte << ") "
+             << (action == CurveAction::Approve ? "approved" : "rejected") << " by "
+             << s.actor().name << ".\n";
+    report::print_status(in.out(), v.status, s.zone());
+  }
+  return 0;
+}
+
+int curve_retire(Invocation& in) {
+  const CurveId id = in.curve_id("id");
+  const std::string reason = in.text("--reason", kMaxReasonChars);
+  auto s = in.open_session();
+  const auto v = app::change_curve(s, id, CurveAction::Retire, reason);
+  if (in.json()) {
+    in.emit(report::curve_json(v, s.zone()));
+  } else {
+    in.out() << "Curve " << v.curve.id.value << " (" << v.curve.analyte
+             << ") retired; it can no longer be used.\n";
+  }
+  return 0;
+}
+
+}  // namespace cw::cli::handlers

@@ -1,0 +1,275 @@
+// SPDX-License-Identifier: Apache-2.0
+// Strict reading of option values and resolution of the global options.
+#include "cli/invocation.h"
+
+#include <pwd.h>
+#include <unistd.h>
+
+#include <algorithm>
+#include <cstdlib>
+
+#include "core/clean_text.h"
+#include "core/clock.h"
+#include "core/number.h"
+#include "core/text.h"
+
+namespace cw::cli {
+namespace {
+
+/// How far ahead of now an event may be dated (clock skew between workstations, a slow typist);
+/// further ahead is almost always a typo in the year.
+constexpr std::chrono::minutes kFutureTolerance{5};
+/// Store locations longer than this are refused (PATH_MAX on Linux).
+constexpr std::size_t kMaxLocationBytes = 4096;
+
+const std::vector<std::string> kNoValues;
+
+/// How a value is named in messages: the option ("--method"), or what a positional argument is
+/// ("lot code").
+std::string label(std::string_view option, std::string_view what) {
+  return option.rfind("--", 0) == 0 ? std::string(option) : std::string(what);
+}
+
+template <class Fn>
+auto naming(std::string_view option, Fn&& fn) -> decltype(fn()) {
+  try {
+    return fn();
+  } catch (Error& e) {
+    if (e.option().empty()) e.set_option(std::string(option));
+    throw;
+  }
+}
+
+}  // namespace
+
+void Invocation::set_values(std::string name, std::vector<std::string> values) {
+  values_[std::move(name)] = std::move(values);
+}
+
+bool Invocation::has(std::string_view option) const {
+  auto it = values_.find(option);
+  return it != values_.end() && !it->second.empty();
+}
+
+const std::vector<std::string>& Invocation::values(std::string_view option) const {
+  auto it = values_.find(option);
+  return it == values_.end() ? kNoValues : it->second;
+}
+
+const std::string* Invocation::single(std::string_view option) const {
+  const auto& v = values(option);
+  if (v.empty()) return nullptr;
+  return &v.back();
+}
+
+std::string Invocation::text(std::string_view option, std::size_t max_chars) const {
+  auto v = optional_text(option, max_chars);
+  if (!v) throw UsageError(std::string(option) + " is required");
+  return *v;
+}
+
+std::optional<std::string> Invocation::optional_text(std::string_view option,
+                                                     std::size_t max_chars) const {
+  const std::string* raw = single(option);
+  if (!raw) return std::nullopt;
+  return naming(option, [&] { return clean_text(*raw, option, max_chars); });
+}
+
+std::string Invocation::code(std::string_view option, std::string_view what) const {
+  auto v = optional_code(option, what);
+  if (!v) throw UsageError(std::string(option) + " is required");
+  return *v;
+}
+
+std::optional<std::string> Invocation::optional_code(std::string_view option,
+                                                     std::string_view what) const {
+  const std::string* raw = single(option);
+  if (!raw) return std::nullopt;
+  return naming(option, [&] {
+    const std::string code = trim(*raw);
+    check_code(code, label(option, what));
+    return code;
+  });
+}
+
+std::vector<std::string> Invocation::codes(std::string_view option, std::string_view what) const {
+  std::vector<std::string> out;
+  for (const auto& raw : values(option)) {
+    for (const auto& part : split(raw, ',')) {
+      naming(option, [&] {
+        const std::string code = trim(part);
+        if (code.empty()) {
+          throw UsageError(std::string(option) + " has an empty code",
+                           "give codes separated by commas, e.g. " + std::string(option) + " A,B");
+        }
+        check_code(code, label(option, what));
+        if (std::find(out.begin(), out.end(), code) == out.end()) out.push_back(code);
+      });
+    }
+  }
+  return out;
+}
+
+std::optional<std::string> Invocation::optional_analyte(std::string_view option) const {
+  const std::string* raw = single(option);
+  if (!raw) return std::nullopt;
+  return naming(option, [&] {
+    check_analyte_name(*raw, option);
+    return *raw;
+  });
+}
+
+double Invocation::number(std::string_view option) const {
+  auto v = optional_number(option);
+  if (!v) throw UsageError(std::string(option) + " is required");
+  return *v;
+}
+
+std::optional<double> Invocation::optional_number(std::string_view option) const {
+  const std::string* raw = single(option);
+  if (!raw) return std::nullopt;
+  return naming(option, [&] { return decimal_or_throw(*raw, option); });
+}
+
+std::vector<double> Invocation::numbers(std::string_view option) const {
+  std::vector<double> out;
+  for (const auto& raw : values(option)) {
+    out.push_back(naming(option, [&] { return decimal_or_throw(raw, option); }));
+  }
+  return out;
+}
+
+std::int64_t Invocation::whole(std::string_view option, std::int64_t low, std::int64_t high) const {
+  auto v = optional_whole(option, low, high);
+  if (!v) throw UsageError(std::string(option) + " is required");
+  return *v;
+}
+
+std::optional<std::int64_t> Invocation::optional_whole(std::string_view option, std::int64_t low,
+                                                       std::int64_t high) const {
+  const std::string* raw = single(option);
+  if (!raw) return std::nullopt;
+  return naming(option, [&] { return whole_or_throw(*raw, option, low, high); });
+}
+
+CurveId Invocation::curve_id(std::string_view option) const {
+  return CurveId{whole(option, 1, INT64_MAX)};
+}
+
+ResultId Invocation::result_id(std::string_view option) const {
+  return ResultId{whole(option, 1, INT64_MAX)};
+}
+
+std::optional<Instant> Invocation::optional_instant(std::string_view option) const {
+  const std::string* raw = single(option);
+  if (!raw) return std::nullopt;
+  return naming(option, [&] { return parse_instant(*raw, option); });
+}
+
+CalendarDate Invocation::date(std::string_view option) const {
+  auto v = optional_date(option);
+  if (!v) throw UsageError(std::string(option) + " is required");
+  return *v;
+}
+
+std::optional<CalendarDate> Invocation::optional_date(std::string_view option) const {
+  const std::string* raw = single(option);
+  if (!raw) return std::nullopt;
+  return naming(option, [&] { return parse_date(*raw, option); });
+}
+
+std::optional<Duration> Invocation::optional_duration(std::string_view option) const {
+  const std::string* raw = single(option);
+  if (!raw) return std::nullopt;
+  return naming(option, [&] { return parse_duration(*raw, option); });
+}
+
+std::optional<LabZone> Invocation::optional_zone(std::string_view option) const {
+  const std::string* raw = single(option);
+  if (!raw) return std::nullopt;
+  return naming(option, [&] {
+    clean_text(*raw, option, kMaxLabelChars);
+    return LabZone::named(*raw);
+  });
+}
+
+std::string Invocation::path(std::string_view option) const {
+  const std::string* raw = single(option);
+  if (!raw) throw UsageError(std::string(option) + " is required");
+  if (raw->empty()) {
+    throw UsageError(std::string(option) + " is empty", "give the path of a file");
+  }
+  if (raw->size() > kMaxLocationBytes) {
+    throw UsageError(std::string(option) + " is longer than " + std::to_string(kMaxLocationBytes) +
+                     " bytes");
+  }
+  return *raw;
+}
+
+bool Invocation::either(std::string_view first, std::string_view second) const {
+  const bool a = has(first), b = has(second);
+  if (a == b) {
+    throw UsageError("give " + std::string(first) + " or " + std::string(second) +
+                     (a ? ", not both" : ""));
+  }
+  return a;
+}
+
+int Invocation::refused(std::string message) {
+  return fail(RefusedError(message));
+}
+
+int Invocation::fail(const Error& e) {
+  failure_ = e;
+  return to_int(e.exit_code());
+}
+
+std::string Invocation::location() const {
+  if (const std::string* db = single("--db")) {
+    return naming("--db", [&] {
+      if (db->empty()) throw UsageError("--db is empty", "give the path of the store file");
+      if (db->size() > kMaxLocationBytes) throw UsageError("--db is too long");
+      return *db;
+    });
+  }
+  if (const char* env = std::getenv("CURVEWARDEN_DB"); env != nullptr && *env != '\0') {
+    return env;
+  }
+  return "curvewarden.db";
+}
+
+app::Session Invocation::open_session(bool create) const {
+  // Everything the user typed or set is checked before the store is touched.
+  std::shared_ptr<const Clock> clock = naming(
+      "CURVEWARDEN_NOW", [] { return std::shared_ptr<const Clock>(clock_from_environment()); });
+  std::string actor;
+  if (const std::string* as = single("--as")) {
+    actor = naming("--as", [&] { return clean_text(*as, "--as", kMaxNameChars); });
+  } else if (const char* env = std::getenv("CURVEWARDEN_USER"); env != nullptr && *env != '\0') {
+    actor = naming("CURVEWARDEN_USER",
+                   [&] { return clean_text(env, "CURVEWARDEN_USER", kMaxNameChars); });
+  } else {
+    std::string login;
+    if (const passwd* pw = getpwuid(geteuid()); pw != nullptr && pw->pw_name != nullptr) {
+      login = pw->pw_name;
+    } else if (const char* user = std::getenv("USER"); user != nullptr) {
+      login = user;
+    }
+    if (login.empty()) {
+      throw UsageError("cannot tell who is acting", "give --as NAME or set CURVEWARDEN_USER");
+    }
+    actor = naming("--as", [&] { return clean_text(login, "the login name", kMaxNameChars); });
+  }
+  const std::optional<Instant> at = optional_instant("--at");
+  if (at && command_.records_event && *at > clock->now() + kFutureTolerance) {
+    ValidationError e("--at " + format_utc(*at) + " lies more than 5 minutes after now (" +
+                          format_utc(clock->now()) + ")",
+                      "events are recorded when they have happened; check the year and the zone "
+                      "offset");
+    e.set_option("--at");
+    throw e;
+  }
+  return app::Session::open({location(), actor, at, clock, create});
+}
+
+}  // namespace cw::cli

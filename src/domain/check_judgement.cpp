@@ -1,0 +1,61 @@
+// SPDX-License-Identifier: Apache-2.0
+// Check and blank judgement.
+#include "domain/check_judgement.h"
+
+#include <cmath>
+
+#include "core/error.h"
+#include "core/number.h"
+#include "core/text.h"
+
+namespace cw {
+
+Check judge_check(const CheckReading& reading, const fitting::FitResult& fit,
+                  const MethodDefinition& method, const ReadingLabels& labels) {
+  Check k;
+  k.kind = reading.kind;
+  k.response = reading.response;
+  k.is_response = reading.is_response;
+  const double y = method.fitted_response(reading.response, reading.is_response, labels.response,
+                                          labels.is_response);
+  if (reading.kind == CheckKind::Check) {
+    if (!reading.nominal) {
+      throw option_error(labels.nominal, "a check needs " + labels.nominal + " CONC",
+                         "the check standard's nominal concentration in " + method.unit);
+    }
+    if (!(*reading.nominal > 0)) {
+      throw option_error(
+          labels.nominal,
+          labels.nominal + " must be above 0, got " + format_shortest(*reading.nominal),
+          "the check standard's nominal concentration in " + method.unit);
+    }
+    k.nominal = *reading.nominal;
+    k.limit_low = 100 - method.check.tolerance_pct;
+    k.limit_high = 100 + method.check.tolerance_pct;
+  } else {
+    if (reading.nominal && *reading.nominal != 0) {
+      throw option_error(labels.nominal,
+                         "a blank has nominal 0; leave out " + labels.nominal + " or give 0");
+    }
+    k.nominal = 0;
+    k.limit_high = method.check.blank_limit ? *method.check.blank_limit : fit.lod;
+  }
+  k.measured = fitting::back_calculate(fit, y);
+  if (k.measured) {
+    require_finite(*k.measured, "the concentration read from " + labels.response, labels.response);
+  }
+  if (reading.kind == CheckKind::Check) {
+    if (k.measured) {
+      k.recovery_pct = require_finite(
+          100 * *k.measured / k.nominal,
+          "the recovery from " + labels.response + " and " + labels.nominal, labels.nominal);
+    }
+    k.passed =
+        k.recovery_pct && *k.recovery_pct >= *k.limit_low && *k.recovery_pct <= *k.limit_high;
+  } else {
+    k.passed = k.measured && *k.measured < *k.limit_high;
+  }
+  return k;
+}
+
+}  // namespace cw

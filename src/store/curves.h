@@ -1,0 +1,109 @@
+// SPDX-License-Identifier: Apache-2.0
+// Calibrations, curves with their points, reviews and retirements, checks, results and refusals:
+// reading (in batches where a command needs many) and appending facts.
+#pragma once
+
+#include <cstddef>
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "domain/check.h"
+#include "domain/curve.h"
+
+namespace cw::store {
+
+/// A refused action, recorded with its typed reasons.
+struct Refusal {
+  std::string action;  ///< e.g. "curve.review"
+  std::string entity_kind;
+  std::string entity_id;
+  std::vector<Reason> reasons;
+  std::string message;
+  Instant occurred_at;
+};
+
+struct CurveFilter {
+  std::optional<MethodId> method;
+  std::optional<InstrumentId> instrument;
+  std::optional<std::string> analyte;
+  Instant acquired_by;  ///< acquired at or before
+};
+
+/// One group of settled curves of an instrument that share the facts deciding their state
+/// (rules::SettledFacts), with how many curves it holds.
+struct SettledGroup {
+  Verdict verdict = Verdict::Accepted;
+  bool rejected_by_review = false;
+  bool retired = false;
+  bool review_required = false;
+  bool reviewed = false;
+  std::int64_t count = 0;
+};
+
+class CurveReader {
+ public:
+  virtual ~CurveReader() = default;
+
+  virtual std::optional<Calibration> calibration(CalibrationId id) = 0;
+  virtual std::vector<Calibration> calibrations(const std::vector<CalibrationId>& ids) = 0;
+  /// Curves with reviews and retirements and, with `with_points`, their points; missing ids are
+  /// left out. One query per kind of row, whatever the number of ids.
+  virtual std::vector<Curve> curves(const std::vector<CurveId>& ids, bool with_points) = 0;
+  /// Checks of the curves, each curve's in time order.
+  virtual std::vector<Check> checks_of(const std::vector<CurveId>& ids) = 0;
+
+  /// Ids of curves matching `f`, oldest first.
+  virtual std::vector<CurveId> list(const CurveFilter& f) = 0;
+  virtual std::vector<CurveId> of_calibration(CalibrationId id) = 0;
+  /// Curves of a group acquired in [after, by] whose expiry is after `by`: the only ones that
+  /// can be active at `by`. Newest first.
+  virtual std::vector<CurveId> live_in_group(MethodId method, InstrumentId instrument,
+                                             const std::string& analyte,
+                                             std::optional<Instant> after, Instant by) = 0;
+  /// The most recently acquired curve of a group at or before `by` (only accepted ones with
+  /// `accepted_only`).
+  virtual std::optional<CurveId> latest_in_group(MethodId method, InstrumentId instrument,
+                                                 const std::string& analyte, Instant by,
+                                                 bool accepted_only) = 0;
+  /// Curves whose expiry moment lies in [from, to), soonest first.
+  virtual std::vector<CurveId> expiring_between(Instant from, Instant to) = 0;
+  /// Curves of an instrument acquired by `t` whose expiry is after `t`.
+  virtual std::vector<CurveId> live_of_instrument(InstrumentId instrument, Instant t) = 0;
+  /// The settled curves (expiry at or before `t`) of an instrument, grouped by the facts that
+  /// decide their state at `t`.
+  virtual std::vector<SettledGroup> settled_groups(InstrumentId instrument, Instant t) = 0;
+  /// (method, analyte) pairs that have had curves on an instrument.
+  virtual std::vector<std::pair<MethodId, std::string>> method_analytes(
+      InstrumentId instrument) = 0;
+  virtual std::vector<CurveId> of_lot(LotId lot) = 0;
+
+  virtual std::optional<Check> check(CheckId id) = 0;
+  /// The most recent failed checks (at or before `by`) of an instrument's curves, newest first.
+  virtual std::vector<Check> recent_failed_checks(InstrumentId instrument, Instant by,
+                                                  std::size_t limit) = 0;
+
+  virtual std::optional<Result> result(ResultId id) = 0;
+  /// Results of the curves, in time order.
+  virtual std::vector<Result> results_of(const std::vector<CurveId>& ids) = 0;
+  /// Reported results of a curve in (after, until], in time order.
+  virtual std::vector<Result> reported_between(CurveId id, std::optional<Instant> after,
+                                               Instant until) = 0;
+};
+
+/// Appends curve facts; every row joins the unit's current audit entry.
+class CurveWriter {
+ public:
+  virtual ~CurveWriter() = default;
+  virtual CalibrationId add_calibration(const Calibration& c) = 0;
+  /// The curve with its points.
+  virtual CurveId add_curve(const Curve& c) = 0;
+  virtual void add_review(CurveId id, const CurveReview& r) = 0;
+  virtual void add_retirement(CurveId id, const CurveRetirement& r) = 0;
+  virtual CheckId add_check(const Check& k) = 0;
+  virtual ResultId add_result(const Result& r) = 0;
+  virtual void add_refusal(const Refusal& r) = 0;
+};
+
+}  // namespace cw::store

@@ -1,0 +1,263 @@
+// SPDX-License-Identifier: Apache-2.0
+// Audit trail listing, verification and appending.
+#include "store/sqlite/audit_repository.h"
+
+#include <algorithm>
+#include <map>
+#include <memory>
+#include <set>
+
+#include "core/error.h"
+#include "store/sqlite/bind.h"
+#include "store/sqlite/sql.h"
+
+namespace cw::store::sqlite {
+namespace {
+
+audit::AuditEntry entry_of(SQLite::Statement& s) {
+  audit::AuditEntry e;
+  e.seq = s.getColumn(0).getInt64();
+  e.recorded_at = s.getColumn(1).getString();
+  e.occurred_at = s.getColumn(2).getString();
+  e.actor = s.getColumn(3).getString();
+  e.action = s.getColumn(4).getString();
+  e.entity_kind = s.getColumn(5).getString();
+  e.entity_id = s.getColumn(6).getString();
+  e.reason = opt_text(s.getColumn(7));
+  e.clock_overridden = s.getColumn(8).getInt64() != 0;
+  e.tool_version = s.getColumn(9).getString();
+  e.payload = s.getColumn(10).getString();
+  e.prev_hash = s.getColumn(11).getString();
+  e.hash = s.getColumn(12).getString();
+  return e;
+}
+
+std::string describe(const audit::AuditEntry& e) {
+  return "entry " + std::to_string(e.seq) + " (" + e.action + " " + e.entity_kind + "/" +
+         e.entity_id + ", recorded " + e.recorded_at + ")";
+}
+
+/// Streams one fact table in id order, one canonical row at a time.
+class TableCursor {
+ public:
+  TableCursor(Database& db, const TableForm& form)
+      : form_(form), path_(db.path), statement_(*db.db, select_of(form, " ORDER BY id")) {
+    advance();
+  }
+
+  /// The row under the cursor (nullptr at the end) and its id and audit_seq.
+  const nlohmann::json* row() const { return done_ ? nullptr : &row_; }
+  std::int64_t id() const { return row_["id"].get<std::int64_t>(); }
+  std::int64_t audit_seq() const { return row_["audit_seq"].get<std::int64_t>(); }
+  void advance() {
+    done_ = !statement_.executeStep();
+    if (!done_) row_ = canonical_row(statement_, form_, path_);
+  }
+
+ private:
+  const TableForm& form_;
+  std::string path_;
+  SQLite::Statement statement_;
+  nlohmann::json row_;
+  bool done_ = false;
+};
+
+/// The fact tables sorted by name: the order of a payload's keys.
+std::vector<FactTable> tables_by_name() {
+  std::vector<FactTable> out(kAllFactTables.begin(), kAllFactTables.end());
+  std::sort(out.begin(), out.end(),
+            [](FactTable a, FactTable b) { return table_name(a) < table_name(b); });
+  return out;
+}
+
+}  // namespace
+
+std::vector<std::string> missing_guards(Database& db) {
+  std::set<std::string> present;
+  auto& s = db.statement(sql::kTriggerNames);
+  while (s.executeStep()) present.insert(s.getColumn(0).getString());
+  s.reset();
+  std::vector<std::string> tables{"audit_log", "schema_migrations"};
+  for (FactTable t : kAllFactTables) tables.emplace_back(table_name(t));
+  std::vector<std::string> missing;
+  for (const auto& t : tables) {
+    for (const char* what : {"_no_update", "_no_delete"}) {
+      if (!present.count(t + what)) missing.push_back(t + what);
+    }
+  }
+  return missing;
+}
+
+std::vector<audit::AuditEntry> SqliteAudit::list(const AuditFilter& filter) {
+  return guarded(db_, [&] {
+    auto& s = db_.statement(sql::kAuditFiltered);
+    if (filter.since) bind_instant(s, ":since", *filter.since);
+    bind_opt_text(s, ":kind", filter.entity_kind);
+    bind_opt_text(s, ":id", filter.entity_id);
+    std::vector<audit::AuditEntry> out;
+    while (s.executeStep()) out.push_back(entry_of(s));
+    return out;
+  });
+}
+
+VerifyReport SqliteAudit::verify() {
+  return guarded(db_, [&] {
+    VerifyReport report;
+    auto fail = [&](std::int64_t seq, std::string problem) {
+      report.ok = false;
+      report.first_broken = seq;
+      report.problem = std::move(problem);
+      return report;
+    };
+    {
+      auto& count = db_.statement(sql::kAuditCount);
+      count.executeStep();
+      report.entries = count.getColumn(0).getInt64();
+      count.reset();
+    }
+    const std::vector<FactTable> tables = tables_by_name();
+    std::map<FactTable, std::unique_ptr<TableCursor>> cursors;
+    for (FactTable t : tables) cursors.emplace(t, std::make_unique<TableCursor>(db_, form_of(t)));
+
+    SQLite::Statement entries(*db_.db, sql::kAuditAll);
+    std::string prev_hash = audit::kGenesisHash;
+    std::int64_t expected_seq = 1;
+    while (entries.executeStep()) {
+      const audit::AuditEntry e = entry_of(entries);
+      if (e.seq != expected_seq) {
+        return fail(expected_seq, "entry " + std::to_string(expected_seq) +
+                                      " is missing (the next entry is " + std::to_string(e.seq) +
+                                      ")");
+      }
+      if (e.prev_hash != prev_hash) {
+        return fail(e.seq,
+                    describe(e) + " does not link to the entry before it (prev_hash differs)");
+      }
+      if (audit::compute_hash(e) != e.hash) {
+        return fail(e.seq,
+                    describe(e) + " was changed after it was written (its hash does not match)");
+      }
+      // The rows that name this entry, table by table, as they are stored now.
+      nlohmann::json actual = nlohmann::json::object();
+      for (FactTable t : tables) {
+        TableCursor& cursor = *cursors.at(t);
+        while (cursor.row() != nullptr && cursor.audit_seq() <= e.seq) {
+          if (cursor.audit_seq() < e.seq) {
+            // A row claiming an earlier entry that did not list it.
+            return fail(cursor.audit_seq(), "row " + std::string(table_name(t)) + " id " +
+                                                std::to_string(cursor.id()) +
+                                                " has no audit entry (it was added behind the "
+                                                "tool's back)");
+          }
+          actual[std::string(table_name(t))].push_back(*cursor.row());
+          cursor.advance();
+        }
+      }
+      if (actual.dump() != e.payload) {
+        // Find what differs, in the words of the recorded payload.
+        nlohmann::json recorded;
+        try {
+          recorded = nlohmann::json::parse(e.payload);
+        } catch (const nlohmann::json::exception&) {
+          return fail(e.seq, describe(e) + " has a payload that is not JSON");
+        }
+        for (auto& [table, rows] : recorded.items()) {
+          const nlohmann::json& now =
+              actual.contains(table) ? actual[table] : nlohmann::json::array();
+          for (const auto& row : rows) {
+            const auto id = row.value("id", nlohmann::json());
+            const auto found = std::find_if(now.begin(), now.end(), [&](const nlohmann::json& r) {
+              return r.value("id", nlohmann::json()) == id;
+            });
+            const std::string name = table + " id " + id.dump();
+            if (found == now.end()) {
+              return fail(e.seq, describe(e) + ": row " + name + " is missing from the store");
+            }
+            if (*found != row) {
+              return fail(e.seq, describe(e) + ": row " + name + " differs from what was recorded");
+            }
+          }
+        }
+        for (auto& [table, rows] : actual.items()) {
+          for (const auto& row : rows) {
+            const bool listed = recorded.contains(table) &&
+                                std::any_of(recorded[table].begin(), recorded[table].end(),
+                                            [&](const nlohmann::json& r) {
+                                              return r.value("id", nlohmann::json()) == row["id"];
+                                            });
+            if (!listed) {
+              return fail(e.seq, "row " + table + " id " + row["id"].dump() +
+                                     " has no audit entry (it was added behind the tool's back)");
+            }
+          }
+        }
+        return fail(e.seq, describe(e) + ": its rows differ from what was recorded");
+      }
+      prev_hash = e.hash;
+      ++expected_seq;
+    }
+    for (FactTable t : tables) {
+      const TableCursor& cursor = *cursors.at(t);
+      if (cursor.row() != nullptr) {
+        return fail(cursor.audit_seq(), "row " + std::string(table_name(t)) + " id " +
+                                            std::to_string(cursor.id()) +
+                                            " has no audit entry (it was added behind the tool's "
+                                            "back)");
+      }
+    }
+    report.head_hash = prev_hash;
+    return report;
+  });
+}
+
+void SqliteAudit::start(WriteState& w) {
+  auto& last = db_.statement(sql::kAuditHead);
+  if (last.executeStep()) {
+    w.seq = last.getColumn(0).getInt64() + 1;
+    w.prev_hash = last.getColumn(1).getString();
+  } else {
+    w.seq = 1;
+    w.prev_hash = audit::kGenesisHash;
+  }
+  last.reset();
+}
+
+void SqliteAudit::append(WriteState& w, const Actor& actor, const EntryHeader& header) {
+  guarded(db_, [&] {
+    audit::AuditEntry e;
+    e.seq = w.seq;
+    e.recorded_at = format_utc(actor.clock->now());
+    e.occurred_at = format_utc(header.occurred_at);
+    e.actor = actor.name;
+    e.action = header.action;
+    e.entity_kind = header.entity_kind;
+    e.entity_id = header.entity_id;
+    e.reason = header.reason;
+    e.clock_overridden = actor.clock->is_overridden();
+    e.tool_version = actor.tool_version;
+    e.payload = payloads_.payload(w.rows);
+    e.prev_hash = w.prev_hash;
+    e.hash = audit::compute_hash(e);
+
+    auto& insert = db_.statement(sql::kInsertAudit);
+    bind_int(insert, ":seq", e.seq);
+    bind_text(insert, ":recorded_at", e.recorded_at);
+    bind_text(insert, ":occurred_at", e.occurred_at);
+    bind_text(insert, ":actor", e.actor);
+    bind_text(insert, ":action", e.action);
+    bind_text(insert, ":entity_kind", e.entity_kind);
+    bind_text(insert, ":entity_id", e.entity_id);
+    bind_opt_text(insert, ":reason", e.reason);
+    bind_int(insert, ":clock_overridden", e.clock_overridden ? 1 : 0);
+    bind_text(insert, ":tool_version", e.tool_version);
+    bind_text(insert, ":payload", e.payload);
+    bind_text(insert, ":prev_hash", e.prev_hash);
+    bind_text(insert, ":hash", e.hash);
+    insert.exec();
+    w.prev_hash = e.hash;
+    ++w.seq;
+    w.rows.clear();
+  });
+}
+
+}  // namespace cw::store::sqlite

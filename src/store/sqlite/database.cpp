@@ -1,0 +1,175 @@
+// SPDX-License-Identifier: Apache-2.0
+// Opening the SQLite store, migrations and error translation.
+#include "store/sqlite/database.h"
+
+#include <sqlite3.h>
+#include <sys/stat.h>
+
+#include <filesystem>
+
+#include "audit/sha256.h"
+#include "core/error.h"
+#include "store/sqlite/sql_text.h"
+
+namespace cw::store::sqlite {
+namespace {
+
+std::string describe_sqlite(const SQLite::Exception& e) {
+  return std::string(e.what()) + " (SQLite code " + std::to_string(e.getExtendedErrorCode()) + ")";
+}
+
+int read_int_pragma(SQLite::Database& db, const char* pragma) {
+  SQLite::Statement s(db, pragma);
+  s.executeStep();
+  return s.getColumn(0).getInt();
+}
+
+[[noreturn]] void too_new(const std::string& path, int current, int latest) {
+  throw StoreError("store '" + path + "' was written by a newer version of curvewarden (schema " +
+                       std::to_string(current) + ", this program knows up to " +
+                       std::to_string(latest) + ")",
+                   "use a newer curvewarden; the store has not been changed");
+}
+
+/// Applies every migration newer than the store's user_version, each in its own transaction
+/// together with its schema_migrations row and the new user_version.
+void migrate(Database& d, const std::vector<MigrationSpec>& migrations, const Clock& clock) {
+  SQLite::Database& db = *d.db;
+  const int latest = migrations.empty() ? 0 : migrations.back().version;
+  for (const auto& m : migrations) {
+    // Re-read inside the write lock: another process may have migrated meanwhile.
+    SQLite::Transaction tx(db, SQLite::TransactionBehavior::IMMEDIATE);
+    const int current = read_int_pragma(db, "PRAGMA user_version");
+    if (current > latest) too_new(d.path, current, latest);
+    if (m.version <= current) continue;
+    if (current == 0) {
+      db.exec(sql::kBootstrap);
+      db.exec("PRAGMA application_id = " + std::to_string(kApplicationId));
+    }
+    db.exec(m.sql);
+    SQLite::Statement record(db,
+                             "INSERT INTO schema_migrations (version, name, sha256, applied_at) "
+                             "VALUES (:version, :name, :sha256, :applied_at)");
+    record.bind(":version", m.version);
+    record.bind(":name", m.name);
+    record.bind(":sha256", audit::sha256_hex(m.sql));
+    record.bind(":applied_at", format_utc(clock.now()));
+    record.exec();
+    db.exec("PRAGMA user_version = " + std::to_string(m.version));
+    tx.commit();
+    d.created = d.created || current == 0;
+  }
+}
+
+}  // namespace
+
+std::vector<MigrationSpec> embedded_migrations() {
+  std::vector<MigrationSpec> out;
+  for (const auto& m : sql::migrations()) out.push_back({m.version, m.name, m.text});
+  return out;
+}
+
+void rethrow(const SQLite::Exception& e, const std::string& path) {
+  const int code = e.getErrorCode();
+  if (code == SQLITE_BUSY || code == SQLITE_LOCKED) {
+    throw StoreError("store '" + path + "' is locked by another writer past the busy timeout",
+                     "try again when the other command has finished");
+  }
+  if (code == SQLITE_NOTADB || code == SQLITE_CORRUPT) {
+    throw StoreError(
+        "'" + path + "' is not a Curvewarden store or is damaged: " + describe_sqlite(e),
+        "check --db / CURVEWARDEN_DB; if it is the lab's store, restore it from a backup");
+  }
+  if (code == SQLITE_READONLY || code == SQLITE_CANTOPEN || code == SQLITE_PERM) {
+    throw StoreError("store '" + path + "' cannot be written: " + describe_sqlite(e),
+                     "check the file's and its folder's permissions");
+  }
+  if (code == SQLITE_FULL) {
+    throw StoreError("store '" + path + "': the disk is full (" + describe_sqlite(e) + ")",
+                     "free some space; nothing of this command was written");
+  }
+  throw StoreError("store error on '" + path + "': " + describe_sqlite(e));
+}
+
+void damaged(const std::string& path, const std::string& what) {
+  throw StoreError("store '" + path + "' is damaged: " + what,
+                   "run 'curvewarden audit verify' and restore the store from a backup; "
+                   "nothing was written");
+}
+
+std::unique_ptr<Database> Database::open(const std::string& path, bool create, int busy_timeout_ms,
+                                         const std::vector<MigrationSpec>& migrations) {
+  auto d = std::make_unique<Database>();
+  d->path = path;
+  const bool memory = path == ":memory:";
+  if (!memory) {
+    struct stat st {};
+    if (::stat(path.c_str(), &st) != 0) {
+      if (!create) {
+        throw StoreError("no store at '" + path + "'",
+                         "run 'curvewarden init' first, or point --db / CURVEWARDEN_DB at the "
+                         "store");
+      }
+    } else if (!S_ISREG(st.st_mode)) {
+      throw StoreError("'" + path + "' is not a regular file, so it cannot be a store",
+                       "point --db / CURVEWARDEN_DB at the store file");
+    }
+  }
+  try {
+    const int flags = SQLite::OPEN_READWRITE | (create ? SQLite::OPEN_CREATE : 0);
+    d->db = std::make_unique<SQLite::Database>(path, flags, busy_timeout_ms);
+    SQLite::Database& db = *d->db;
+    // Identify the file before changing anything in it.
+    const int app_id = read_int_pragma(db, "PRAGMA application_id");
+    const int user_version = read_int_pragma(db, "PRAGMA user_version");
+    const int objects = read_int_pragma(db, "SELECT count(*) FROM sqlite_master");
+    const bool empty = app_id == 0 && user_version == 0 && objects == 0;
+    if (app_id != kApplicationId && !empty) {
+      throw StoreError("'" + path + "' is not a Curvewarden store",
+                       "check --db / CURVEWARDEN_DB; the file has not been changed");
+    }
+    if (empty && !create) {
+      throw StoreError("'" + path + "' is an empty file, not an initialised store",
+                       "run 'curvewarden init' to create the store");
+    }
+    const int latest = migrations.empty() ? 0 : migrations.back().version;
+    if (user_version > latest) too_new(path, user_version, latest);
+    if (!memory) {
+      SQLite::Statement wal(db, "PRAGMA journal_mode = WAL");
+      wal.executeStep();
+    }
+    db.exec("PRAGMA foreign_keys = ON");
+    db.exec("PRAGMA synchronous = NORMAL");
+    // With recursive triggers, INSERT OR REPLACE fires the delete guards too.
+    db.exec("PRAGMA recursive_triggers = ON");
+    if (user_version < latest) {
+      // CURVEWARDEN_NOW replaces "now" everywhere (product.md §3), applied_at included.
+      const auto clock = clock_from_environment();
+      migrate(*d, migrations, *clock);
+    }
+  } catch (const SQLite::Exception& e) {
+    rethrow(e, path);
+  }
+  return d;
+}
+
+SQLite::Statement& Database::statement(const char* sql) {
+  auto& slot = statements[sql];
+  if (!slot) {
+    slot = std::make_unique<SQLite::Statement>(*db, sql);
+  } else {
+    slot->reset();
+    slot->clearBindings();
+  }
+  return *slot;
+}
+
+void Database::release_statements() {
+  for (auto& [sql, statement] : statements) statement->reset();
+}
+
+int Database::user_version() {
+  return read_int_pragma(*db, "PRAGMA user_version");
+}
+
+}  // namespace cw::store::sqlite

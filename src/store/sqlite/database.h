@@ -1,0 +1,59 @@
+// SPDX-License-Identifier: Apache-2.0
+// Internal to the SQLite backend: the connection, its prepared-statement cache, opening checks,
+// migrations and error translation. Never included outside src/store/sqlite/.
+#pragma once
+
+#include <SQLiteCpp/SQLiteCpp.h>
+
+#include <map>
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/clock.h"
+#include "core/time.h"
+#include "store/sqlite/open.h"
+
+namespace cw::store::sqlite {
+
+/// SQLite application_id of a Curvewarden store ('CWRD').
+inline constexpr std::int32_t kApplicationId = 0x43575244;
+
+struct Database {
+  std::string path;
+  std::unique_ptr<SQLite::Database> db;
+  bool created = false;
+  std::map<const char*, std::unique_ptr<SQLite::Statement>> statements;
+
+  /// Opens the file, checks that it is ours and not newer than `migrations`, sets the
+  /// connection's pragmas and applies pending migrations (each in its own transaction).
+  static std::unique_ptr<Database> open(const std::string& path, bool create, int busy_timeout_ms,
+                                        const std::vector<MigrationSpec>& migrations);
+
+  /// A cached prepared statement for a static SQL text, reset and with bindings cleared.
+  SQLite::Statement& statement(const char* sql);
+  /// Resets every cached statement. A statement stepped to a row and left there keeps a read
+  /// snapshot open; a writer holding one cannot wait for the write lock (SQLite reports busy at
+  /// once instead of calling the busy handler), so every transaction starts from here.
+  void release_statements();
+  int user_version();
+};
+
+/// Translates an SQLite error into StoreError (exit 4); the SQLite codes stay in the message.
+[[noreturn]] void rethrow(const SQLite::Exception& e, const std::string& path);
+
+/// A stored value that does not parse: the store is damaged (exit 4).
+[[noreturn]] void damaged(const std::string& path, const std::string& what);
+
+/// Runs `fn()` translating SQLite and JSON errors into StoreError.
+template <class Fn>
+auto guarded(Database& d, Fn&& fn) -> decltype(fn()) {
+  try {
+    return fn();
+  } catch (const SQLite::Exception& e) {
+    rethrow(e, d.path);
+  }
+}
+
+}  // namespace cw::store::sqlite

@@ -1,0 +1,47 @@
+// SPDX-License-Identifier: Apache-2.0
+// Internal to the SQLite backend: lab settings, instruments, methods and lots.
+#pragma once
+
+#include "store/registry.h"
+#include "store/sqlite/audit_repository.h"
+#include "store/sqlite/database.h"
+
+namespace cw::store::sqlite {
+
+class SqliteRegistry final : public RegistryReader, public RegistryWriter {
+ public:
+  /// `w` is the write state of a write unit, nullptr in a read unit.
+  SqliteRegistry(Database& db, WriteState* w) : db_(db), w_(w) {}
+
+  std::optional<LabSettings> settings() override;
+  std::int64_t facts_beyond_settings() override;
+  std::optional<Instrument> instrument(std::string_view code) override;
+  std::vector<Instrument> instruments() override;
+  std::vector<Instrument> instruments(const std::vector<InstrumentId>& ids) override;
+  std::optional<Method> method(std::string_view code) override;
+  std::vector<Method> methods() override;
+  std::vector<Method> methods(const std::vector<MethodId>& ids) override;
+  std::optional<Lot> lot(std::string_view code) override;
+  std::vector<Lot> lots() override;
+  std::vector<Lot> lots(const std::vector<LotId>& ids) override;
+
+  void add_settings(const LabSettings& s) override;
+  InstrumentId add_instrument(const std::string& code, const std::optional<std::string>& name,
+                              Instant registered_at) override;
+  void add_service_event(InstrumentId id, const ServiceEvent& e) override;
+  MethodId add_method(const std::string& code, Instant registered_at) override;
+  MethodVersionId add_method_version(MethodId method, const MethodVersion& v) override;
+  LotId add_lot(const Lot& lot) override;
+  void add_lot_withdrawal(LotId id, const LotWithdrawal& w) override;
+
+ private:
+  WriteState& writing();
+  std::vector<Instrument> complete(std::vector<Instrument> list);
+  std::vector<Method> complete(std::vector<Method> list);
+  std::vector<Lot> complete(std::vector<Lot> list);
+
+  Database& db_;
+  WriteState* w_;
+};
+
+}  // namespace cw::store::sqlite

@@ -1,0 +1,240 @@
+// SPDX-License-Identifier: Apache-2.0
+// Every SQL statement the SQLite backend runs (besides migrations and the column lists built
+// from row_form.h), by name. Named parameters only; values are never concatenated into SQL.
+// Lists of ids are bound as one JSON array and read with json_each(). Tests run EXPLAIN QUERY
+// PLAN on these very constants.
+#pragma once
+
+namespace cw::store::sqlite::sql {
+
+// ---- registry
+inline constexpr const char* kSettingsLatest =
+    "SELECT lab_name, time_zone FROM lab_settings ORDER BY id DESC LIMIT 1";
+inline constexpr const char* kFactsBeyondSettings =
+    "SELECT (SELECT count(*) FROM instruments) + (SELECT count(*) FROM methods) + "
+    "(SELECT count(*) FROM lots) + (SELECT count(*) FROM refusals)";
+inline constexpr const char* kInsertSettings =
+    "INSERT INTO lab_settings (lab_name, time_zone, audit_seq) VALUES (:lab, :tz, :seq)";
+
+inline constexpr const char* kInstrumentByCode =
+    "SELECT id, code, name, registered_at FROM instruments WHERE code = :code";
+inline constexpr const char* kInstrumentsAll =
+    "SELECT id, code, name, registered_at FROM instruments ORDER BY code";
+inline constexpr const char* kInstrumentsByIds =
+    "SELECT id, code, name, registered_at FROM instruments "
+    "WHERE id IN (SELECT value FROM json_each(:ids)) ORDER BY code";
+inline constexpr const char* kServiceEventsOf =
+    "SELECT instrument_id, direction, reason, occurred_at FROM instrument_service_events "
+    "WHERE instrument_id IN (SELECT value FROM json_each(:ids)) "
+    "ORDER BY instrument_id, occurred_at, id";
+inline constexpr const char* kInsertInstrument =
+    "INSERT INTO instruments (code, name, registered_at, audit_seq) "
+    "VALUES (:code, :name, :at, :seq)";
+inline constexpr const char* kInsertServiceEvent =
+    "INSERT INTO instrument_service_events (instrument_id, direction, reason, occurred_at, "
+    "audit_seq) VALUES (:instrument, :direction, :reason, :at, :seq)";
+
+inline constexpr const char* kMethodByCode =
+    "SELECT id, code, registered_at FROM methods WHERE code = :code";
+inline constexpr const char* kMethodsAll =
+    "SELECT id, code, registered_at FROM methods ORDER BY code";
+inline constexpr const char* kMethodsByIds =
+    "SELECT id, code, registered_at FROM methods "
+    "WHERE id IN (SELECT value FROM json_each(:ids)) ORDER BY code";
+inline constexpr const char* kVersionsOf =
+    "SELECT id, method_id, version, effective_at, definition, source_name, source_text, "
+    "source_sha256, reason FROM method_versions "
+    "WHERE method_id IN (SELECT value FROM json_each(:ids)) ORDER BY method_id, version";
+inline constexpr const char* kInsertMethod =
+    "INSERT INTO methods (code, registered_at, audit_seq) VALUES (:code, :at, :seq)";
+inline constexpr const char* kInsertMethodVersion =
+    "INSERT INTO method_versions (method_id, version, effective_at, title, unit, definition, "
+    "source_name, source_text, source_sha256, reason, audit_seq) VALUES (:method, :version, "
+    ":at, :title, :unit, :definition, :source_name, :source_text, :sha, :reason, :seq)";
+
+inline constexpr const char* kLotByCode =
+    "SELECT id, code, material, expires_on, opened_on, in_use_days, certificate, registered_at "
+    "FROM lots WHERE code = :code";
+inline constexpr const char* kLotsAll =
+    "SELECT id, code, material, expires_on, opened_on, in_use_days, certificate, registered_at "
+    "FROM lots ORDER BY code";
+inline constexpr const char* kLotsByIds =
+    "SELECT id, code, material, expires_on, opened_on, in_use_days, certificate, registered_at "
+    "FROM lots WHERE id IN (SELECT value FROM json_each(:ids)) ORDER BY code";
+inline constexpr const char* kLotValuesOf =
+    "SELECT lot_id, analyte, value, uncertainty FROM lot_values "
+    "WHERE lot_id IN (SELECT value FROM json_each(:ids)) ORDER BY lot_id, id";
+inline constexpr const char* kLotWithdrawalsOf =
+    "SELECT lot_id, reason, occurred_at FROM lot_withdrawals "
+    "WHERE lot_id IN (SELECT value FROM json_each(:ids)) ORDER BY lot_id, id";
+inline constexpr const char* kInsertLot =
+    "INSERT INTO lots (code, material, expires_on, opened_on, in_use_days, certificate, "
+    "registered_at, audit_seq) VALUES (:code, :material, :expires, :opened, :days, :cert, :at, "
+    ":seq)";
+inline constexpr const char* kInsertLotValue =
+    "INSERT INTO lot_values (lot_id, analyte, value, uncertainty, audit_seq) "
+    "VALUES (:lot, :analyte, :value, :u, :seq)";
+inline constexpr const char* kInsertLotWithdrawal =
+    "INSERT INTO lot_withdrawals (lot_id, reason, occurred_at, audit_seq) "
+    "VALUES (:lot, :reason, :at, :seq)";
+
+// ---- calibrations and curves
+inline constexpr const char* kCalibrationsByIds =
+    "SELECT id, method_version_id, instrument_id, acquired_at, analyst, note, points_file, "
+    "points_sha256 FROM calibrations WHERE id IN (SELECT value FROM json_each(:ids)) ORDER BY id";
+inline constexpr const char* kCalibrationLotsOf =
+    "SELECT calibration_id, lot_id FROM calibration_lots "
+    "WHERE calibration_id IN (SELECT value FROM json_each(:ids)) ORDER BY calibration_id, id";
+inline constexpr const char* kCurvesByIds =
+    "SELECT c.id, c.calibration_id, c.method_id, k.method_version_id, c.instrument_id, "
+    "c.acquired_at, k.analyst, c.analyte, c.verdict, c.failed_criteria, c.statistics, "
+    "c.acceptance, c.expires_at FROM curves c JOIN calibrations k ON k.id = c.calibration_id "
+    "WHERE c.id IN (SELECT value FROM json_each(:ids)) ORDER BY c.id";
+inline constexpr const char* kPointsOf =
+    "SELECT curve_id, source_line, level, replicate, nominal, response, is_response, y, "
+    "back_calculated, error_pct, within_limits, excluded, exclude_reason FROM curve_points "
+    "WHERE curve_id IN (SELECT value FROM json_each(:ids)) ORDER BY curve_id, id";
+inline constexpr const char* kReviewsOf =
+    "SELECT curve_id, decision, reviewer, reason, occurred_at FROM curve_reviews "
+    "WHERE curve_id IN (SELECT value FROM json_each(:ids)) ORDER BY curve_id, occurred_at, id";
+inline constexpr const char* kRetirementsOf =
+    "SELECT curve_id, retired_by, reason, occurred_at FROM curve_retirements "
+    "WHERE curve_id IN (SELECT value FROM json_each(:ids)) ORDER BY curve_id, occurred_at, id";
+inline constexpr const char* kCurveIdsFiltered =
+    "SELECT id FROM curves WHERE (:method IS NULL OR method_id = :method) AND "
+    "(:instrument IS NULL OR instrument_id = :instrument) AND "
+    "(:analyte IS NULL OR analyte = :analyte) AND acquired_at <= :by ORDER BY acquired_at, id";
+inline constexpr const char* kCurvesOfCalibration =
+    "SELECT id FROM curves WHERE calibration_id = :id ORDER BY id";
+inline constexpr const char* kLiveInGroup =
+    "SELECT id FROM curves WHERE method_id = :method AND instrument_id = :instrument AND "
+    "analyte = :analyte AND acquired_at >= :after AND acquired_at <= :by AND expires_at > :by "
+    "ORDER BY acquired_at DESC, id DESC";
+inline constexpr const char* kLatestInGroup =
+    "SELECT id FROM curves WHERE method_id = :method AND instrument_id = :instrument AND "
+    "analyte = :analyte AND acquired_at <= :by ORDER BY acquired_at DESC, id DESC LIMIT 1";
+inline constexpr const char* kLatestAcceptedInGroup =
+    "SELECT id FROM curves WHERE method_id = :method AND instrument_id = :instrument AND "
+    "analyte = :analyte AND acquired_at <= :by AND verdict = 'accepted' "
+    "ORDER BY acquired_at DESC, id DESC LIMIT 1";
+inline constexpr const char* kCurvesExpiringBetween =
+    "SELECT id FROM curves WHERE expires_at >= :from AND expires_at < :to "
+    "ORDER BY expires_at, id";
+inline constexpr const char* kLiveOfInstrument =
+    "SELECT id FROM curves WHERE instrument_id = :instrument AND expires_at > :t AND "
+    "acquired_at <= :t ORDER BY acquired_at, id";
+inline constexpr const char* kSettledGroups =
+    "SELECT c.verdict, "
+    "  EXISTS (SELECT 1 FROM curve_reviews r WHERE r.curve_id = c.id AND r.decision = 'reject' "
+    "          AND r.occurred_at <= :t) AS rejected_by_review, "
+    "  EXISTS (SELECT 1 FROM curve_retirements x WHERE x.curve_id = c.id "
+    "          AND x.occurred_at <= :t) AS retired, "
+    "  coalesce(v.definition ->> '$.calibration.review_required', 1) AS review_required, "
+    "  EXISTS (SELECT 1 FROM curve_reviews r WHERE r.curve_id = c.id "
+    "          AND r.occurred_at <= :t) AS reviewed, "
+    "  count(*) "
+    "FROM curves c JOIN calibrations k ON k.id = c.calibration_id "
+    "JOIN method_versions v ON v.id = k.method_version_id "
+    "WHERE c.instrument_id = :instrument AND c.expires_at <= :t "
+    "GROUP BY 1, 2, 3, 4, 5";
+inline constexpr const char* kMethodAnalytes =
+    "SELECT DISTINCT method_id, analyte FROM curves WHERE instrument_id = :instrument "
+    "ORDER BY method_id, analyte";
+inline constexpr const char* kCurvesOfLot =
+    "SELECT c.id FROM calibration_lots l JOIN curves c ON c.calibration_id = l.calibration_id "
+    "WHERE l.lot_id = :lot ORDER BY c.acquired_at, c.id";
+inline constexpr const char* kInsertCalibration =
+    "INSERT INTO calibrations (method_version_id, instrument_id, acquired_at, analyst, note, "
+    "points_file, points_sha256, audit_seq) VALUES (:mv, :instrument, :at, :analyst, :note, "
+    ":file, :sha, :seq)";
+inline constexpr const char* kInsertCalibrationLot =
+    "INSERT INTO calibration_lots (calibration_id, lot_id, audit_seq) "
+    "VALUES (:calibration, :lot, :seq)";
+inline constexpr const char* kInsertCurve =
+    "INSERT INTO curves (calibration_id, method_id, instrument_id, acquired_at, analyte, model, "
+    "weighting, intercept, slope, quadratic, se_intercept, se_slope, se_quadratic, r2, "
+    "residual_sd, dof, n_points, n_levels, range_low, range_high, lod, loq, rf_rsd_pct, verdict, "
+    "failed_criteria, statistics, acceptance, expires_at, audit_seq) VALUES (:calibration, "
+    ":method, :instrument, :at, :analyte, :model, :weighting, :a, :b, :c, :sa, :sb, :sc, :r2, "
+    ":sd, :dof, :n, :levels, :low, :high, :lod, :loq, :rsd, :verdict, :failed, :statistics, "
+    ":acceptance, :expires, :seq)";
+inline constexpr const char* kInsertPoint =
+    "INSERT INTO curve_points (curve_id, source_line, level, replicate, nominal, response, "
+    "is_response, y, back_calculated, error_pct, within_limits, excluded, exclude_reason, "
+    "audit_seq) VALUES (:curve, :line, :level, :rep, :nominal, :response, :is, :y, :back, :re, "
+    ":within, :excluded, :why, :seq)";
+inline constexpr const char* kInsertReview =
+    "INSERT INTO curve_reviews (curve_id, decision, reviewer, reason, occurred_at, audit_seq) "
+    "VALUES (:curve, :decision, :reviewer, :reason, :at, :seq)";
+inline constexpr const char* kInsertRetirement =
+    "INSERT INTO curve_retirements (curve_id, retired_by, reason, occurred_at, audit_seq) "
+    "VALUES (:curve, :by, :reason, :at, :seq)";
+
+// ---- checks, results, refusals
+inline constexpr const char* kChecksOf =
+    "SELECT id, curve_id, kind, nominal, response, is_response, measured, recovery_pct, "
+    "limit_low, limit_high, passed, analyst, occurred_at FROM checks "
+    "WHERE curve_id IN (SELECT value FROM json_each(:ids)) ORDER BY curve_id, occurred_at, id";
+inline constexpr const char* kCheckById =
+    "SELECT id, curve_id, kind, nominal, response, is_response, measured, recovery_pct, "
+    "limit_low, limit_high, passed, analyst, occurred_at FROM checks WHERE id = :id";
+inline constexpr const char* kRecentFailedChecks =
+    "SELECT k.id, k.curve_id, k.kind, k.nominal, k.response, k.is_response, k.measured, "
+    "k.recovery_pct, k.limit_low, k.limit_high, k.passed, k.analyst, k.occurred_at "
+    "FROM checks k JOIN curves c ON c.id = k.curve_id WHERE c.instrument_id = :instrument "
+    "AND k.passed = 0 AND k.occurred_at <= :by ORDER BY k.occurred_at DESC, k.id DESC "
+    "LIMIT :limit";
+inline constexpr const char* kInsertCheck =
+    "INSERT INTO checks (curve_id, kind, nominal, response, is_response, measured, recovery_pct, "
+    "limit_low, limit_high, passed, analyst, occurred_at, audit_seq) VALUES (:curve, :kind, "
+    ":nominal, :response, :is, :measured, :recovery, :low, :high, :passed, :analyst, :at, :seq)";
+
+inline constexpr const char* kResultById =
+    "SELECT id, sample, analyte, status, curve_id, method_id, instrument_id, response, "
+    "is_response, replicates, dilution, x0, sd_x0, concentration, ci_low, ci_high, flags, "
+    "reasons, reason_details, analyst, occurred_at FROM results WHERE id = :id";
+inline constexpr const char* kResultsOf =
+    "SELECT id, sample, analyte, status, curve_id, method_id, instrument_id, response, "
+    "is_response, replicates, dilution, x0, sd_x0, concentration, ci_low, ci_high, flags, "
+    "reasons, reason_details, analyst, occurred_at FROM results "
+    "WHERE curve_id IN (SELECT value FROM json_each(:ids)) ORDER BY occurred_at, id";
+inline constexpr const char* kReportedBetween =
+    "SELECT id, sample, analyte, status, curve_id, method_id, instrument_id, response, "
+    "is_response, replicates, dilution, x0, sd_x0, concentration, ci_low, ci_high, flags, "
+    "reasons, reason_details, analyst, occurred_at FROM results WHERE curve_id = :id AND "
+    "status = 'reported' AND occurred_at > :after AND occurred_at <= :until "
+    "ORDER BY occurred_at, id";
+inline constexpr const char* kInsertResult =
+    "INSERT INTO results (sample, analyte, status, curve_id, method_id, instrument_id, response, "
+    "is_response, replicates, dilution, x0, sd_x0, concentration, ci_low, ci_high, flags, "
+    "reasons, reason_details, analyst, occurred_at, audit_seq) VALUES (:sample, :analyte, "
+    ":status, :curve, :method, :instrument, :response, :is, :m, :dilution, :x0, :sd, :conc, "
+    ":low, :high, :flags, :reasons, :details, :analyst, :at, :seq)";
+inline constexpr const char* kInsertRefusal =
+    "INSERT INTO refusals (action, entity_kind, entity_id, actor, reasons, message, occurred_at, "
+    "audit_seq) VALUES (:action, :kind, :id, :actor, :reasons, :message, :at, :seq)";
+
+// ---- audit trail
+inline constexpr const char* kAuditHead =
+    "SELECT seq, hash FROM audit_log ORDER BY seq DESC LIMIT 1";
+inline constexpr const char* kAuditCount = "SELECT count(*) FROM audit_log";
+inline constexpr const char* kAuditColumns =
+    "seq, recorded_at, occurred_at, actor, action, entity_kind, entity_id, reason, "
+    "clock_overridden, tool_version, payload, prev_hash, hash";
+inline constexpr const char* kAuditAll =
+    "SELECT seq, recorded_at, occurred_at, actor, action, entity_kind, entity_id, reason, "
+    "clock_overridden, tool_version, payload, prev_hash, hash FROM audit_log ORDER BY seq";
+inline constexpr const char* kAuditFiltered =
+    "SELECT seq, recorded_at, occurred_at, actor, action, entity_kind, entity_id, reason, "
+    "clock_overridden, tool_version, payload, prev_hash, hash FROM audit_log "
+    "WHERE (:since IS NULL OR recorded_at >= :since) AND (:kind IS NULL OR entity_kind = :kind) "
+    "AND (:id IS NULL OR entity_id = :id) ORDER BY seq";
+inline constexpr const char* kInsertAudit =
+    "INSERT INTO audit_log (seq, recorded_at, occurred_at, actor, action, entity_kind, "
+    "entity_id, reason, clock_overridden, tool_version, payload, prev_hash, hash) VALUES "
+    "(:seq, :recorded_at, :occurred_at, :actor, :action, :entity_kind, :entity_id, :reason, "
+    ":clock_overridden, :tool_version, :payload, :prev_hash, :hash)";
+inline constexpr const char* kTriggerNames =
+    "SELECT name FROM sqlite_master WHERE type = 'trigger'";
+
+}  // namespace cw::store::sqlite::sql
