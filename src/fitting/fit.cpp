@@ -191,6 +191,16 @@ std::optional<MandelTest> mandel_test(const FittedData& data, double sse_linear,
   return test;
 }
 
+ScaledDesign scaled_design(const detail::LeastSquares& ls) {
+  ScaledDesign design;
+  design.centre = ls.centre;
+  design.scale = ls.scale;
+  design.parameters = ls.parameters;
+  design.coefficients = ls.beta_scaled;
+  design.r_inverse = ls.r_inverse;
+  return design;
+}
+
 void response_factors(FitResult& out, const FittedData& data) {
   std::vector<double> rf;
   for (std::size_t k = 0; k < data.x.size(); ++k) {
@@ -314,6 +324,7 @@ FitResult fit(Model model, Weighting weighting, const std::vector<Observation>& 
     const double s2 = ls.sse / out.dof;
     out.residual_sd = std::sqrt(s2);
     set_covariance(out, ls.unscaled_covariance, s2);
+    out.design = scaled_design(ls);
     if (model == Model::LinearThroughOrigin) {
       // Uncentred R0² = 1 - Σw·e²/Σw·y² (§1.2; NIST StRD certifies this one for NoInt1/2).
       out.r2 = sum_y2_w > 0 ? 1.0 - ls.sse / sum_y2_w : 0.0;
@@ -338,7 +349,7 @@ FitResult fit(Model model, Weighting weighting, const std::vector<Observation>& 
     p.x = o.x;
     p.y = o.y;
     p.excluded = o.excluded;
-    p.fitted_y = out.intercept + (out.slope + out.quadratic * o.x) * o.x;
+    p.fitted_y = predict_response(out, o.x);
     p.back_calculated = back_calculate(out, o.y);
     if (p.back_calculated && o.x != 0) p.error_pct = 100.0 * (*p.back_calculated - o.x) / o.x;
     if (!o.excluded) p.weight = data.w[next_fitted++];

@@ -77,6 +77,23 @@ struct PointFit {
   bool excluded = false;  ///< as given: not part of the fit
 };
 
+/// The centred, scaled coordinates the least-squares solve worked in, u = (x - centre)/scale,
+/// kept so that read-back and the quadratic's x0 variance can be evaluated without the
+/// cancellation the raw parameterisation suffers on narrow ranges far from zero.
+struct ScaledDesign {
+  /// Weighted mean of the fitted x on the normalised scale (0 for the line through the origin).
+  double centre = 0;
+  double scale = 1;    ///< sqrt(Σw'(x - centre)²/Σw') over the fitted points
+  int parameters = 0;  ///< columns: 1 through origin (u), 2 line (1, u), 3 quadratic (1, u, u²)
+  /// coefficients[k] multiplies column k: y = β0 + β1·u + β2·u² (quadratic), β0 + β1·u (line),
+  /// β0·u (through origin); unused entries 0.
+  std::array<double, 3> coefficients{};
+  /// Upper-triangular R⁻¹ of the QR factor of the weighted design in u (normalised weights), so
+  /// that the parameter covariance in u is residual_sd²·R⁻¹·R⁻ᵀ and a variance gᵀ·Cov·g is the
+  /// sum of squares residual_sd²·|R⁻ᵀg|².
+  std::array<std::array<double, 3>, 3> r_inverse{};
+};
+
 /// Everything known about one fitted calibration curve. Coefficients and their covariance are in
 /// the raw parameterisation y = intercept + slope·x + quadratic·x².
 struct FitResult {
@@ -110,12 +127,20 @@ struct FitResult {
   double sum_x2_w = 0;  ///< Σw'·x² (normalised weights), for through-origin
   std::vector<PointFit> points;
   double sse = 0;  ///< Σw'e² over the fitted points (normalised weights)
+  /// The solver's centred, scaled representation (linear, through-origin and quadratic models;
+  /// nullopt for mean-response-factor). Read-back and the quadratic's interval use it when
+  /// present; without it a quadratic falls back to the raw covariance and refuses when that
+  /// loses the digits.
+  std::optional<ScaledDesign> design;
 };
 
 /// Fits `model` with `weighting` to the non-excluded observations by QR least squares on a
 /// centred, scaled design. Throws FitError when the data cannot be fitted (too few levels,
 /// weights undefined, non-finite values, mean RF with weighting or x <= 0).
 FitResult fit(Model model, Weighting weighting, const std::vector<Observation>& observations);
+
+/// Model value y(x); evaluated in the centred, scaled coordinates of `design` when present.
+double predict_response(const FitResult& fit, double x);
 
 /// Model inverse x(y), no interval. nullopt when y has no solution on the curve, the slope is zero,
 /// or the quadratic is not monotonic over its working range (vertex in [range_low, range_high]).
@@ -141,11 +166,13 @@ struct Prediction {
 /// Inverse prediction from the mean y0 of m readings, two-sided interval at `confidence`.
 /// Line: s_x0 = (s/|b|)·sqrt(1/(m·w0) + 1/n + (y0 - ybar_w)²/(b²·Sxx_w)) (§3.1-3.2); through
 /// origin: (s/|b|)·sqrt(1/(m·w0) + y0²/(b²·Σw'x²)), f = n-1; quadratic: delta method
-/// sqrt(s²/(m·w0) + gᵀ·Cov·g)/|b + 2c·x0|, g = (1, x0, x0²), f = n-3 (§3.4); mean response
-/// factor: delta method sqrt(s²/(m·RF²) + x0²·se_RF²/RF²), f = n-1. w0 is the unknown's weight on
-/// the normalised scale (1/x-type weights at x0, 1/y-type at y0; 1 unweighted). Throws FitError
-/// when m < 1, confidence is not in (0, 1), y0 has no solution, the curve is not monotonic over
-/// its working range, or w0 is undefined.
+/// sqrt(s²/(m·w0) + gᵀ·Cov·g)/|b + 2c·x0|, g = (1, x0, x0²), f = n-3 (§3.4), evaluated in the
+/// centred, scaled coordinates of FitResult::design; mean response factor: delta method
+/// sqrt(s²/(m·RF²) + x0²·se_RF²/RF²), f = n-1. w0 is the unknown's weight on the normalised scale
+/// (1/x-type weights at x0, 1/y-type at y0; 1 unweighted). Throws FitError when m < 1, confidence
+/// is not in (0, 1), y0 has no solution, the curve is not monotonic over its working range, w0 is
+/// undefined, or the variance cannot be computed to a useful number of digits (a quadratic
+/// without `design`).
 Prediction inverse_predict(const FitResult& fit, double y0_mean, int m, double confidence = 0.95);
 
 /// Student-t quantile at cumulative probability p with `dof` degrees of freedom (Boost.Math).

@@ -74,3 +74,26 @@ print("quad 1/x inverse y0=60 m=2: x0", g(x0), "w0", g(w0), "sx0", g(sx0), "half
 b = Fr(1081, 560); a0 = Fr(85, 56)
 xb = (Fr(20) - a0)/b
 print("M1 excluded (6,20): back", g(xb), "re", g(100*(xb-6)/6), "fitted", g(a0+6*b))
+# Quadratic (unweighted) on narrow ranges far from zero, the responses taken as the doubles the
+# program reads (Fraction(float) is exact): x0 and s_x0 (m = 1) at y0 = the middle reading,
+# §3.4 delta method with exact M^-1 and 50-digit square roots.
+def narrow_quadratic(xs, ys, y0):
+    x = [Fr(float(v)) for v in xs]; y = [Fr(float(v)) for v in ys]; y0 = Fr(float(y0))
+    q = cv.quad_fit(x, y)
+    A, B, C = D(q["a"] - y0), D(q["b"]), D(q["c"])
+    root = (B*B - 4*C*A).sqrt()
+    mid = D((max(x) + min(x))/2)
+    r1, r2 = (-B + root)/(2*C), (-B - root)/(2*C)
+    x0 = r1 if abs(r1 - mid) < abs(r2 - mid) else r2
+    Mi = cv.inv3(q["M"])
+    gv = [Decimal(1), x0, x0*x0]
+    qf = sum(gv[i]*D(Mi[i][j])*gv[j] for i in range(3) for j in range(3))
+    s2 = D(q["s2"])
+    return x0, (s2*(1 + qf)).sqrt()/abs(B + 2*C*x0)
+for name, xs, ys, y0 in [
+        ("narrow 1e3", "996 997 998 999 1000 1001 1002 1003 1004",
+         "2490.743 2493.259 2495.781 2498.300 2500.789 2503.285 2505.796 2508.259 2510.733", "2500.789"),
+        ("narrow 1e5", "99960 99970 99980 99990 100000 100010 100020 100030 100040",
+         "3998.547 3999.011 3999.468 3999.894 4000.301 4000.662 4001.051 4001.410 4001.750", "4000.301")]:
+    x0, sx0 = narrow_quadratic(xs.split(), ys.split(), y0)
+    print("quad", name, "y0", y0, "x0", "%.15g" % float(x0), "sx0", "%.12g" % float(sx0))

@@ -270,6 +270,48 @@ TEST_CASE("inverse_predict: weighted quadratic, delta method", "[fitting]") {
   CHECK_THAT(p.ci_high - p.x0, WithinRel(0.0306410051887, kRel));
 }
 
+TEST_CASE("inverse_predict: quadratic on a narrow range far from zero", "[fitting]") {
+  // Unweighted quadratics over ±4 at x ~ 1000 and ±40 at x ~ 100 000; y0 = the middle reading,
+  // m = 1 [X] (exact fractions of the double inputs): x ~ 1e3: x0 = 999.997157979731,
+  // s_x0 = 0.00387825411575; x ~ 1e5: x0 = 100000.200784512, s_x0 = 0.316110499814. The raw
+  // gᵀ·Cov·g with g = (1, x0, x0²) keeps about 6 of these digits at 1e3 and none at 1e5.
+  struct Case {
+    std::vector<double> x, y;
+    double y0, x0, sd;
+  };
+  const Case cases[] = {
+      {{996, 997, 998, 999, 1000, 1001, 1002, 1003, 1004},
+       {2490.743, 2493.259, 2495.781, 2498.300, 2500.789, 2503.285, 2505.796, 2508.259, 2510.733},
+       2500.789,
+       999.997157979731,
+       0.00387825411575},
+      {{99960, 99970, 99980, 99990, 100000, 100010, 100020, 100030, 100040},
+       {3998.547, 3999.011, 3999.468, 3999.894, 4000.301, 4000.662, 4001.051, 4001.410, 4001.750},
+       4000.301,
+       100000.200784512,
+       0.316110499814},
+  };
+  for (const Case& c : cases) {
+    INFO("x0 " << c.x0);
+    FitResult f = fit(Model::Quadratic, Weighting::None, xy(c.x, c.y));
+    REQUIRE(f.design.has_value());
+    const Prediction p = inverse_predict(f, c.y0, 1);
+    CHECK_THAT(p.x0, WithinRel(c.x0, 1e-14));
+    CHECK_THAT(p.sd_x0, WithinRel(c.sd, kRel));
+    REQUIRE(back_calculate(f, c.y0).has_value());
+    CHECK_THAT(*back_calculate(f, c.y0), WithinRel(c.x0, 1e-14));
+    // Without the centred representation (a curve kept before it was stored) the raw form cannot
+    // give 6 digits here: a FitError, never a clamped or wrong number.
+    f.design.reset();
+    try {
+      inverse_predict(f, c.y0, 1);
+      FAIL("no error");
+    } catch (const FitError& e) {
+      CHECK_THAT(std::string(e.what()), Contains("cannot be computed to 6 significant digits"));
+    }
+  }
+}
+
 TEST_CASE("inverse_predict: line through the origin, unweighted and 1/x", "[fitting]") {
   // x = 1, 2, 4, 8, 16; y = 2.05, 3.98, 8.1, 15.7, 32.4; y0 = 10, m = 2, f = n - 1 = 4 [X]:
   //   none: b = 2.01293255132, se_b = 0.0122853251717, s = 0.226863091247, R0² = 0.999851026111,
