@@ -183,9 +183,16 @@ std::optional<MandelTest> mandel_test(const FittedData& data, double sse_linear,
   test.s_y1 = std::sqrt(sse_linear / (n - 2));
   test.s_y2 = std::sqrt(quadratic.sse / (n - 3));
   if (!(test.s_y2 > 0)) return std::nullopt;  // PW undefined for an exact quadratic fit
-  // DS² = (N-2)·s_y1² - (N-3)·s_y2² = SSE_lin - SSE_quad >= 0; clamp rounding below zero.
-  test.ds2 = std::max(0.0, sse_linear - quadratic.sse);
-  test.test_value = test.ds2 / (test.s_y2 * test.s_y2);
+  // PW = DS²/s_y2² with DS² = SSE_lin - SSE_quad, the extra sum of squares of the quadratic term.
+  // For nested least-squares fits that extra sum equals c²/[(XᵀW'X)⁻¹]_cc, so PW = (c/se(c))², the
+  // squared t statistic of the quadratic coefficient (any affine rescaling of x leaves the ratio
+  // unchanged, so it is taken in the solver's u coordinates). se(β2) = s_y2·|R⁻¹_22| because the
+  // last row of the triangular R⁻¹ holds only its diagonal. This keeps the digits the difference
+  // of two nearly equal sums loses on hard data.
+  const double se_quadratic = test.s_y2 * std::abs(quadratic.r_inverse[2][2]);
+  const double t = quadratic.beta_scaled[2] / se_quadratic;
+  test.test_value = t * t;
+  test.ds2 = test.test_value * test.s_y2 * test.s_y2;
   test.f_critical_99 = f_quantile(0.99, 1, n - 3);
   test.linear_adequate = test.test_value <= test.f_critical_99;
   return test;

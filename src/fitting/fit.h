@@ -57,10 +57,14 @@ struct Observation {
 /// Mandel's fitting test, ISO 8466-1 (calibration-practice.md §2.2): linear against quadratic
 /// with the same weights.
 struct MandelTest {
-  double s_y1;           ///< residual SD of the line, sqrt(SSE_lin/(N-2))
-  double s_y2;           ///< residual SD of the quadratic, sqrt(SSE_quad/(N-3))
-  double ds2;            ///< DS² = SSE_lin - SSE_quad (weighted sums)
-  double test_value;     ///< PW = DS²/s_y2²
+  double s_y1;  ///< residual SD of the line, sqrt(SSE_lin/(N-2))
+  double s_y2;  ///< residual SD of the quadratic, sqrt(SSE_quad/(N-3))
+  /// DS² = SSE_lin - SSE_quad (weighted sums), evaluated as PW·s_y2², which is the same quantity
+  /// without the cancellation of the difference.
+  double ds2;
+  /// PW = DS²/s_y2², evaluated as the squared t statistic of the quadratic coefficient,
+  /// (c/se(c))², which equals it algebraically and keeps the digits on hard data.
+  double test_value;
   double f_critical_99;  ///< F(0.99; 1, N-3)
   int dof_quadratic;     ///< N-3
   bool linear_adequate;  ///< PW <= F(0.99; 1, N-3)

@@ -97,3 +97,20 @@ for name, xs, ys, y0 in [
          "3998.547 3999.011 3999.468 3999.894 4000.301 4000.662 4001.051 4001.410 4001.750", "4000.301")]:
     x0, sx0 = narrow_quadratic(xs.split(), ys.split(), y0)
     print("quad", name, "y0", y0, "x0", "%.15g" % float(x0), "sx0", "%.12g" % float(sx0))
+# Mandel's PW = (SSE_lin - SSE_quad)/s_y2² on a very precise line (residual SD ~ 1e-4, y up to
+# 123), exact fractions of the double inputs, unweighted, 1/x^2 and 1/y^2 (normalised weights).
+def wquad_sse(x, y, w):
+    n = len(x); sw = sum(w); w = [wi*n/sw for wi in w]
+    S = [sum(wi*xi**k for wi, xi in zip(w, x)) for k in range(5)]
+    M = [[S[i+j] for j in range(3)] for i in range(3)]
+    v = [sum(wi*yi*xi**k for wi, xi, yi in zip(w, x, y)) for k in range(3)]
+    qa, qb, qc = cv.solve3(M, v)
+    return sum(wi*(yi - qa - qb*xi - qc*xi*xi)**2 for wi, xi, yi in zip(w, x, y))
+xp = [Fr(i) for i in range(1, 11)]
+yp = [Fr(float(v)) for v in ("12.357953 24.703709 37.049314 49.394984 61.740601 74.086352 "
+                             "86.432163 98.777774 111.123514 123.469114").split()]
+for name, w in [("none", [Fr(1)]*10), ("1/x^2", [1/(v*v) for v in xp]),
+                ("1/y^2", [1/(v*v) for v in yp])]:
+    line = cv.wls_line(xp, yp, w)
+    sq = wquad_sse(xp, yp, w)
+    print("Mandel precise line", name, "PW", "%.15g" % float((line["sse"] - sq)/(sq/7)))

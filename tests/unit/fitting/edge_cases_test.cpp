@@ -410,3 +410,31 @@ TEST_CASE("fit: Mandel test needs N - 3 >= 1", "[fitting]") {
   CHECK(four.mandel->dof_quadratic == 1);
   CHECK_THAT(four.mandel->f_critical_99, WithinAbs(4052.181, 0.0005));  // F(0.99; 1, 1) table
 }
+
+TEST_CASE("fit: Mandel's test value keeps its digits on a very precise line", "[fitting]") {
+  // Residual SD ~ 1e-4 against responses up to 123: SSE_lin - SSE_quad is a difference of two
+  // nearly equal sums far below y², which left 8 to 10.5 correct digits (10.5 with 1/y² weights
+  // even after the solver moved to extended precision). PW computed as the squared t statistic
+  // of the quadratic term keeps them [X] (exact fractions of the double inputs): unweighted
+  // 0.49818227206653, 1/x² 0.00672207085281116, 1/y² 0.00682523332071668.
+  const auto data = xy({1, 2, 3, 4, 5, 6, 7, 8, 9, 10},
+                       {12.357953, 24.703709, 37.049314, 49.394984, 61.740601, 74.086352, 86.432163,
+                        98.777774, 111.123514, 123.469114});
+  struct Case {
+    Weighting weighting;
+    double pw;
+  };
+  for (const Case& c :
+       {Case{Weighting::None, 0.49818227206653}, Case{Weighting::InvX2, 0.00672207085281116},
+        Case{Weighting::InvY2, 0.00682523332071668}}) {
+    INFO(cw::fitting::to_string(c.weighting));
+    const FitResult f = fit(Model::Linear, c.weighting, data);
+    REQUIRE(f.mandel.has_value());
+    CHECK_THAT(f.mandel->test_value, WithinRel(c.pw, 1e-11));
+    // The fields stay consistent with their definitions: DS² = PW·s_y2², s_y1 = s_y/x.
+    CHECK_THAT(f.mandel->ds2,
+               WithinRel(f.mandel->test_value * f.mandel->s_y2 * f.mandel->s_y2, 1e-15));
+    CHECK_THAT(f.mandel->s_y1, WithinRel(f.residual_sd, 1e-15));
+    CHECK(f.mandel->linear_adequate);
+  }
+}
