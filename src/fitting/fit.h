@@ -112,14 +112,27 @@ struct FitResult {
   std::array<std::array<double, 3>, 3> covariance{};
   double r2 = 0;              ///< see r2_definition; 0 when the responses do not vary
   std::string r2_definition;  ///< human text of the R² definition used
-  double residual_sd = 0;     ///< s_y/x = sqrt(Σw'e²/dof), weights on the normalised scale
-  int dof = 0;                ///< residual degrees of freedom, n - p
-  int n_points = 0;           ///< fitted (non-excluded) points, replicates counted
-  int n_levels = 0;           ///< distinct x values among the fitted points
+  /// s_y/x = sqrt(Σw'e²/dof), weights on the normalised scale. For mean-response-factor this is
+  /// the unweighted SD of y about RFbar·x with n-1 degrees of freedom, a descriptive figure only:
+  /// that model's interval and limits use rf_sd (its relative-error model).
+  double residual_sd = 0;
+  int dof = 0;                           ///< residual degrees of freedom, n - p
+  int n_points = 0;                      ///< fitted (non-excluded) points, replicates counted
+  int n_levels = 0;                      ///< distinct x values among the fitted points
   double range_low = 0, range_high = 0;  ///< lowest and highest non-excluded nominal
-  /// ICH Q2: LOD = 3.3·σ/|S|, LOQ = 10·σ/|S|, σ = residual_sd, S = slope (the linear coefficient b
-  /// for the quadratic, mean RF for mean-response-factor).
+  /// ICH Q2 limits: LOD = 3.3·σ/|S|, LOQ = 10·σ/|S| with σ = lod_sigma and S = lod_slope, both
+  /// taken at the low end of the range (lod_definition names them); +infinity when S = 0.
   double lod = 0, loq = 0;
+  /// σ of the ICH limits: the response SD the fitted model implies at the lowest calibrator.
+  /// Unweighted line, through origin, quadratic: s_y/x. Weighted: s_w·sqrt(mean of 1/w' over the
+  /// readings of the lowest calibrator) = s_w/sqrt(w'(x_low)) for 1/x-type weights (normalised
+  /// scale). Mean response factor: s_RF·x_low (relative-error model).
+  double lod_sigma = 0;
+  /// S of the ICH limits: the slope dy/dx at the lowest calibrator (b for lines, b + 2c·x_low for
+  /// the quadratic, RFbar for mean response factor).
+  double lod_slope = 0;
+  /// Plain text naming the σ and S used for lod and loq.
+  std::string lod_definition;
   /// Response factors y/x over the fitted points with x > 0 (SD with n-1; 0 when fewer than 2).
   double rf_mean = 0, rf_sd = 0, rf_rsd_pct = 0;
   /// Linear only (same weighting), when N-3 >= 1, >= 3 levels and the quadratic residual SD is
@@ -171,12 +184,12 @@ struct Prediction {
 /// Line: s_x0 = (s/|b|)·sqrt(1/(m·w0) + 1/n + (y0 - ybar_w)²/(b²·Sxx_w)) (§3.1-3.2); through
 /// origin: (s/|b|)·sqrt(1/(m·w0) + y0²/(b²·Σw'x²)), f = n-1; quadratic: delta method
 /// sqrt(s²/(m·w0) + gᵀ·Cov·g)/|b + 2c·x0|, g = (1, x0, x0²), f = n-3 (§3.4), evaluated in the
-/// centred, scaled coordinates of FitResult::design; mean response factor: delta method
-/// sqrt(s²/(m·RF²) + x0²·se_RF²/RF²), f = n-1. w0 is the unknown's weight on the normalised scale
-/// (1/x-type weights at x0, 1/y-type at y0; 1 unweighted). Throws FitError when m < 1, confidence
-/// is not in (0, 1), y0 has no solution, the curve is not monotonic over its working range, w0 is
-/// undefined, or the variance cannot be computed to a useful number of digits (a quadratic
-/// without `design`).
+/// centred, scaled coordinates of FitResult::design; mean response factor (relative-error model):
+/// s_x0 = x0·(s_RF/RFbar)·sqrt(1/m + 1/n), f = n-1, which equals the interval of the 1/x²-weighted
+/// line through the origin. w0 is the unknown's weight on the normalised scale (1/x-type weights
+/// at x0, 1/y-type at y0; 1 unweighted). Throws FitError when m < 1, confidence is not in (0, 1),
+/// y0 has no solution, the curve is not monotonic over its working range, w0 is undefined, or the
+/// variance cannot be computed to a useful number of digits (a quadratic without `design`).
 Prediction inverse_predict(const FitResult& fit, double y0_mean, int m, double confidence = 0.95);
 
 /// Student-t quantile at cumulative probability p with `dof` degrees of freedom (Boost.Math).

@@ -251,10 +251,23 @@ Prediction inverse_predict(const FitResult& fit, double y0_mean, int m, double c
     case Model::Quadratic:
       sd = quadratic_sd(fit, x0, m, w0);
       break;
-    case Model::MeanResponseFactor:
-      // Delta method for x0 = y0/RF: Var = s²/(m·RF²) + x0²·se(RF)²/RF².
-      sd = std::sqrt(s * s / (m * b * b) + x0 * x0 * fit.se_slope * fit.se_slope / (b * b));
+    case Model::MeanResponseFactor: {
+      // The mean of ratios RFbar = Σ(y_i/x_i)/n assumes a constant relative error: y_i/x_i
+      // scatters about RF with SD σ_RF, estimated by s_RF (n - 1 degrees of freedom). Then
+      // x0 = y0/RFbar with y0 the mean of m readings of relative SD s_RF/RF, and to first order
+      //   s_x0 = x0·(s_RF/RFbar)·sqrt(1/m + 1/n),  f = n - 1.
+      // This is exactly the §3.3 through-origin interval of the 1/x²-weighted line (whose slope is
+      // RFbar): s² = (n/Σw)·s_RF², Σw'x² = n²/Σw, w0 = (1/x0²)·n/Σw give the same expression.
+      if (!(x0 > 0)) {
+        throw FitError(
+            "the mean-response-factor interval needs a predicted concentration above 0, "
+            "got " +
+                format_number(x0),
+            "its relative-error model has no interval at or below zero");
+      }
+      sd = x0 * (fit.rf_sd / fit.rf_mean) * std::sqrt(1.0 / m + 1.0 / n);
       break;
+    }
   }
   Prediction out{};
   out.x0 = x0;

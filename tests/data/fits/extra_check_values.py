@@ -44,9 +44,10 @@ sse = sum((ai - RF*ci)**2 for ai, ci in zip(a, c))
 s2 = sse/(n-1)
 y0, m = Fr(20000), 3
 x0 = y0/RF
-var = s2/(m*RF*RF) + x0*x0*(sdrf2/n)/(RF*RF)
-sx0 = D(var).sqrt()
-print("MRF s", g(D(s2).sqrt()), "R2", g(1 - sse/sum(ai*ai for ai in a)), "x0", g(x0), "sx0", g(sx0), "half", g(float(sx0)*t), "lod", g(Decimal("3.3")*D(s2).sqrt()/D(RF)))
+# Relative-error model of the mean RF: s_x0 = x0*(s_RF/RFbar)*sqrt(1/m + 1/n); ICH sigma = s_RF*x_low.
+sx0 = D(x0)*D(sdrf2).sqrt()/D(RF)*D(Fr(1, m) + Fr(1, n)).sqrt()
+sig = D(sdrf2).sqrt()*D(min(c))
+print("MRF s", g(D(s2).sqrt()), "R2", g(1 - sse/sum(ai*ai for ai in a)), "x0", g(x0), "sx0", g(sx0), "half", g(float(sx0)*t), "lod", g(Decimal("3.3")*sig/D(RF)), "loq", g(10*sig/D(RF)))
 # quadratic weighted 1/x on S2 data, inverse at y0=60, m=2
 xq = [Fr(i) for i in range(1, 11)]
 yq = [Fr(v) for v in "11.9 21.3 30.7 39.5 48.4 56.5 64.7 72.3 79.9 87.0".split()]

@@ -348,21 +348,30 @@ TEST_CASE("inverse_predict: line through the origin, unweighted and 1/x", "[fitt
   }
 }
 
-TEST_CASE("inverse_predict: mean response factor, delta method", "[fitting]") {
-  // §9 S3 external standard, y0 = 20000, m = 3 [X]: s = 1025.00295609, uncentred R² =
-  // 0.999660552105, x0 = 19.8373338623, s_x0 = 0.606194053269, half-width 1.683064512
-  // (t(0.975; 4)), LOD 3.3·s/RFbar = 3.35499876523.
+TEST_CASE("inverse_predict: mean response factor, relative-error model", "[fitting]") {
+  // §9 S3 external standard, y0 = 20000, m = 3 [X]: s = 1025.00295609 (descriptive), uncentred
+  // R² = 0.999660552105, x0 = 19.8373338623; the mean of ratios has a constant relative error, so
+  // s_x0 = x0·(s_RF/RFbar)·sqrt(1/m + 1/n) = 0.247302496481, half-width 0.686621805859
+  // (t(0.975; 4)); ICH σ = s_RF·x_low (x_low = 1): LOD 3.3·σ/RFbar = 0.0563325970878, LOQ
+  // 10·σ/RFbar = 0.17070483966.
   const FitResult f = fit(Model::MeanResponseFactor, Weighting::None,
                           xy({1, 5, 10, 50, 100}, {1020, 5150, 10080, 49700, 98900}));
   CHECK_THAT(f.residual_sd, WithinRel(1025.00295609, kRel));
   CHECK_THAT(f.r2, WithinRel(0.999660552105, kRel));
-  CHECK_THAT(f.lod, WithinRel(3.35499876523, kRel));
+  CHECK_THAT(f.lod, WithinRel(0.0563325970878, kRel));
+  CHECK_THAT(f.loq, WithinRel(0.17070483966, kRel));
+  CHECK_THAT(f.lod_sigma, WithinRel(17.21046193 * 1, kRel));  // s_RF·x_low, §9 S3 [C]
+  CHECK(f.lod_slope == f.rf_mean);
+  CHECK_THAT(f.lod_definition, Contains("s_RF*x_low"));
   CHECK_THAT(f.covariance[1][1], WithinRel(17.21046193 * 17.21046193 / 5, kRel));
+  CHECK_FALSE(f.design.has_value());
   const Prediction p = inverse_predict(f, 20000.0, 3);
   CHECK(p.dof == 4);
   CHECK_THAT(p.x0, WithinRel(19.8373338623, kRel));
-  CHECK_THAT(p.sd_x0, WithinRel(0.606194053269, kRel));
-  CHECK_THAT(p.ci_high - p.x0, WithinRel(1.683064512, kRel));
+  CHECK_THAT(p.sd_x0, WithinRel(0.247302496481, kRel));
+  CHECK_THAT(p.ci_high - p.x0, WithinRel(0.686621805859, kRel));
+  // The relative-error model has no interval at or below zero concentration.
+  CHECK_THROWS_AS(inverse_predict(f, 0.0, 1), FitError);
 }
 
 TEST_CASE("fit: mean response factor refuses weighting and non-positive x", "[fitting]") {
