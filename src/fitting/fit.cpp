@@ -408,6 +408,7 @@ FitResult fit(Model model, Weighting weighting, const std::vector<Observation>& 
   }
 
   ich_limits(out, data);
+  if (model == Model::Linear && weighting == Weighting::None) out.din = din32645_limits(out);
 
   out.points.resize(observations.size());
   std::size_t next_fitted = 0;

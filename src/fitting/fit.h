@@ -3,12 +3,12 @@
 // prediction with its confidence interval.
 //
 // Overview. fit() turns nominal concentrations and responses into a FitResult: coefficients,
-// their covariance, goodness-of-fit figures, ICH Q2 limits, response factors, the Mandel test
-// and one PointFit per input observation. back_calculate() and inverse_predict() read a FitResult
-// back (x from y). acceptance.h judges a FitResult against configured criteria.
-// This folder is pure arithmetic: it never reads the clock, the disk or the database, and its
-// public headers carry no Eigen or Boost types (those stay in least_squares.cpp and
-// quantiles.cpp). Formulas follow calibration-practice.md §1-§4.
+// their covariance, goodness-of-fit figures, ICH Q2 and DIN 32645 limits, response factors, the
+// Mandel test and one PointFit per input observation. back_calculate() and inverse_predict() read a
+// FitResult back (x from y). acceptance.h judges a FitResult against configured criteria. This
+// folder is pure arithmetic: it never reads the clock, the disk or the database, and its public
+// headers carry no Eigen or Boost types (those stay in least_squares.cpp and quantiles.cpp).
+// Formulas follow calibration-practice.md §1-§4.
 #pragma once
 
 #include <array>
@@ -98,6 +98,47 @@ struct ScaledDesign {
   std::array<std::array<double, 3>, 3> r_inverse{};
 };
 
+/// Parameters of the DIN 32645:2008-11 calibration method (calibration-practice.md §4.2).
+struct DinParameters {
+  double alpha = 0.01;  ///< error probability of the first kind (false positive)
+  double beta = 0.01;   ///< error probability of the second kind (false negative)
+  double k = 3;         ///< 1/k = relative result uncertainty at x_BG (k = 3: 33.3 %)
+  int m = 1;            ///< replicate readings of the analysis sample
+};
+
+/// Detection and quantification limits of DIN 32645:2008-11, calibration method, for an
+/// unweighted straight line (calibration-practice.md §4.2).
+struct DinLimits {
+  DinParameters parameters;  ///< α, β, k and m used
+  int dof = 0;               ///< f = n - 2
+  double method_sd = 0;      ///< s_x0 = s_y/x / b (Verfahrensstandardabweichung)
+  /// Critical response y_k = a + s_y/x·t(1-α; f)·sqrt(1/m + 1/n + xbar²/Sxx).
+  double critical_response = 0;
+  /// Nachweisgrenze (critical value, decision limit) x_NG = s_x0·t(1-α; f)·sqrt(1/m + 1/n +
+  /// xbar²/Sxx).
+  double critical_value = 0;
+  /// Erfassungsgrenze (detection limit) x_EG = x_NG + s_x0·t(1-β; f)·sqrt(1/m + 1/n + xbar²/Sxx)
+  /// (= 2·x_NG when α = β).
+  double detection_limit = 0;
+  /// Bestimmungsgrenze (quantification limit) x_BG = k·s_x0·t(1-α/2; f)·sqrt(1/m + 1/n +
+  /// (x_BG - xbar)²/Sxx), solved by fixed-point iteration from k·x_NG. nullopt when no finite
+  /// solution exists (k·s_x0·t(1-α/2; f) >= sqrt(Sxx): the relative uncertainty 1/k is never
+  /// reached).
+  std::optional<double> quantification_limit;
+  int iterations = 0;  ///< fixed-point iterations used for x_BG
+};
+
+/// Which definition of the detection and quantification limits feeds the "reporting" LOD/LOQ.
+enum class LimitDefinition {
+  IchQ2,     ///< ICH Q2 3.3·σ/S and 10·σ/S (FitResult::lod, loq; σ per lod_definition)
+  Din32645,  ///< DIN 32645: LOD = critical value x_NG, LOQ = quantification limit x_BG
+};
+
+/// "ich-q2", "din-32645".
+std::string_view to_string(LimitDefinition definition);
+/// Inverse of to_string(LimitDefinition); exact match; nullopt for anything else.
+std::optional<LimitDefinition> parse_limit_definition(std::string_view text);
+
 /// Everything known about one fitted calibration curve. Coefficients and their covariance are in
 /// the raw parameterisation y = intercept + slope·x + quadratic·x².
 struct FitResult {
@@ -133,6 +174,9 @@ struct FitResult {
   double lod_slope = 0;
   /// Plain text naming the σ and S used for lod and loq.
   std::string lod_definition;
+  /// DIN 32645:2008-11 limits with the default parameters (α = β = 0.01, k = 3, m = 1); only for
+  /// an unweighted straight line with dof >= 1 and slope != 0.
+  std::optional<DinLimits> din;
   /// Response factors y/x over the fitted points with x > 0 (SD with n-1; 0 when fewer than 2).
   double rf_mean = 0, rf_sd = 0, rf_rsd_pct = 0;
   /// Linear only (same weighting), when N-3 >= 1, >= 3 levels and the quadratic residual SD is
@@ -191,6 +235,25 @@ struct Prediction {
 /// y0 has no solution, the curve is not monotonic over its working range, w0 is undefined, or the
 /// variance cannot be computed to a useful number of digits (a quadratic without `design`).
 Prediction inverse_predict(const FitResult& fit, double y0_mean, int m, double confidence = 0.95);
+
+/// DIN 32645:2008-11 calibration-method limits of `fit` with the given parameters
+/// (calibration-practice.md §4.2). nullopt unless the fit is an unweighted straight line with
+/// dof >= 1, a non-zero slope and a non-zero residual SD. Throws FitError when α or β is not in
+/// (0, 0.5), k <= 0 or m < 1.
+std::optional<DinLimits> din32645_limits(const FitResult& fit,
+                                         const DinParameters& parameters = {});
+
+/// The reporting limits under one definition.
+struct ReportingLimits {
+  LimitDefinition definition;
+  double lod;               ///< limit of detection, concentration units
+  double loq;               ///< limit of quantitation, concentration units
+  std::string description;  ///< plain text naming the definition and its σ or parameters
+};
+
+/// The LOD/LOQ of `fit` under `definition`: ICH Q2 from lod/loq (nullopt when not finite), DIN
+/// 32645 from `din` (x_NG and x_BG; nullopt when din or its x_BG is absent).
+std::optional<ReportingLimits> reporting_limits(const FitResult& fit, LimitDefinition definition);
 
 /// Student-t quantile at cumulative probability p with `dof` degrees of freedom (Boost.Math).
 double student_t_quantile(double p, double dof);

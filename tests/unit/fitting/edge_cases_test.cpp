@@ -365,6 +365,7 @@ TEST_CASE("inverse_predict: mean response factor, relative-error model", "[fitti
   CHECK_THAT(f.lod_definition, Contains("s_RF*x_low"));
   CHECK_THAT(f.covariance[1][1], WithinRel(17.21046193 * 17.21046193 / 5, kRel));
   CHECK_FALSE(f.design.has_value());
+  CHECK_FALSE(f.din.has_value());
   const Prediction p = inverse_predict(f, 20000.0, 3);
   CHECK(p.dof == 4);
   CHECK_THAT(p.x0, WithinRel(19.8373338623, kRel));
