@@ -112,8 +112,12 @@ std::optional<ReportingLimits> reporting_limits(const FitResult& fit, LimitDefin
   switch (definition) {
     case LimitDefinition::IchQ2:
       if (!std::isfinite(fit.lod) || !std::isfinite(fit.loq)) return std::nullopt;
-      return ReportingLimits{definition, fit.lod, fit.loq,
-                             fit.lod_definition + "; LOD = 3.3*sigma/S, LOQ = 10*sigma/S"};
+      // A result kept before lod_definition existed took σ = residual_sd and S = slope.
+      return ReportingLimits{
+          definition, fit.lod, fit.loq,
+          (fit.lod_definition.empty() ? std::string("ICH Q2: sigma = residual SD, S = slope b")
+                                      : fit.lod_definition) +
+              "; LOD = 3.3*sigma/S, LOQ = 10*sigma/S"};
     case LimitDefinition::Din32645: {
       if (!fit.din || !fit.din->quantification_limit) return std::nullopt;
       const DinLimits& d = *fit.din;

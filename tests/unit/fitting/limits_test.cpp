@@ -142,6 +142,12 @@ TEST_CASE("reporting_limits: the definition picks the LOD and LOQ", "[fitting][l
   CHECK_THAT(din->lod, WithinRel(0.9130328581, kRel));
   CHECK_THAT(din->loq, WithinRel(2.999900549, kRel));
   CHECK_THAT(din->description, Contains("DIN 32645") && Contains("x_NG") && Contains("x_BG"));
+  // A curve kept without lod_definition (fitted before it existed) is still described.
+  FitResult kept = f;
+  kept.lod_definition.clear();
+  const auto kept_ich = cw::fitting::reporting_limits(kept, LimitDefinition::IchQ2);
+  REQUIRE(kept_ich.has_value());
+  CHECK_THAT(kept_ich->description, Contains("ICH Q2: sigma = residual SD"));
   // A weighted line has no DIN limits.
   const FitResult weighted = fit(Model::Linear, Weighting::InvX, synthetic_s1());
   CHECK_FALSE(cw::fitting::reporting_limits(weighted, LimitDefinition::Din32645).has_value());
