@@ -60,6 +60,17 @@ double raw_weight(Weighting weighting, double x, double y) {
   return 1.0;
 }
 
+// dy/dx at x: in u coordinates for a quadratic carrying its design (b + 2c·x cancels there when
+// the range is narrow and far from zero), raw otherwise.
+double derivative_at(const FitResult& fit, double x) {
+  if (fit.model == Model::Quadratic && fit.design && fit.design->parameters == 3) {
+    const ScaledDesign& d = *fit.design;
+    const double u = (x - d.centre) / d.scale;
+    return (d.coefficients[1] + 2 * d.coefficients[2] * u) / d.scale;
+  }
+  return fit.slope + 2 * fit.quadratic * x;
+}
+
 std::string point_label(std::size_t index) {
   return "point " + std::to_string(index + 1);
 }
@@ -183,12 +194,84 @@ std::optional<MandelTest> mandel_test(const FittedData& data, double sse_linear,
   test.s_y1 = std::sqrt(sse_linear / (n - 2));
   test.s_y2 = std::sqrt(quadratic.sse / (n - 3));
   if (!(test.s_y2 > 0)) return std::nullopt;  // PW undefined for an exact quadratic fit
-  // DS² = (N-2)·s_y1² - (N-3)·s_y2² = SSE_lin - SSE_quad >= 0; clamp rounding below zero.
-  test.ds2 = std::max(0.0, sse_linear - quadratic.sse);
-  test.test_value = test.ds2 / (test.s_y2 * test.s_y2);
+  // PW = DS²/s_y2² with DS² = SSE_lin - SSE_quad, the extra sum of squares of the quadratic term.
+  // For nested least-squares fits that extra sum equals c²/[(XᵀW'X)⁻¹]_cc, so PW = (c/se(c))², the
+  // squared t statistic of the quadratic coefficient (any affine rescaling of x leaves the ratio
+  // unchanged, so it is taken in the solver's u coordinates). se(β2) = s_y2·|R⁻¹_22| because the
+  // last row of the triangular R⁻¹ holds only its diagonal. This keeps the digits the difference
+  // of two nearly equal sums loses on hard data.
+  const double se_quadratic = test.s_y2 * std::abs(quadratic.r_inverse[2][2]);
+  const double t = quadratic.beta_scaled[2] / se_quadratic;
+  test.test_value = t * t;
+  test.ds2 = test.test_value * test.s_y2 * test.s_y2;
   test.f_critical_99 = f_quantile(0.99, 1, n - 3);
   test.linear_adequate = test.test_value <= test.f_critical_99;
   return test;
+}
+
+ScaledDesign scaled_design(const detail::LeastSquares& ls) {
+  ScaledDesign design;
+  design.centre = ls.centre;
+  design.scale = ls.scale;
+  design.parameters = ls.parameters;
+  design.coefficients = ls.beta_scaled;
+  design.r_inverse = ls.r_inverse;
+  return design;
+}
+
+// ICH Q2 (calibration-practice.md §4.1): LOD = 3.3·σ/S, LOQ = 10·σ/S, σ and S taken at the low
+// end of the range, where the limits live.
+//  - Unweighted fits assume one response SD everywhere: σ = s_y/x.
+//  - A weighted fit models Var(y_i) = s_w²/w'_i (weights normalised to Σw' = n, §1.3), so the
+//    response SD it implies at the lowest calibrator is σ = s_w·sqrt(mean of 1/w'_i over that
+//    level's readings), i.e. s_w/sqrt(w'(x_low)) for 1/x and 1/x² (for 1/y-type weights the
+//    readings' own weights, as fitted). This σ does not depend on how the weights are
+//    normalised, whereas s_w alone is the SD at a point of "average weight" and moves with the
+//    design (more high calibrators raise it).
+//  - Mean response factor: the model's relative error s_RF/RFbar gives a response SD proportional
+//    to x, σ = s_RF·x_low at the lowest calibrator (the same σ as the 1/x²-weighted line through
+//    the origin, which is this model). The model's SD tends to 0 below the range, so σ is not
+//    extrapolated below the lowest calibrator.
+//  - S is the slope dy/dx at the lowest calibrator: b for lines, b + 2c·x_low for the quadratic,
+//    RFbar for the mean response factor.
+void ich_limits(FitResult& out, const FittedData& data) {
+  double inverse_weight_sum = 0;
+  int readings = 0;
+  for (std::size_t k = 0; k < data.x.size(); ++k) {
+    if (data.x[k] != out.range_low) continue;
+    inverse_weight_sum += 1.0 / data.w[k];
+    ++readings;
+  }
+  const std::string weighting(to_string(out.weighting));
+  if (out.model == Model::MeanResponseFactor) {
+    out.lod_sigma = out.rf_sd * out.range_low;
+    out.lod_slope = out.rf_mean;
+    out.lod_definition =
+        "ICH Q2: sigma = s_RF*x_low, the response SD of the relative-error (mean response "
+        "factor) model at the lowest calibrator; S = mean response factor";
+  } else {
+    if (out.weighting == Weighting::None) {
+      out.lod_sigma = out.residual_sd;
+      out.lod_definition = "ICH Q2: sigma = residual SD s(y/x)";
+    } else {
+      out.lod_sigma = out.residual_sd * std::sqrt(inverse_weight_sum / readings);
+      out.lod_definition = "ICH Q2: sigma = response SD the " + weighting +
+                           "-weighted fit implies at the lowest calibrator, s_w*sqrt(mean 1/w' "
+                           "of its readings) (normalised weights)";
+    }
+    if (out.model == Model::Quadratic) {
+      out.lod_slope = derivative_at(out, out.range_low);
+      out.lod_definition += "; S = slope b + 2c*x at the lowest calibrator";
+    } else {
+      out.lod_slope = out.slope;
+      out.lod_definition += "; S = slope b";
+    }
+  }
+  const double sensitivity = std::abs(out.lod_slope);
+  out.lod =
+      sensitivity > 0 ? 3.3 * out.lod_sigma / sensitivity : std::numeric_limits<double>::infinity();
+  out.loq = sensitivity > 0 ? 10.0 * out.lod_sigma / sensitivity
+                            : std::numeric_limits<double>::infinity();
 }
 
 void response_factors(FitResult& out, const FittedData& data) {
@@ -288,8 +371,8 @@ FitResult fit(Model model, Weighting weighting, const std::vector<Observation>& 
   response_factors(out, data);
 
   if (model == Model::MeanResponseFactor) {
-    // §1.5: a line through the origin with slope RFbar; s = sqrt(Σ(y - RFbar·x)²/(n-1)),
-    // se(RFbar) = s_RF/sqrt(n).
+    // §1.5: a line through the origin with slope RFbar; s = sqrt(Σ(y - RFbar·x)²/(n-1)) is
+    // descriptive. se(RFbar) = s_RF/sqrt(n).
     out.slope = out.rf_mean;
     out.dof = out.n_points - 1;
     for (std::size_t k = 0; k < count; ++k) {
@@ -314,6 +397,7 @@ FitResult fit(Model model, Weighting weighting, const std::vector<Observation>& 
     const double s2 = ls.sse / out.dof;
     out.residual_sd = std::sqrt(s2);
     set_covariance(out, ls.unscaled_covariance, s2);
+    out.design = scaled_design(ls);
     if (model == Model::LinearThroughOrigin) {
       // Uncentred R0² = 1 - Σw·e²/Σw·y² (§1.2; NIST StRD certifies this one for NoInt1/2).
       out.r2 = sum_y2_w > 0 ? 1.0 - ls.sse / sum_y2_w : 0.0;
@@ -323,12 +407,8 @@ FitResult fit(Model model, Weighting weighting, const std::vector<Observation>& 
     if (model == Model::Linear) out.mandel = mandel_test(data, ls.sse, out.n_levels);
   }
 
-  // ICH Q2(R1): LOD = 3.3·σ/S, LOQ = 10·σ/S with σ = s_y/x (§4.1).
-  const double sensitivity = std::abs(out.slope);
-  out.lod = sensitivity > 0 ? 3.3 * out.residual_sd / sensitivity
-                            : std::numeric_limits<double>::infinity();
-  out.loq = sensitivity > 0 ? 10.0 * out.residual_sd / sensitivity
-                            : std::numeric_limits<double>::infinity();
+  ich_limits(out, data);
+  if (model == Model::Linear && weighting == Weighting::None) out.din = din32645_limits(out);
 
   out.points.resize(observations.size());
   std::size_t next_fitted = 0;
@@ -338,7 +418,7 @@ FitResult fit(Model model, Weighting weighting, const std::vector<Observation>& 
     p.x = o.x;
     p.y = o.y;
     p.excluded = o.excluded;
-    p.fitted_y = out.intercept + (out.slope + out.quadratic * o.x) * o.x;
+    p.fitted_y = predict_response(out, o.x);
     p.back_calculated = back_calculate(out, o.y);
     if (p.back_calculated && o.x != 0) p.error_pct = 100.0 * (*p.back_calculated - o.x) / o.x;
     if (!o.excluded) p.weight = data.w[next_fitted++];

@@ -270,6 +270,48 @@ TEST_CASE("inverse_predict: weighted quadratic, delta method", "[fitting]") {
   CHECK_THAT(p.ci_high - p.x0, WithinRel(0.0306410051887, kRel));
 }
 
+TEST_CASE("inverse_predict: quadratic on a narrow range far from zero", "[fitting]") {
+  // Unweighted quadratics over ±4 at x ~ 1000 and ±40 at x ~ 100 000; y0 = the middle reading,
+  // m = 1 [X] (exact fractions of the double inputs): x ~ 1e3: x0 = 999.997157979731,
+  // s_x0 = 0.00387825411575; x ~ 1e5: x0 = 100000.200784512, s_x0 = 0.316110499814. The raw
+  // gᵀ·Cov·g with g = (1, x0, x0²) keeps about 6 of these digits at 1e3 and none at 1e5.
+  struct Case {
+    std::vector<double> x, y;
+    double y0, x0, sd;
+  };
+  const Case cases[] = {
+      {{996, 997, 998, 999, 1000, 1001, 1002, 1003, 1004},
+       {2490.743, 2493.259, 2495.781, 2498.300, 2500.789, 2503.285, 2505.796, 2508.259, 2510.733},
+       2500.789,
+       999.997157979731,
+       0.00387825411575},
+      {{99960, 99970, 99980, 99990, 100000, 100010, 100020, 100030, 100040},
+       {3998.547, 3999.011, 3999.468, 3999.894, 4000.301, 4000.662, 4001.051, 4001.410, 4001.750},
+       4000.301,
+       100000.200784512,
+       0.316110499814},
+  };
+  for (const Case& c : cases) {
+    INFO("x0 " << c.x0);
+    FitResult f = fit(Model::Quadratic, Weighting::None, xy(c.x, c.y));
+    REQUIRE(f.design.has_value());
+    const Prediction p = inverse_predict(f, c.y0, 1);
+    CHECK_THAT(p.x0, WithinRel(c.x0, 1e-14));
+    CHECK_THAT(p.sd_x0, WithinRel(c.sd, kRel));
+    REQUIRE(back_calculate(f, c.y0).has_value());
+    CHECK_THAT(*back_calculate(f, c.y0), WithinRel(c.x0, 1e-14));
+    // Without the centred representation (a curve kept before it was stored) the raw form cannot
+    // give 6 digits here: a FitError, never a clamped or wrong number.
+    f.design.reset();
+    try {
+      inverse_predict(f, c.y0, 1);
+      FAIL("no error");
+    } catch (const FitError& e) {
+      CHECK_THAT(std::string(e.what()), Contains("cannot be computed to 6 significant digits"));
+    }
+  }
+}
+
 TEST_CASE("inverse_predict: line through the origin, unweighted and 1/x", "[fitting]") {
   // x = 1, 2, 4, 8, 16; y = 2.05, 3.98, 8.1, 15.7, 32.4; y0 = 10, m = 2, f = n - 1 = 4 [X]:
   //   none: b = 2.01293255132, se_b = 0.0122853251717, s = 0.226863091247, R0² = 0.999851026111,
@@ -306,21 +348,31 @@ TEST_CASE("inverse_predict: line through the origin, unweighted and 1/x", "[fitt
   }
 }
 
-TEST_CASE("inverse_predict: mean response factor, delta method", "[fitting]") {
-  // §9 S3 external standard, y0 = 20000, m = 3 [X]: s = 1025.00295609, uncentred R² =
-  // 0.999660552105, x0 = 19.8373338623, s_x0 = 0.606194053269, half-width 1.683064512
-  // (t(0.975; 4)), LOD 3.3·s/RFbar = 3.35499876523.
+TEST_CASE("inverse_predict: mean response factor, relative-error model", "[fitting]") {
+  // §9 S3 external standard, y0 = 20000, m = 3 [X]: s = 1025.00295609 (descriptive), uncentred
+  // R² = 0.999660552105, x0 = 19.8373338623; the mean of ratios has a constant relative error, so
+  // s_x0 = x0·(s_RF/RFbar)·sqrt(1/m + 1/n) = 0.247302496481, half-width 0.686621805859
+  // (t(0.975; 4)); ICH σ = s_RF·x_low (x_low = 1): LOD 3.3·σ/RFbar = 0.0563325970878, LOQ
+  // 10·σ/RFbar = 0.17070483966.
   const FitResult f = fit(Model::MeanResponseFactor, Weighting::None,
                           xy({1, 5, 10, 50, 100}, {1020, 5150, 10080, 49700, 98900}));
   CHECK_THAT(f.residual_sd, WithinRel(1025.00295609, kRel));
   CHECK_THAT(f.r2, WithinRel(0.999660552105, kRel));
-  CHECK_THAT(f.lod, WithinRel(3.35499876523, kRel));
+  CHECK_THAT(f.lod, WithinRel(0.0563325970878, kRel));
+  CHECK_THAT(f.loq, WithinRel(0.17070483966, kRel));
+  CHECK_THAT(f.lod_sigma, WithinRel(17.21046193 * 1, kRel));  // s_RF·x_low, §9 S3 [C]
+  CHECK(f.lod_slope == f.rf_mean);
+  CHECK_THAT(f.lod_definition, Contains("s_RF*x_low"));
   CHECK_THAT(f.covariance[1][1], WithinRel(17.21046193 * 17.21046193 / 5, kRel));
+  CHECK_FALSE(f.design.has_value());
+  CHECK_FALSE(f.din.has_value());
   const Prediction p = inverse_predict(f, 20000.0, 3);
   CHECK(p.dof == 4);
   CHECK_THAT(p.x0, WithinRel(19.8373338623, kRel));
-  CHECK_THAT(p.sd_x0, WithinRel(0.606194053269, kRel));
-  CHECK_THAT(p.ci_high - p.x0, WithinRel(1.683064512, kRel));
+  CHECK_THAT(p.sd_x0, WithinRel(0.247302496481, kRel));
+  CHECK_THAT(p.ci_high - p.x0, WithinRel(0.686621805859, kRel));
+  // The relative-error model has no interval at or below zero concentration.
+  CHECK_THROWS_AS(inverse_predict(f, 0.0, 1), FitError);
 }
 
 TEST_CASE("fit: mean response factor refuses weighting and non-positive x", "[fitting]") {
@@ -367,4 +419,32 @@ TEST_CASE("fit: Mandel test needs N - 3 >= 1", "[fitting]") {
   REQUIRE(four.mandel.has_value());
   CHECK(four.mandel->dof_quadratic == 1);
   CHECK_THAT(four.mandel->f_critical_99, WithinAbs(4052.181, 0.0005));  // F(0.99; 1, 1) table
+}
+
+TEST_CASE("fit: Mandel's test value keeps its digits on a very precise line", "[fitting]") {
+  // Residual SD ~ 1e-4 against responses up to 123: SSE_lin - SSE_quad is a difference of two
+  // nearly equal sums far below y², which left 8 to 10.5 correct digits (10.5 with 1/y² weights
+  // even after the solver moved to extended precision). PW computed as the squared t statistic
+  // of the quadratic term keeps them [X] (exact fractions of the double inputs): unweighted
+  // 0.49818227206653, 1/x² 0.00672207085281116, 1/y² 0.00682523332071668.
+  const auto data = xy({1, 2, 3, 4, 5, 6, 7, 8, 9, 10},
+                       {12.357953, 24.703709, 37.049314, 49.394984, 61.740601, 74.086352, 86.432163,
+                        98.777774, 111.123514, 123.469114});
+  struct Case {
+    Weighting weighting;
+    double pw;
+  };
+  for (const Case& c :
+       {Case{Weighting::None, 0.49818227206653}, Case{Weighting::InvX2, 0.00672207085281116},
+        Case{Weighting::InvY2, 0.00682523332071668}}) {
+    INFO(cw::fitting::to_string(c.weighting));
+    const FitResult f = fit(Model::Linear, c.weighting, data);
+    REQUIRE(f.mandel.has_value());
+    CHECK_THAT(f.mandel->test_value, WithinRel(c.pw, 1e-11));
+    // The fields stay consistent with their definitions: DS² = PW·s_y2², s_y1 = s_y/x.
+    CHECK_THAT(f.mandel->ds2,
+               WithinRel(f.mandel->test_value * f.mandel->s_y2 * f.mandel->s_y2, 1e-15));
+    CHECK_THAT(f.mandel->s_y1, WithinRel(f.residual_sd, 1e-15));
+    CHECK(f.mandel->linear_adequate);
+  }
 }
