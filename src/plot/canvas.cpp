@@ -70,7 +70,15 @@ struct Canvas::Impl {
                                      font.italic ? PANGO_STYLE_ITALIC : PANGO_STYLE_NORMAL);
     pango_layout_set_font_description(layout, description);
     pango_font_description_free(description);
-    pango_layout_set_text(layout, text.c_str(), -1);
+    // Text arrives as UTF-8; a stray invalid byte is shown as U+FFFD rather than making pango
+    // complain on stderr.
+    if (g_utf8_validate(text.c_str(), static_cast<gssize>(text.size()), nullptr)) {
+      pango_layout_set_text(layout, text.c_str(), static_cast<int>(text.size()));
+    } else {
+      gchar* valid = g_utf8_make_valid(text.c_str(), static_cast<gssize>(text.size()));
+      pango_layout_set_text(layout, valid, -1);
+      g_free(valid);
+    }
     pango_layout_set_alignment(layout, h == Align::Start    ? PANGO_ALIGN_LEFT
                                        : h == Align::Centre ? PANGO_ALIGN_CENTER
                                                             : PANGO_ALIGN_RIGHT);

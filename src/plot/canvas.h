@@ -28,9 +28,6 @@ struct Rect {
   double bottom() const { return y + h; }
   double centre_x() const { return x + w / 2; }
   double centre_y() const { return y + h / 2; }
-  bool intersects(const Rect& o) const {
-    return x < o.right() && o.x < right() && y < o.bottom() && o.y < bottom();
-  }
   bool contains(const Rect& o) const {
     return o.x >= x && o.y >= y && o.right() <= right() && o.bottom() <= bottom();
   }
@@ -138,7 +135,6 @@ class Occupancy {
   void add(const Rect& r) { taken_.push_back(r); }
   /// Total area of `r` that overlaps what has been added.
   double overlap(const Rect& r) const;
-  bool is_free(const Rect& r) const { return overlap(r) <= 0; }
 
  private:
   std::vector<Rect> taken_;

@@ -276,6 +276,14 @@ TEST_CASE("render_curve_plot: a curve without points still draws its function", 
   CHECK(count_svg_markers(svg) == 0);
 }
 
+TEST_CASE("render_curve_plot: text that is not UTF-8 is drawn, not refused", "[plot]") {
+  CurvePlot plot = make_curve({kFiveLevels, 1, Model::Linear});
+  plot.analyte = "nitr\xe9te";  // Latin-1 é
+  const std::string path = out_path("curve-latin1.svg");
+  render_curve_plot(plot, path);
+  CHECK(xml_problem(read_bytes(path), "svg").empty());
+}
+
 TEST_CASE("render_curve_plot: the PNG follows the page size", "[plot]") {
   CurvePlot plot = make_curve({kFiveLevels, 1, Model::Linear});
   plot.page.width = 1200;
