@@ -353,10 +353,14 @@ class ControlChartDrawing {
       const std::size_t every =
           std::max<std::size_t>(1, static_cast<std::size_t>(std::ceil((widest + 14) / spacing)));
       const Stroke tick{1, detail::kFrameInk, {}};
+      // Short ticks at the unlabelled points, unless they would merge into a solid band.
+      const bool minor_ticks = spacing >= 4;
       for (std::size_t k = 0; k < n; ++k) {
         const double px = x_.at(static_cast<double>(k));
         const bool labelled = k % every == 0;
-        canvas_tick(px, labelled ? detail::kTickLength : detail::kTickLength / 2, tick);
+        if (labelled || minor_ticks) {
+          canvas_tick(px, labelled ? detail::kTickLength : detail::kTickLength / 2, tick);
+        }
         if (!labelled) continue;
         const Rect r =
             c_.text(ch_.points[order_[k]].when, px, area_.bottom() + detail::kTickLength + 2,
@@ -364,8 +368,9 @@ class ControlChartDrawing {
         labels_bottom = std::max(labels_bottom, r.bottom());
       }
     }
-    c_.text(ch_.time_label, area_.centre_x(), labels_bottom + 5, detail::kAxisTitleFont,
-            Align::Centre, Align::Start);
+    c_.text(axis_title(ch_.time_label, "", numeric_time_ ? x_ticks_.labels.exponent : 0),
+            area_.centre_x(), labels_bottom + 5, detail::kAxisTitleFont, Align::Centre,
+            Align::Start);
     const double title_x = detail::kMargin + c_.measure("Ag", detail::kAxisTitleFont).h / 2;
     c_.vertical_text(axis_title(ch_.unit, "", y_ticks_.labels.exponent), title_x, area_.centre_y(),
                      detail::kAxisTitleFont);
@@ -391,9 +396,12 @@ class ControlChartDrawing {
     }
   }
 
-  // The rule tokens of each flagged point, placed at the candidate position that covers the
-  // least: markers and labels already placed weigh most, then the series line, then the limit
-  // lines; nearer candidates win ties. A token moved away from its point gets a leader line.
+  // Rule tokens. Consecutive points (in time order) flagged with the same tokens form a run,
+  // labelled once at its first point ("1-3s (4 in a row)"). A label goes to the first free spot
+  // around its point, trying eight directions at growing distances: free means inside the frame
+  // and covering no marker and no other label; among free spots, those crossing the series line
+  // or a limit line cost more. A label moved away from its point gets a leader line; one that
+  // finds no free spot is left out and counted in a note above the frame.
   void draw_tokens() {
     std::vector<Point> series;
     for (std::size_t i : order_) series.push_back(at_[i]);
@@ -401,37 +409,48 @@ class ControlChartDrawing {
                                y_.at(ch_.low_2s), y_.at(ch_.low_3s)};
     const Rect inside = area_.inflated(-2);
 
-    for (std::size_t i : order_) {
+    std::vector<std::pair<std::size_t, std::size_t>> runs;  // (first point, length)
+    for (std::size_t k = 0; k < order_.size(); ++k) {
+      const std::size_t i = order_[k];
       if (severity_[i] == Severity::None) continue;
+      if (k > 0) {
+        const std::size_t previous = order_[k - 1];
+        if (severity_[previous] == severity_[i] && tokens_[previous] == tokens_[i]) {
+          ++runs.back().second;
+          continue;
+        }
+      }
+      runs.emplace_back(i, 1);
+    }
+
+    std::size_t omitted = 0;
+    for (const auto& [i, count] : runs) {
       const Rgb ink = severity_[i] == Severity::Rejection ? detail::kAlertInk : detail::kWarningInk;
-      const Rect size = c_.measure(tokens_[i], detail::kLabelFont);
+      const std::string text =
+          tokens_[i] + (count > 1 ? " (" + std::to_string(count) + " in a row)" : "");
+      const Rect size = c_.measure(text, detail::kLabelFont);
       const double w = size.w + 4, h = size.h + 2;  // with a thin white margin
       const Point p = at_[i];
       const bool above_first = ch_.points[i].recovery_pct >= ch_.mean;
 
       double best_cost = 1e300;
       Rect best{};
-      bool best_far = false;
-      const double distances[] = {8, 18, 30};
-      for (std::size_t d = 0; d < 3; ++d) {
-        const double r = distances[d];
+      double best_distance = 0;
+      for (double r : {8.0, 18.0, 30.0, 46.0}) {
         const Rect up{p.x - w / 2, p.y - r - h, w, h};
         const Rect down{p.x - w / 2, p.y + r, w, h};
+        const double near_y = above_first ? p.y - r * 0.7 - h : p.y + r * 0.7;
+        const double far_y = above_first ? p.y + r * 0.7 : p.y - r * 0.7 - h;
         const Rect candidates[] = {
-            above_first ? up : down,
-            above_first ? down : up,
-            {p.x + r, p.y - h / 2, w, h},
-            {p.x - r - w, p.y - h / 2, w, h},
-            {p.x + r * 0.7, above_first ? p.y - r * 0.7 - h : p.y + r * 0.7, w, h},
-            {p.x - r * 0.7 - w, above_first ? p.y - r * 0.7 - h : p.y + r * 0.7, w, h},
-            {p.x + r * 0.7, above_first ? p.y + r * 0.7 : p.y - r * 0.7 - h, w, h},
-            {p.x - r * 0.7 - w, above_first ? p.y + r * 0.7 : p.y - r * 0.7 - h, w, h},
+            above_first ? up : down,       above_first ? down : up,
+            {p.x + r, p.y - h / 2, w, h},  {p.x - r - w, p.y - h / 2, w, h},
+            {p.x + r * 0.7, near_y, w, h}, {p.x - r * 0.7 - w, near_y, w, h},
+            {p.x + r * 0.7, far_y, w, h},  {p.x - r * 0.7 - w, far_y, w, h},
         };
         for (std::size_t k = 0; k < std::size(candidates); ++k) {
           const Rect& box = candidates[k];
-          double cost = static_cast<double>(d) * 40 + static_cast<double>(k);
-          if (!inside.contains(box)) cost += 1e6;
-          cost += taken_.overlap(box) * 100;
+          if (!inside.contains(box) || taken_.overlap(box) > 0) continue;
+          double cost = r * 4 + static_cast<double>(k);
           for (std::size_t s = 1; s < series.size(); ++s) {
             if (segment_hits(box, series[s - 1], series[s])) cost += 30;
           }
@@ -441,19 +460,36 @@ class ControlChartDrawing {
           if (cost < best_cost) {
             best_cost = cost;
             best = box;
-            best_far = d > 0;
+            best_distance = r;
           }
         }
       }
+      if (best_cost >= 1e300) {
+        ++omitted;
+        continue;
+      }
       taken_.add(best);
-      if (best_far) {
+      if (best_distance > 8) {
+        // From the marker's edge to the nearest point of the label.
         const Point to{std::clamp(p.x, best.x, best.right()),
                        std::clamp(p.y, best.y, best.bottom())};
-        c_.line(p, to, {0.7, ink, {}});
+        const double length = std::hypot(to.x - p.x, to.y - p.y);
+        const double start = kFlagRadius * 1.4;
+        if (length > start) {
+          const Point from{p.x + (to.x - p.x) * start / length,
+                           p.y + (to.y - p.y) * start / length};
+          c_.line(from, to, {0.7, ink, {}});
+        }
       }
       c_.fill_rect(best, detail::kWhite);
-      c_.text(tokens_[i], best.centre_x(), best.centre_y(), detail::kLabelFont, Align::Centre,
+      c_.text(text, best.centre_x(), best.centre_y(), detail::kLabelFont, Align::Centre,
               Align::Centre, ink);
+    }
+    if (omitted > 0) {
+      c_.text(std::to_string(omitted) + (omitted == 1 ? " rule label" : " rule labels") +
+                  " left out for lack of room",
+              area_.right(), area_.y - 3, detail::kLabelFont, Align::End, Align::End,
+              detail::gray(0.3));
     }
   }
 

@@ -50,8 +50,10 @@ struct ControlChart {
 /// Draws `chart` and writes it to `path` as SVG, PNG or PDF (by extension; see plot.h): the
 /// points joined in time order (filled circles), the mean as a solid line, ±2s dashed and ±3s
 /// dash-dot, each labelled with its value at the right; a point with a rejecting violation is a
-/// filled diamond, one with only warnings an open triangle, each with its rule tokens placed
-/// beside it without overlapping other labels or points. Throws ValidationError for an unknown
+/// filled diamond, one with only warnings an open triangle. Rule tokens stand beside their point
+/// without overlapping other labels or points; a run of consecutive points with the same tokens
+/// is labelled once ("1-3s (4 in a row)"), and a label with no free spot is left out and counted in
+/// a note. Throws ValidationError for an unknown
 /// extension, a page smaller than 480 × 360, non-finite numbers, limits out of order
 /// (low_3s <= low_2s <= mean <= high_2s <= high_3s), a violation naming no point, or a file that
 /// cannot be written.

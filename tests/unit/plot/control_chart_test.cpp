@@ -41,9 +41,11 @@ ControlChart drifting_check(int n, bool numeric_time) {
   for (int i = 0; i < n; ++i) {
     ControlPoint p;
     p.check_id = "C" + std::to_string(100 + i);
-    const int day = 1 + i / 2;
+    const std::chrono::year_month_day date{std::chrono::sys_days{std::chrono::year{2024} / 3 / 1} +
+                                           std::chrono::days{i / 2}};
     char when[32];
-    std::snprintf(when, sizeof when, "03-%02d %s", day, i % 2 == 0 ? "08:30" : "14:30");
+    std::snprintf(when, sizeof when, "%02u-%02u %s", static_cast<unsigned>(date.month()),
+                  static_cast<unsigned>(date.day()), i % 2 == 0 ? "08:30" : "14:30");
     p.when = when;
     if (numeric_time) p.time = i / 2.0 + (i % 2 == 0 ? 0.35 : 0.6);
     double value = chart.mean + 1.1 * std::sin(i * 2.399963) * s;
@@ -130,6 +132,16 @@ TEST_CASE("render_control_chart: numeric times place the points and order them",
   CHECK(xml_problem(svg, "svg").empty());
   CHECK(count_svg_markers(svg) == 60);
   render_control_chart(chart, out_path("control-60-numeric.png"));
+}
+
+TEST_CASE("render_control_chart: a long series in run order", "[plot]") {
+  const ControlChart chart = drifting_check(240, false);
+  const std::string path = out_path("control-240.svg");
+  render_control_chart(chart, path);
+  CHECK(count_svg_markers(read_bytes(path)) == 240);
+  const std::string png = out_path("control-240.png");
+  render_control_chart(chart, png);
+  CHECK(png_border_is_white(png, 8));
 }
 
 TEST_CASE("render_control_chart: several rules on one point and a chart of no points", "[plot]") {
