@@ -607,30 +607,55 @@ class CurvePlotDrawing {
   std::vector<std::string> fit_lines() const {
     std::vector<std::string> out;
     out.push_back("r\u00b2 = " + format_significant(p_.r2, 6));
-    out.push_back("s(y/x) = " + format_significant(p_.fit.residual_sd) + ", " +
-                  std::to_string(p_.fit.dof) + " degrees of freedom");
+    out.push_back("s(y/x) = " + format_significant(p_.fit.residual_sd) +
+                  ", df = " + std::to_string(p_.fit.dof));
     return out;
   }
 
+  // The key column. The fit in numbers stands at its foot, so that the equation and r² are
+  // always shown; the legend and the exclusions fill the column from the top down to it, and a
+  // final "…" says when something did not fit.
   void draw_key() {
     const double x = key_x_;
     const double text_x = x + kSwatchWidth + 7;
     const double text_w = key_x_ + key_w_ - text_x;
-    const double limit = lower_.bottom();
-    double y = upper_.y;
+
+    struct FitLine {
+      std::string text;
+      detail::Font font;
+      int max_lines;
+      double gap_after;
+    };
+    std::vector<FitLine> fit = {{"Fit", detail::kKeyHeadingFont, 1, 3}};
+    if (!p_.equation.empty()) fit.push_back({p_.equation, detail::kKeyFont, 3, 2});
+    for (const std::string& line : fit_lines()) fit.push_back({line, detail::kKeyFont, 1, 2});
+    double fit_h = 0;
+    for (const FitLine& line : fit) {
+      fit_h += c_.measure(line.text, line.font, {key_w_, line.max_lines != 1, line.max_lines}).h +
+               line.gap_after;
+    }
+    double y = std::max(upper_.y, lower_.bottom() - fit_h);
+    const double fit_top = y;
+    for (const FitLine& line : fit) {
+      const Rect r = c_.text(line.text, x, y, line.font, Align::Start, Align::Start, detail::kBlack,
+                             {key_w_, line.max_lines != 1, line.max_lines});
+      y = r.bottom() + line.gap_after;
+    }
+
+    const double ellipsis_h = c_.measure("\u2026", detail::kKeyFont).h;
+    const double limit = fit_top - 12 - ellipsis_h;  // room kept for the "…"
+    y = upper_.y;
     bool stopped = false;
-    // Draws one text block if it fits above the bottom of the panels.
-    const auto block = [&](const std::string& text, double left, double w, const detail::Font& font,
-                           int max_lines, detail::Rgb ink) {
-      const TextBox box{w, max_lines != 1, max_lines};
+    // Draws one text block if it fits above the limit.
+    const auto block = [&](const std::string& text, const detail::Font& font, int max_lines,
+                           detail::Rgb ink) {
+      const TextBox box{key_w_, max_lines != 1, max_lines};
       const Rect r = c_.measure(text, font, box);
       if (stopped || y + r.h > limit) {
         stopped = true;
-        return Rect{};
+        return;
       }
-      const Rect drawn = c_.text(text, left, y, font, Align::Start, Align::Start, ink, box);
-      y = drawn.bottom();
-      return drawn;
+      y = c_.text(text, x, y, font, Align::Start, Align::Start, ink, box).bottom();
     };
 
     const std::pair<std::string, std::vector<KeyEntry>> sections[] = {
@@ -640,7 +665,7 @@ class CurvePlotDrawing {
     };
     for (const auto& [heading, entries] : sections) {
       if (entries.empty()) continue;
-      block(heading, x, key_w_, detail::kKeyHeadingFont, 1, detail::kBlack);
+      block(heading, detail::kKeyHeadingFont, 1, detail::kBlack);
       y += 3;
       for (const KeyEntry& e : entries) {
         const TextBox box{text_w, true, 2};
@@ -658,16 +683,6 @@ class CurvePlotDrawing {
       y += 8;
     }
 
-    // The fit in numbers.
-    block("Fit", x, key_w_, detail::kKeyHeadingFont, 1, detail::kBlack);
-    y += 3;
-    if (!p_.equation.empty()) block(p_.equation, x, key_w_, detail::kKeyFont, 3, detail::kBlack);
-    y += 2;
-    for (const std::string& line : fit_lines()) {
-      block(line, x, key_w_, detail::kKeyFont, 1, detail::kBlack);
-      y += 2;
-    }
-
     // Excluded points and why.
     std::vector<std::string> excluded;
     for (const CurvePlotPoint& q : p_.points) {
@@ -678,8 +693,7 @@ class CurvePlotDrawing {
       excluded.push_back(line);
     }
     if (!excluded.empty()) {
-      y += 8;
-      block("Excluded", x, key_w_, detail::kKeyHeadingFont, 1, detail::kBlack);
+      block("Excluded", detail::kKeyHeadingFont, 1, detail::kBlack);
       y += 2;
       // When the column runs out, the last line that fits says how many are not listed.
       const double more_h = c_.measure("Ag", detail::kLabelFont).h + 2;
@@ -688,14 +702,17 @@ class CurvePlotDrawing {
         const double h = c_.measure(excluded[i], detail::kLabelFont, box).h + 2;
         const bool last = i + 1 == excluded.size();
         if (stopped || y + h + (last ? 0 : more_h) > limit) {
-          const std::size_t rest = excluded.size() - i;
-          block("and " + std::to_string(rest) + " more", x, key_w_, detail::kLabelFont, 1,
+          block("and " + std::to_string(excluded.size() - i) + " more", detail::kLabelFont, 1,
                 detail::gray(0.2));
           break;
         }
-        block(excluded[i], x, key_w_, detail::kLabelFont, 2, detail::gray(0.2));
+        block(excluded[i], detail::kLabelFont, 2, detail::gray(0.2));
         y += 2;
       }
+    }
+    if (stopped) {
+      c_.text("\u2026", x, std::min(y, limit), detail::kKeyFont, Align::Start, Align::Start,
+              detail::gray(0.3));
     }
   }
 };

@@ -296,6 +296,15 @@ TEST_CASE("render_curve_plot: the PNG follows the page size", "[plot]") {
   CHECK(size->height == 800);
 }
 
+TEST_CASE("render_curve_plot: the smallest page still keeps its margins", "[plot]") {
+  CurvePlot plot = make_curve({kEightLevels, 3, Model::Linear, Weighting::InvX, 0, {{2, 2}}});
+  plot.page.width = 640;
+  plot.page.height = 480;
+  const std::string path = out_path("curve-640x480.png");
+  render_curve_plot(plot, path);
+  CHECK(png_border_is_white(path, 6));
+}
+
 TEST_CASE("render_curve_plot: the format follows the extension in any letter case", "[plot]") {
   const CurvePlot plot = make_curve({kFiveLevels, 1, Model::Linear});
   const std::string path = out_path("curve-upper-case.PNG");
