@@ -168,9 +168,9 @@ class ControlChartDrawing {
     std::string text;
     double value;
   };
-  // One decimal more than the finest tick label, the same for all five lines.
+  // As many decimals as the tick labels, at least one, the same for all five lines.
   std::vector<LineLabel> line_labels() const {
-    const int decimals = std::min(4, y_ticks_.ticks.decimals + 1);
+    const int decimals = std::clamp(y_ticks_.ticks.decimals, 1, 4);
     const auto l = [&](const std::string& name, double v) {
       char text[64];
       std::snprintf(text, sizeof text, "%.*f", decimals, v);

@@ -144,6 +144,15 @@ TEST_CASE("render_control_chart: a long series in run order", "[plot]") {
   CHECK(png_border_is_white(png, 8));
 }
 
+TEST_CASE("render_control_chart: the smallest page still keeps its margins", "[plot]") {
+  ControlChart chart = drifting_check(30, false);
+  chart.page.width = 480;
+  chart.page.height = 360;
+  const std::string path = out_path("control-480x360.png");
+  render_control_chart(chart, path);
+  CHECK(png_border_is_white(path, 6));
+}
+
 TEST_CASE("render_control_chart: several rules on one point and a chart of no points", "[plot]") {
   SECTION("tokens of one point are shown together") {
     ControlChart chart = drifting_check(12, false);
