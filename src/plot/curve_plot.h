@@ -53,15 +53,19 @@ struct CurvePlot {
 /// columns drop the terms a model lacks). 0 when fit.dof < 1.
 double mean_response_half_width(const fitting::FitResult& fit, double x);
 
-/// Draws `plot` and writes it to `path` as SVG, PNG or PDF (by extension; see plot.h). The upper
-/// panel shows the calibrators (replicate 1 filled circle, 2 open circle, 3 open square, 4 and
-/// more open diamond, excluded points a cross), the fitted function over the working range with
-/// its 95 % confidence band for the mean response, the working range shaded, LOD and LOQ as
-/// labelled vertical lines; the lower panel the %RE of each point with a back-calculated value
-/// against the ± acceptance band (points outside their limit ringed). The key, equation, r² and
-/// exclusions stand in a column to the right of the panels, so they never cover data. Throws
-/// ValidationError for an unknown extension, a page smaller than 480 × 360, non-finite numbers,
-/// or a file that cannot be written (no file is left behind then).
+/// Draws `plot` and writes it to `path` as SVG, PNG or PDF (by extension; see plot.h).
+///
+/// Upper panel, against nominal concentration: the calibrators (replicate 1 filled circle, 2 open
+/// circle, 3 open square, 4 and later open diamond, excluded points a cross), the fitted function
+/// over the working range with its 95 % confidence band of the mean response, the working range
+/// shaded, LOD and LOQ as labelled vertical lines. Lower panel, one evenly spaced slot per
+/// calibration level (labelled with its nominal concentration and level name): the %RE of each
+/// point that has one, replicates side by side, against the ± acceptance band and the
+/// lowest-level limit; points outside their limit are ringed, values beyond the axis pinned to
+/// its edge with an arrowhead. A column to the right holds the legend and the exclusions with
+/// their reasons (from the top) and the equation, r² and s(y/x) (at the foot), so no text covers
+/// data. Throws ValidationError for an unknown extension, a page smaller than 480 × 360,
+/// non-finite numbers, or a file that cannot be written (no file is left behind then).
 void render_curve_plot(const CurvePlot& plot, const std::string& path);
 
 }  // namespace cw::plot
