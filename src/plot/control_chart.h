@@ -14,7 +14,7 @@ namespace cw::plot {
 
 /// One check result on the chart.
 struct ControlPoint {
-  std::string check_id;  ///< the check's id as people see it
+  std::string check_id;  ///< the check's id as people see it (carried for tracing; not drawn)
   /// The instant as display text (e.g. "03-14 09:30", already in the lab's zone); labels the
   /// time axis when the points have no numeric time.
   std::string when;
