@@ -1,0 +1,113 @@
+// SPDX-License-Identifier: Apache-2.0
+// The command table is the one description of the command line: every command is reachable,
+// has a summary, every option has help text, the README lists every command, and
+// `curvewarden help COMMAND` prints the same help as `COMMAND --help`.
+#include <catch2/catch.hpp>
+#include <fstream>
+#include <set>
+#include <sstream>
+#include <string>
+
+#include "cli/cli_app.h"
+#include "cli/command_table.h"
+
+namespace {
+
+std::string readme() {
+  std::ifstream in(CW_README);
+  std::stringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+struct Output {
+  int code;
+  std::string out, err;
+};
+
+Output run(const std::vector<std::string>& args) {
+  std::ostringstream out, err;
+  const int code = cw::cli::run_cli(args, out, err);
+  return {code, out.str(), err.str()};
+}
+
+std::vector<std::string> words(std::string_view path) {
+  std::vector<std::string> out;
+  std::istringstream in{std::string(path)};
+  for (std::string w; in >> w;) out.push_back(w);
+  return out;
+}
+
+}  // namespace
+
+TEST_CASE("command table: every command has a summary and every option help text", "[cli]") {
+  std::set<std::string_view> paths;
+  for (const auto& c : cw::cli::command_table()) {
+    INFO("command: " << c.path);
+    CHECK(paths.insert(c.path).second);
+    CHECK(c.summary.size() >= 10);
+    for (const auto& o : c.options) {
+      INFO("option: " << o.name);
+      CHECK(o.help.size() >= 5);
+      if (o.kind == cw::cli::OptionKind::Value || o.kind == cw::cli::OptionKind::Repeated) {
+        CHECK_FALSE(o.value_name.empty());
+        CHECK(o.name.substr(0, 2) == "--");
+      }
+      if (o.kind == cw::cli::OptionKind::Flag) CHECK(o.name.substr(0, 2) == "--");
+    }
+  }
+  for (const auto& g : cw::cli::global_options()) {
+    INFO("global option: " << g.name);
+    CHECK(g.help.size() >= 5);
+  }
+}
+
+TEST_CASE("command table: groups lead to commands and every command has a handler", "[cli]") {
+  for (const auto& c : cw::cli::command_table()) {
+    INFO("command: " << c.path);
+    const auto w = words(c.path);
+    if (w.size() > 1) {
+      const auto* parent = cw::cli::find_command(w.front());
+      REQUIRE(parent != nullptr);
+      CHECK(parent->handler == nullptr);  // a group
+    }
+    bool has_children = false;
+    for (const auto& other : cw::cli::command_table()) {
+      has_children =
+          has_children || (other.path.size() > c.path.size() &&
+                           other.path.substr(0, c.path.size() + 1) == std::string(c.path) + " ");
+    }
+    // A command runs a handler, a group has commands; `help` is handled by the runner.
+    if (c.path != "help") CHECK((c.handler != nullptr) != has_children);
+  }
+}
+
+TEST_CASE("command table: the README lists every command", "[cli]") {
+  const std::string text = readme();
+  REQUIRE_FALSE(text.empty());
+  for (const auto& c : cw::cli::command_table()) {
+    if (c.handler == nullptr && c.path != "help") continue;  // groups
+    INFO("command: " << c.path);
+    CHECK_THAT(text, Catch::Contains("`" + std::string(c.path)));
+  }
+}
+
+TEST_CASE("command table: help COMMAND is COMMAND --help", "[cli]") {
+  for (const auto& c : cw::cli::command_table()) {
+    if (c.path == "help") continue;
+    INFO("command: " << c.path);
+    auto args = words(c.path);
+    std::vector<std::string> help_args = {"help"};
+    help_args.insert(help_args.end(), args.begin(), args.end());
+    args.push_back("--help");
+    const Output via_help = run(help_args);
+    const Output direct = run(args);
+    CHECK(via_help.code == 0);
+    CHECK(via_help.out == direct.out);
+    CHECK_THAT(via_help.out, Catch::Contains(std::string(c.summary)));
+    for (const auto& o : c.options) CHECK_THAT(via_help.out, Catch::Contains(std::string(o.name)));
+  }
+  const Output top = run({"help"});
+  CHECK(top.code == 0);
+  CHECK_THAT(top.out, Catch::Contains("supports your quality system"));
+}

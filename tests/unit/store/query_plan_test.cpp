@@ -1,0 +1,53 @@
+// SPDX-License-Identifier: Apache-2.0
+// The statements the SQLite backend runs for lookups by curve, group, instrument, expiry and lot
+// use their indexes: EXPLAIN QUERY PLAN on the very constants of store/sqlite/sql.h that the
+// repositories execute, so that a change to a statement cannot slip past this test.
+#include <catch2/catch.hpp>
+#include <string>
+#include <vector>
+
+#include "store/sqlite/diagnostics.h"
+#include "store/sqlite/sql.h"
+#include "store/store.h"
+#include "store_test_support.h"
+
+namespace sql = cw::store::sqlite::sql;
+
+TEST_CASE("store: every per-curve and per-group lookup searches an index", "[store]") {
+  cw::store_test::TempDir tmp;
+  cw::store::OpenOptions options;
+  options.location = (tmp / "plans.db").string();
+  options.create = true;
+  auto store = cw::store::Store::open(options);
+
+  struct Expectation {
+    const char* name;
+    const char* sql;
+    const char* index;  ///< must appear in the plan
+    const char* table;  ///< must not be scanned in full
+  };
+  const std::vector<Expectation> expected = {
+      {"expiring", sql::kCurvesExpiringBetween, "curves_by_expiry", "curves"},
+      {"live in group", sql::kLiveInGroup, "curves_by_group", "curves"},
+      {"latest in group", sql::kLatestInGroup, "curves_by_group", "curves"},
+      {"live of instrument", sql::kLiveOfInstrument, "curves_by_instrument", "curves"},
+      {"curves of a calibration", sql::kCurvesOfCalibration, "curves_by_calibration", "curves"},
+      {"curves of a lot", sql::kCurvesOfLot, "calibration_lots_by_lot", "calibration_lots"},
+      {"checks of curves", sql::kChecksOf, "checks_by_curve", "checks"},
+      {"results of curves", sql::kResultsOf, "results_by_curve", "results"},
+      {"reported results of a curve", sql::kReportedBetween, "results_by_curve", "results"},
+      {"reviews of curves", sql::kReviewsOf, "curve_reviews_by_curve", "curve_reviews"},
+      {"retirements of curves", sql::kRetirementsOf, "curve_retirements_by_curve",
+       "curve_retirements"},
+      {"points of curves", sql::kPointsOf, "sqlite_autoindex_curve_points", "curve_points"},
+      {"service events of instruments", sql::kServiceEventsOf,
+       "instrument_service_events_by_instrument", "instrument_service_events"},
+  };
+  for (const auto& e : expected) {
+    INFO(e.name);
+    const std::string plan = cw::store::sqlite::query_plan(*store, e.sql);
+    INFO("plan:\n" << plan);
+    CHECK_THAT(plan, Catch::Contains(e.index));
+    CHECK_THAT(plan, !Catch::Contains("SCAN " + std::string(e.table) + "\n"));
+  }
+}
