@@ -196,14 +196,22 @@ std::optional<LabZone> Invocation::optional_zone(std::string_view option) const 
 std::string Invocation::path(std::string_view option) const {
   const std::string* raw = single(option);
   if (!raw) throw UsageError(std::string(option) + " is required");
-  if (raw->empty()) {
-    throw UsageError(std::string(option) + " is empty", "give the path of a file");
-  }
-  if (raw->size() > kMaxLocationBytes) {
-    throw UsageError(std::string(option) + " is longer than " + std::to_string(kMaxLocationBytes) +
-                     " bytes");
-  }
-  return *raw;
+  return naming(option, [&] {
+    if (raw->empty())
+      throw UsageError(std::string(option) + " is empty", "give the path of a file");
+    if (raw->size() > kMaxLocationBytes) {
+      throw UsageError(std::string(option) + " is longer than " +
+                       std::to_string(kMaxLocationBytes) + " bytes");
+    }
+    // The path is kept with what is read from it (calibrations record their points file), so it
+    // obeys the rules of stored text: UTF-8, no control characters, nothing to trim.
+    const std::string clean = clean_text(*raw, option, kMaxLocationBytes);
+    if (clean != *raw) {
+      throw ValidationError(std::string(option) + " '" + *raw + "' begins or ends with spaces",
+                            "give the path without surrounding spaces");
+    }
+    return *raw;
+  });
 }
 
 bool Invocation::either(std::string_view first, std::string_view second) const {
