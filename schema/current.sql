@@ -237,7 +237,7 @@ CREATE TABLE lots (
   certificate   TEXT,
   registered_at TEXT    NOT NULL,
   audit_seq     INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
-) STRICT;
+, coverage_factor REAL CHECK (coverage_factor IS NULL OR coverage_factor > 0)) STRICT;
 
 -- table method_versions
 CREATE TABLE method_versions (
@@ -301,7 +301,7 @@ CREATE TABLE results (
   analyst           TEXT    NOT NULL,
   occurred_at       TEXT    NOT NULL,
   audit_seq         INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
-) STRICT;
+, censored TEXT CHECK (censored IS NULL OR censored = '<'), reporting_limit REAL, computed_concentration REAL, uncertainty TEXT) STRICT;
 
 -- table schema_migrations
 CREATE TABLE schema_migrations (
@@ -463,4 +463,4 @@ BEGIN SELECT RAISE(ABORT, 'schema_migrations is append-only: rows cannot be dele
 CREATE TRIGGER schema_migrations_no_update BEFORE UPDATE ON schema_migrations
 BEGIN SELECT RAISE(ABORT, 'schema_migrations is append-only: rows cannot be changed'); END;
 
-PRAGMA user_version = 4;
+PRAGMA user_version = 5;

@@ -140,7 +140,8 @@ QuantifyOutcome quantify(Session& s, const QuantifyRequest& r) {
       require_acquired(at, c, s.zone());
       const MethodVersion& version = facts.version_of(*chosen);
       const CurveStatus status = facts.status(*chosen, at);
-      decision = decide_quantitation(c, status, version.definition, r.reading);
+      decision =
+          decide_quantitation(c, status, version.definition, facts.lots_of(*chosen), r.reading);
       result.curve_id = *chosen;
       out.unit = version.definition.unit;
       out.method_version = version.version;
@@ -157,6 +158,10 @@ QuantifyOutcome quantify(Session& s, const QuantifyRequest& r) {
     result.ci_high = decision.ci_high;
     result.flags = decision.flags;
     result.reasons = decision.reasons;
+    result.censored = decision.censored;
+    result.reporting_limit = decision.reporting_limit;
+    result.computed_concentration = decision.computed_concentration;
+    result.uncertainty = decision.uncertainty;
     out.reporting_limit = decision.reporting_limit;
     out.suggested_dilution = decision.suggested_dilution;
   }

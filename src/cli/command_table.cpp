@@ -114,6 +114,8 @@ const std::vector<CommandSpec>& command_table() {
         value("--opened", "DATE", "Date the lot was opened, YYYY-MM-DD"),
         value("--in-use-days", "N", "Days the opened lot may be used (1 to 36500)"),
         value("--certificate", "TEXT", "Certificate number or reference"),
+        value("--coverage-factor", "K",
+              "Coverage factor of the certified uncertainties (U = k·u; default 2)"),
         repeated("--value", "ANALYTE=CONC[±U]",
                  "Certified value, e.g. nitrate=1000±5; repeat for each analyte", true)},
        true,

@@ -167,6 +167,14 @@ int lot_add(Invocation& in) {
     lot.in_use_days = static_cast<int>(*days);
   }
   lot.certificate = in.optional_text("--certificate", kMaxNameChars);
+  if (auto k = in.optional_number("--coverage-factor")) {
+    if (!(*k >= 1 && *k <= 10)) {
+      throw option_error("--coverage-factor",
+                         "--coverage-factor must lie between 1 and 10, got " + format_shortest(*k),
+                         "certificates usually state k = 2 (about 95 %)");
+    }
+    lot.coverage_factor = *k;
+  }
   std::set<std::string> seen;
   for (const auto& text : in.values("--value")) {
     CertifiedValue v;

@@ -6,6 +6,7 @@
 #include <charconv>
 #include <cmath>
 #include <cstdio>
+#include <cstdlib>
 
 #include "core/clean_text.h"
 #include "core/error.h"
@@ -141,6 +142,40 @@ std::string format_fixed(double value, int decimals) {
   char buf[64];
   std::snprintf(buf, sizeof buf, "%.*f", decimals, value);
   return buf;
+}
+
+namespace {
+
+int side(double value, double reference) {
+  return (value > reference) - (value < reference);
+}
+
+template <class Format>
+std::string format_against(double value, std::initializer_list<double> references, int from, int to,
+                           Format format) {
+  if (!std::isfinite(value)) return format(value, from);
+  for (int d = from; d <= to; ++d) {
+    const std::string text = format(value, d);
+    const double shown = std::strtod(text.c_str(), nullptr);
+    bool same = true;
+    for (double ref : references) same = same && side(shown, ref) == side(value, ref);
+    if (same) return text;
+  }
+  return format_shortest(value);
+}
+
+}  // namespace
+
+std::string format_fixed_against(double value, std::initializer_list<double> references,
+                                 int min_decimals) {
+  return format_against(value, references, min_decimals, 15,
+                        [](double v, int d) { return format_fixed(v, d); });
+}
+
+std::string format_sig_against(double value, std::initializer_list<double> references,
+                               int min_digits) {
+  return format_against(value, references, min_digits, 17,
+                        [](double v, int d) { return format_sig(v, d); });
 }
 
 std::string quote(std::string_view s) {

@@ -3,6 +3,7 @@
 // and number formatting with significant figures.
 #pragma once
 
+#include <initializer_list>
 #include <optional>
 #include <string>
 #include <string_view>
@@ -36,6 +37,15 @@ std::string format_plain(double value, int digits = 10);
 std::string format_shortest(double value);
 /// `value` with a fixed number of decimals.
 std::string format_fixed(double value, int decimals);
+/// `value` with at least `min_decimals` decimals and as many more as it takes for the printed
+/// figure to stand on the same side of every reference (a limit, 1 for r²) as the value itself:
+/// r² 0.999999619 against a limit of 0.9999999 prints "0.9999996", never "1.000000"; a %RE of
+/// 15.03 against 15 prints "15.03". At most 15 decimals.
+std::string format_fixed_against(double value, std::initializer_list<double> references,
+                                 int min_decimals);
+/// The same with significant figures (at least `min_digits`): "about 50.04 mg/L, above 50".
+std::string format_sig_against(double value, std::initializer_list<double> references,
+                               int min_digits);
 /// Wraps `s` in single quotes (user values in messages).
 std::string quote(std::string_view s);
 

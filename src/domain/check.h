@@ -44,6 +44,19 @@ std::string_view to_string(ResultFlag f);  // "below-range"
 std::optional<ResultFlag> parse_result_flag(std::string_view text);
 std::vector<ResultFlag> all_result_flags();
 
+/// The uncertainty budget of a reported value (Eurachem/CITAC QUAM 3rd ed. 2012): relative
+/// standard uncertainties combined as the root sum of squares and expanded with k.
+struct ResultUncertainty {
+  struct Component {
+    std::string source;  ///< "calibration", "lot CRM-1", "dilution"
+    double relative_u = 0;
+  };
+  std::vector<Component> components;
+  double combined = 0;  ///< u_c, in the unit of the result
+  double expanded = 0;  ///< U = k·u_c
+  double k = 2;
+};
+
 struct Result {
   ResultId id;
   std::string sample;
@@ -63,6 +76,12 @@ struct Result {
   std::optional<double> ci_high;
   std::vector<ResultFlag> flags;
   std::vector<Finding> reasons;  ///< why it was refused, each with its facts
+  /// Released as "< reporting_limit" (concentration and interval absent); the computed value is
+  /// kept in computed_concentration for the record.
+  bool censored = false;
+  std::optional<double> reporting_limit;         ///< the limit times the dilution factor
+  std::optional<double> computed_concentration;  ///< censored: what was computed, not released
+  std::optional<ResultUncertainty> uncertainty;  ///< reported values
   std::string analyst;
   Instant occurred_at;
 

@@ -38,7 +38,14 @@ Check judge_check(const CheckReading& reading, const fitting::FitResult& fit,
                          "a blank has nominal 0; leave out " + labels.nominal + " or give 0");
     }
     k.nominal = 0;
-    k.limit_high = method.check.blank_limit ? *method.check.blank_limit : fit.lod;
+    // The method's blank limit, else the LOD of the method's limit definition.
+    if (method.check.blank_limit) {
+      k.limit_high = *method.check.blank_limit;
+    } else if (const auto limits = fitting::reporting_limits(fit, method.calibration.limits)) {
+      k.limit_high = limits->lod;
+    } else {
+      k.limit_high = fit.lod;
+    }
   }
   k.measured = fitting::back_calculate(fit, y);
   if (k.measured) {

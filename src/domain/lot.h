@@ -30,6 +30,9 @@ struct Lot {
   std::optional<CalendarDate> opened_on;
   std::optional<int> in_use_days;  ///< usable for this many days after opening
   std::optional<std::string> certificate;
+  /// Coverage factor k of the certified uncertainties (U = k·u); nullopt means k = 2, the usual
+  /// certificate statement for about 95 % (Eurachem/CITAC QUAM 3rd ed. 2012).
+  std::optional<double> coverage_factor;
   std::vector<CertifiedValue> values;
   Instant registered_at;
   std::optional<LotWithdrawal> withdrawal;
@@ -46,6 +49,7 @@ struct Lot {
   bool is_expired_at(Instant t, const LabZone& zone) const { return t >= expiry_instant(zone); }
   bool is_withdrawn_at(Instant t) const { return withdrawal && withdrawal->occurred_at <= t; }
   const CertifiedValue* value_for(const std::string& analyte) const;
+  double coverage() const { return coverage_factor.value_or(2.0); }
 };
 
 /// Parses a certified value as written on the command line: "ANALYTE=CONC", "ANALYTE=CONC±U" or

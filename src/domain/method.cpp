@@ -6,8 +6,24 @@
 
 #include "core/error.h"
 #include "core/number.h"
+#include "domain/enum_text.h"
 
 namespace cw {
+namespace {
+
+constexpr std::pair<ReportLimit, std::string_view> kReportLimits[] = {
+    {ReportLimit::LowestCalibrator, "lowest-calibrator"},
+    {ReportLimit::Loq, "loq"},
+    {ReportLimit::Lod, "lod"}};
+
+}  // namespace
+
+std::string_view to_string(ReportLimit r) {
+  return text_of(kReportLimits, r);
+}
+std::optional<ReportLimit> parse_report_limit(std::string_view text) {
+  return value_of(kReportLimits, text);
+}
 
 fitting::AcceptanceCriteria CalibrationRules::acceptance_criteria() const {
   fitting::AcceptanceCriteria c;

@@ -13,6 +13,13 @@
 
 namespace cw {
 
+/// What a result must reach to be released as a number: below it a result is censored
+/// ("< limit"). The lowest calibrator by default (never extrapolate below the range); a method may
+/// report down to its limit of quantitation or of detection instead.
+enum class ReportLimit { LowestCalibrator, Loq, Lod };
+std::string_view to_string(ReportLimit r);  // "lowest-calibrator" | "loq" | "lod"
+std::optional<ReportLimit> parse_report_limit(std::string_view text);
+
 /// [calibration] of a method file.
 struct CalibrationRules {
   fitting::Model model = fitting::Model::Linear;
@@ -25,6 +32,9 @@ struct CalibrationRules {
   std::optional<double> max_rf_rsd_pct;
   Duration valid_for;
   bool review_required = true;
+  /// Which definition of LOD and LOQ the method reports with and judges blanks by.
+  fitting::LimitDefinition limits = fitting::LimitDefinition::IchQ2;
+  ReportLimit report_limit = ReportLimit::LowestCalibrator;
 
   fitting::AcceptanceCriteria acceptance_criteria() const;
 };
@@ -38,6 +48,13 @@ struct CheckRules {
   std::optional<double> blank_limit;     ///< blank passes below this (else below the LOD)
 };
 
+/// [uncertainty] of a method file: components of a result's budget the method declares.
+struct UncertaintyRules {
+  /// Relative standard uncertainty of a dilution factor, in percent (applied when the dilution
+  /// factor is not 1).
+  std::optional<double> dilution_pct;
+};
+
 /// The content of one method file.
 struct MethodDefinition {
   std::string code;
@@ -47,6 +64,7 @@ struct MethodDefinition {
   std::optional<std::string> internal_standard;
   CalibrationRules calibration;
   CheckRules check;
+  UncertaintyRules uncertainty;
 
   bool has_analyte(const std::string& name) const;
   /// The response on the fitted scale: `response`, or `response / is_response` when the method

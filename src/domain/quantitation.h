@@ -1,7 +1,8 @@
 // SPDX-License-Identifier: Apache-2.0
 // The quantitation decision (product.md §5.3): given a curve, its state at the moment and a
-// reading, whether a value may be reported, the value with its interval, its flags, or every
-// reason for a refusal. Pure: the caller loads the facts and records the outcome.
+// reading, whether a value may be reported, the value with its interval and uncertainty budget,
+// whether it is censored ("< limit"), its flags, or every reason for a refusal. Pure: the caller
+// loads the facts and records the outcome.
 #pragma once
 
 #include <optional>
@@ -12,6 +13,7 @@
 #include "domain/check_judgement.h"
 #include "domain/curve.h"
 #include "domain/curve_state.h"
+#include "domain/lot.h"
 #include "domain/method.h"
 
 namespace cw {
@@ -21,29 +23,47 @@ struct QuantitationReading {
   double response = 0;  ///< the mean of the m readings
   std::optional<double> is_response;
   int replicates = 1;   ///< m, the number of readings the response is the mean of
-  double dilution = 1;  ///< multiplies the concentration and its interval
+  double dilution = 1;  ///< multiplies the concentration, its interval and its limit
 };
 
 struct QuantitationDecision {
   ResultStatus status = ResultStatus::Refused;
-  std::optional<double> x0;                              ///< instrument-level concentration
+  std::optional<double> x0;  ///< instrument-level concentration (the estimate, when there is one)
   std::optional<double> sd_x0;                           ///< its standard deviation (s_x0)
-  std::optional<double> concentration, ci_low, ci_high;  ///< x0 and its interval × dilution
+  std::optional<double> concentration, ci_low, ci_high;  ///< released value and interval × dilution
   std::vector<ResultFlag> flags;
-  std::vector<Finding> reasons;              ///< every reason for a refusal
-  std::optional<double> reporting_limit;     ///< below the range: the limit × dilution
-  std::optional<double> suggested_dilution;  ///< above the range: a usual dilution factor
+  std::vector<Finding> reasons;                  ///< every reason for a refusal
+  bool censored = false;                         ///< released as "< reporting_limit"
+  std::optional<double> reporting_limit;         ///< censored: the limit × dilution
+  std::optional<double> computed_concentration;  ///< censored: x0 × dilution, for the record
+  std::optional<ResultUncertainty> uncertainty;  ///< reported, uncensored values
+  std::optional<double> suggested_dilution;      ///< above the range: a usual dilution factor
 };
 
-/// Decides a quantitation on `curve` (made under `method`) whose state at the moment is `status`.
-/// Refused with every blocking reason unless the curve is active; refused as above-range when x0
-/// exceeds the highest calibrator ("dilute and re-run", with a suggested factor); refused as
-/// no-solution when the response cannot be read on the curve; reported with the below-range flag
-/// and its reporting limit below the lowest calibrator. Throws ValidationError (naming the labels)
-/// for a reading that is bad input: an internal-standard response missing or out of place, or a
-/// concentration that overflows once multiplied by the dilution factor.
+/// The concentration a result must reach to be released as a number on `curve` under `method`
+/// (ReportLimit): the lowest non-zero fitted calibrator, or the reporting LOQ or LOD of the
+/// method's limit definition.
+double release_limit(const Curve& curve, const MethodDefinition& method);
+
+/// Decides a quantitation on `curve` (made under `method` from `lots`) whose state at the moment is
+/// `status`:
+/// - refused with every blocking reason unless the curve is active;
+/// - refused as above-range when the estimate exceeds the highest calibrator ("dilute and re-run",
+///   with a suggested factor);
+/// - censored below the release limit (release_limit()): released as "< limit × dilution", never
+///   as a bare or negative number, the estimate kept for the record; a response below the
+///   curve's response at its lowest calibrator is censored even when it has no solution on the
+///   curve (a blank: a zero response under 1/x weighting);
+/// - refused as no-solution when the response cannot be read on the curve otherwise;
+/// - otherwise reported with its 95 % interval and its uncertainty budget: the calibration
+///   (s_x0/x0), each lot's certified value for the analyte (U/(k·value)), and the dilution (the
+///   method's dilution_pct, when the factor is not 1), combined as the root sum of squares and
+///   expanded with k = 2 (Eurachem/CITAC QUAM 3rd ed. 2012). The flag below-range marks a value
+///   released below the lowest calibrator (a method that reports down to its LOQ or LOD).
+/// Throws ValidationError (naming the labels) for a reading that is bad input.
 QuantitationDecision decide_quantitation(const Curve& curve, const CurveStatus& status,
                                          const MethodDefinition& method,
+                                         const std::vector<const Lot*>& lots,
                                          const QuantitationReading& reading,
                                          const ReadingLabels& labels = {});
 

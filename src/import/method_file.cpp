@@ -199,7 +199,7 @@ class TableReader {
 CalibrationRules read_calibration(const TableReader& r) {
   r.allow_only({"model", "weighting", "min_levels", "min_r2", "max_error_pct",
                 "max_error_pct_lowest", "min_levels_within", "max_rf_rsd_pct", "valid_for",
-                "review_required"});
+                "review_required", "limits", "report_limit"});
   CalibrationRules c;
   const std::string model = r.required_string("model");
   if (auto m = fitting::parse_model(model)) {
@@ -252,7 +252,41 @@ CalibrationRules read_calibration(const TableReader& r) {
   if (!valid_for) r.fail_missing("valid_for");
   c.valid_for = *valid_for;
   c.review_required = r.optional_bool("review_required").value_or(true);
+  if (auto limits = r.optional_string("limits")) {
+    if (auto d = fitting::parse_limit_definition(*limits)) {
+      c.limits = *d;
+    } else {
+      r.fail(*r.find("limits"), "limits",
+             "key " + quote(r.dotted("limits")) + " has unknown definition " + quote(*limits),
+             "use ich-q2 (ICH Q2: 3.3σ/S and 10σ/S) or din-32645 (DIN 32645 calibration method)");
+    }
+    if (c.limits == fitting::LimitDefinition::Din32645 &&
+        (c.model != fitting::Model::Linear || c.weighting != fitting::Weighting::None)) {
+      r.fail(*r.find("limits"), "limits",
+             "key " + quote(r.dotted("limits")) +
+                 ": the DIN 32645 calibration method applies to an unweighted straight line "
+                 "(model linear, weighting none)",
+             "use ich-q2 with this model and weighting");
+    }
+  }
+  if (auto limit = r.optional_string("report_limit")) {
+    if (auto v = parse_report_limit(*limit)) {
+      c.report_limit = *v;
+    } else {
+      r.fail(*r.find("report_limit"), "report_limit",
+             "key " + quote(r.dotted("report_limit")) + " has unknown value " + quote(*limit),
+             "use lowest-calibrator (the default), loq or lod");
+    }
+  }
   return c;
+}
+
+UncertaintyRules read_uncertainty(const TableReader& r) {
+  r.allow_only({"dilution_pct"});
+  UncertaintyRules u;
+  u.dilution_pct =
+      r.optional_number("dilution_pct", 0.0, 100.0, false, "a percentage above 0 and at most 100");
+  return u;
 }
 
 CheckRules read_check(const TableReader& r) {
@@ -297,8 +331,8 @@ MethodFile parse_method_text(const std::string& file_name, const std::string& te
                           "see the method file layout in the README");
   }
   TableReader top(file_name, root, "");
-  top.allow_only(
-      {"code", "title", "unit", "analytes", "internal_standard", "calibration", "check"});
+  top.allow_only({"code", "title", "unit", "analytes", "internal_standard", "calibration", "check",
+                  "uncertainty"});
 
   MethodDefinition d;
   d.code = top.required_string("code");
@@ -349,6 +383,10 @@ MethodFile parse_method_text(const std::string& file_name, const std::string& te
   d.calibration =
       read_calibration(TableReader(file_name, *top.required_table("calibration"), "calibration"));
   d.check = read_check(TableReader(file_name, *top.required_table("check"), "check"));
+  if (top.find("uncertainty")) {
+    d.uncertainty =
+        read_uncertainty(TableReader(file_name, *top.required_table("uncertainty"), "uncertainty"));
+  }
 
   MethodFile out;
   out.definition = std::move(d);

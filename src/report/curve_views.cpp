@@ -5,6 +5,8 @@
 #include <cmath>
 
 #include "core/text.h"
+#include "domain/quantitation.h"
+#include "report/numbers.h"
 #include "report/table.h"
 
 namespace cw::report {
@@ -16,9 +18,10 @@ const char* const kReviewCaution =
 
 namespace {
 
-std::string signed_pct(const std::optional<double>& v) {
+/// A %RE with as many decimals as it takes to show which side of its limit it lies on.
+std::string signed_pct(const std::optional<double>& v, std::optional<double> limit) {
   if (!v) return "-";
-  std::string s = format_fixed(*v, 1);
+  std::string s = limit ? format_fixed_against(*v, {*limit, -*limit}, 1) : format_fixed(*v, 1);
   if (*v >= 0) s = "+" + s;
   return s;
 }
@@ -40,8 +43,9 @@ bool has_term(const fitting::FitResult& f, int k) {
 
 std::string equation(const fitting::FitResult& f) {
   using fitting::Model;
+  // One style for every parameter: six significant figures, an ASCII minus.
   auto term = [](double v, const std::string& suffix) {
-    return std::string(v < 0 ? " − " : " + ") + format_sig(std::fabs(v), 6) + suffix;
+    return std::string(v < 0 ? " - " : " + ") + format_sig(std::fabs(v), 6) + suffix;
   };
   switch (f.model) {
     case Model::Linear:
@@ -54,6 +58,64 @@ std::string equation(const fitting::FitResult& f) {
       return "y = RF·x with mean RF " + format_sig(f.slope, 6);
   }
   return "";
+}
+
+Json limits_json(const app::CurveView& v) {
+  const auto& f = v.curve.fit;
+  const auto& rules = v.version.definition.calibration;
+  Json ich = Json{
+      {"lod", json_number(f.lod)},
+      {"loq", json_number(f.loq)},
+      {"sigma", f.lod_sigma > 0 ? Json(f.lod_sigma) : Json(nullptr)},
+      {"slope", f.lod_slope != 0 ? Json(f.lod_slope) : Json(nullptr)},
+      {"definition", f.lod_definition.empty() ? Json("ICH Q2: sigma = residual SD, S = slope b")
+                                              : Json(f.lod_definition)}};
+  Json din = nullptr;
+  if (f.din) {
+    din = {{"critical_value", f.din->critical_value},
+           {"detection_limit", f.din->detection_limit},
+           {"quantification_limit", json_number(f.din->quantification_limit)},
+           {"critical_response", f.din->critical_response},
+           {"method_sd", f.din->method_sd},
+           {"alpha", f.din->parameters.alpha},
+           {"beta", f.din->parameters.beta},
+           {"k", f.din->parameters.k},
+           {"m", f.din->parameters.m}};
+  }
+  return Json{{"reporting", std::string(fitting::to_string(rules.limits))},
+              {"report_below", std::string(to_string(rules.report_limit))},
+              {"release_limit", json_number(release_limit(v.curve, v.version.definition))},
+              {"ich_q2", ich},
+              {"din_32645", din}};
+}
+
+void print_limits(std::ostream& out, const app::CurveView& v, const std::string& pad) {
+  const auto& f = v.curve.fit;
+  const auto& rules = v.version.definition.calibration;
+  const std::string& unit = v.version.definition.unit;
+  const bool ich_reports = rules.limits == fitting::LimitDefinition::IchQ2;
+  out << pad << "LOD " << (std::isfinite(f.lod) ? format_sig(f.lod, 3) : std::string("n/a"))
+      << ", LOQ " << (std::isfinite(f.loq) ? format_sig(f.loq, 3) : std::string("n/a")) << " "
+      << unit << " ("
+      << (f.lod_definition.empty() ? std::string("ICH Q2: sigma = residual SD, S = slope b")
+                                   : f.lod_definition)
+      << "; 3.3σ/S and 10σ/S)" << (ich_reports ? " — reported" : "") << "\n";
+  if (f.din) {
+    out << pad << "DIN 32645 (α = " << format_shortest(f.din->parameters.alpha)
+        << ", β = " << format_shortest(f.din->parameters.beta)
+        << ", k = " << format_shortest(f.din->parameters.k) << "): critical value x_NG "
+        << format_sig(f.din->critical_value, 3) << ", detection limit x_EG "
+        << format_sig(f.din->detection_limit, 3) << ", quantification limit x_BG "
+        << (f.din->quantification_limit ? format_sig(*f.din->quantification_limit, 3)
+                                        : std::string("n/a"))
+        << " " << unit << (ich_reports ? "" : " — reported") << "\n";
+  }
+  out << pad << "results below " << format_plain(release_limit(v.curve, v.version.definition), 6)
+      << " " << unit << " are released as \"< limit\" ("
+      << (rules.report_limit == ReportLimit::LowestCalibrator
+              ? "the lowest calibrator"
+              : std::string(rules.report_limit == ReportLimit::Loq ? "the LOQ" : "the LOD"))
+      << ")\n";
 }
 
 }  // namespace
@@ -78,6 +140,7 @@ Json curve_json(const app::CurveView& v, const LabZone& zone) {
   (void)zone;
   const Curve& c = v.curve;
   const auto& f = c.fit;
+  const auto reporting = fitting::reporting_limits(f, v.version.definition.calibration.limits);
   Json lots = Json::array();
   for (const auto& l : v.lots) lots.push_back(l.code);
   Json points = Json::array();
@@ -150,8 +213,9 @@ Json curve_json(const app::CurveView& v, const LabZone& zone) {
       {"n_points", f.n_points},
       {"n_levels", f.n_levels},
       {"range", {{"low", f.range_low}, {"high", f.range_high}}},
-      {"lod", json_number(f.lod)},
-      {"loq", json_number(f.loq)},
+      {"lod", json_number(reporting ? std::optional<double>(reporting->lod) : std::nullopt)},
+      {"loq", json_number(reporting ? std::optional<double>(reporting->loq) : std::nullopt)},
+      {"limits", limits_json(v)},
       {"rf_mean", f.rf_mean},
       {"rf_rsd_pct", f.rf_rsd_pct},
       {"mandel", mandel},
@@ -236,14 +300,13 @@ void print_curve_report(std::ostream& out, const app::CurveView& v, const LabZon
   if (has_term(f, 2))
     params.add_row({"quadratic", format_sig(f.quadratic, 6), format_sig(f.se_quadratic, 3)});
   params.print(out, 4);
-  out << "  r² " << format_fixed(f.r2, 6) << " (" << f.r2_definition << ")\n";
+  out << "  r² " << r2_text(f, v.version.definition.calibration.min_r2) << " (" << f.r2_definition
+      << ")\n";
   out << "  s(y/x) " << format_sig(f.residual_sd, 4) << ", " << f.n_points << " points at "
       << f.n_levels << " levels, " << f.dof << " degrees of freedom\n";
-  out << "  working range " << format_plain(f.range_low) << " to " << format_plain(f.range_high)
-      << " " << unit << "; LOD "
-      << (std::isfinite(f.lod) ? format_sig(f.lod, 3) : std::string("n/a")) << ", LOQ "
-      << (std::isfinite(f.loq) ? format_sig(f.loq, 3) : std::string("n/a")) << " " << unit
-      << " (ICH Q2: 3.3σ/S and 10σ/S, σ = s(y/x))\n";
+  out << "  working range " << format_shortest(f.range_low) << " to "
+      << format_shortest(f.range_high) << " " << unit << "\n";
+  print_limits(out, v, "  ");
   out << "  response factors: mean " << format_sig(f.rf_mean, 5) << ", %RSD "
       << format_fixed(f.rf_rsd_pct, 2) << " %\n";
   if (f.mandel) {
@@ -263,13 +326,22 @@ void print_curve_report(std::ostream& out, const app::CurveView& v, const LabZon
                 {"%RE", Table::Align::Right},
                 {""}});
   const bool with_is = v.version.definition.internal_standard.has_value();
+  const auto& rules = v.version.definition.calibration;
+  std::optional<double> lowest;
+  for (const auto& p : c.points) {
+    if (!p.excluded && (!lowest || p.nominal < *lowest)) lowest = p.nominal;
+  }
   for (const auto& p : c.points) {
     std::string mark = p.excluded ? "excluded: " + p.exclude_reason.value_or("")
                                   : (p.within_limits ? "ok" : "FAIL");
-    std::string response = format_plain(p.response);
-    if (with_is && p.is_response) response += " / " + format_plain(*p.is_response);
-    points.add_row({p.level, std::to_string(p.replicate), format_plain(p.nominal), response,
-                    opt_sig(p.back_calculated, 5), signed_pct(p.error_pct), mark});
+    // Echoed inputs in their shortest round-trip form; the %RE against the limit that applies.
+    std::string response = format_shortest(p.response);
+    if (with_is && p.is_response) response += " / " + format_shortest(*p.is_response);
+    const std::optional<double> limit = lowest && p.nominal == *lowest && rules.max_error_pct_lowest
+                                            ? rules.max_error_pct_lowest
+                                            : rules.max_error_pct;
+    points.add_row({p.level, std::to_string(p.replicate), format_shortest(p.nominal), response,
+                    opt_sig(p.back_calculated, 5), signed_pct(p.error_pct, limit), mark});
   }
   points.print(out, 4);
   if (c.verdict == Verdict::Accepted) {

@@ -4,6 +4,7 @@
 
 #include "core/text.h"
 #include "report/curve_views.h"
+#include "report/numbers.h"
 #include "report/registry_views.h"
 #include "report/table.h"
 
@@ -30,14 +31,44 @@ Json reason_tokens(const std::vector<Finding>& findings) {
   return list;
 }
 
-std::string result_value_text(const Result& r, const std::string& unit) {
+/// What was released: "< 0.5 mg/L" for a censored result, never its computed number.
+std::string released_text(const Result& r, const std::string& unit) {
   if (r.status == ResultStatus::Refused) return "refused";
+  if (r.censored && r.reporting_limit)
+    return "< " + format_plain(*r.reporting_limit, 6) + " " + unit;
   if (!r.concentration) return "-";
-  std::string s = format_sig(*r.concentration, 4) + " " + unit;
-  if (r.ci_low && r.ci_high)
+  return format_sig(*r.concentration, 4) + " " + unit;
+}
+
+std::string result_value_text(const Result& r, const std::string& unit) {
+  std::string s = released_text(r, unit);
+  if (r.status == ResultStatus::Reported && !r.censored && r.ci_low && r.ci_high)
     s += " (95 % CI " + format_sig(*r.ci_low, 4) + " to " + format_sig(*r.ci_high, 4) + ")";
+  if (r.censored) s += " [censored]";
   for (const auto& f : r.flags) s += " [" + std::string(to_string(f)) + "]";
   return s;
+}
+
+Json uncertainty_json(const std::optional<ResultUncertainty>& u) {
+  if (!u) return nullptr;
+  Json components = Json::array();
+  for (const auto& c : u->components) {
+    components.push_back({{"source", c.source}, {"relative_u", c.relative_u}});
+  }
+  return Json{{"components", components},
+              {"combined", u->combined},
+              {"expanded", u->expanded},
+              {"k", u->k}};
+}
+
+std::string uncertainty_text(const ResultUncertainty& u, const std::string& unit) {
+  std::string s = "expanded uncertainty ± " + format_sig(u.expanded, 3) + " " + unit +
+                  " (k = " + format_shortest(u.k) + "; from";
+  for (std::size_t i = 0; i < u.components.size(); ++i) {
+    s += std::string(i ? ", " : " ") + u.components[i].source + " " +
+         format_sig(100 * u.components[i].relative_u, 2) + " %";
+  }
+  return s + ")";
 }
 
 void print_lots(std::ostream& out, const std::vector<Lot>& lots, const LabZone& zone, Instant at) {
@@ -90,7 +121,9 @@ void print_check_outcome(std::ostream& out, const app::CheckOutcome& o, const La
     out << "the response has no solution on the curve\n";
   } else if (k.kind == CheckKind::Check) {
     out << "measured " << format_sig(*k.measured, 4) << " " << o.unit << " against nominal "
-        << format_plain(k.nominal) << ", recovery " << format_fixed(*k.recovery_pct, 1)
+        << format_plain(k.nominal) << ", recovery "
+        << format_fixed_against(*k.recovery_pct,
+                                {k.limit_low.value_or(0), k.limit_high.value_or(0)}, 1)
         << " % (allowed " << format_plain(*k.limit_low) << "–" << format_plain(*k.limit_high)
         << " %)\n";
   } else {
@@ -130,6 +163,10 @@ Json result_json(const Result& r) {
               {"concentration", json_number(r.concentration)},
               {"ci_low", json_number(r.ci_low)},
               {"ci_high", json_number(r.ci_high)},
+              {"censored", r.censored ? Json("<") : Json(nullptr)},
+              {"reporting_limit", json_number(r.reporting_limit)},
+              {"computed_concentration", json_number(r.computed_concentration)},
+              {"uncertainty", uncertainty_json(r.uncertainty)},
               {"flags", tokens(r.flags)},
               {"reasons", reason_tokens(r.reasons)},
               {"reason_details", reason_details_json(r.reasons)},
@@ -140,8 +177,8 @@ Json result_json(const Result& r) {
 Json quantify_json(const app::QuantifyOutcome& o) {
   Json j = result_json(o.result);
   j["unit"] = o.unit.empty() ? Json(nullptr) : Json(o.unit);
-  j["report_as"] = o.reporting_limit ? Json("< " + format_plain(*o.reporting_limit) + " " + o.unit)
-                                     : Json(nullptr);
+  j["report_as"] = o.result.status == ResultStatus::Reported ? Json(released_text(o.result, o.unit))
+                                                             : Json(nullptr);
   j["suggested_dilution"] = json_number(o.suggested_dilution);
   j["method"] = o.curve ? Json(o.curve->method_code) : Json(nullptr);
   j["method_version"] = json_optional(o.method_version);
@@ -164,19 +201,23 @@ void print_quantify(std::ostream& out, const app::QuantifyOutcome& o, const LabZ
            "recorded.\n";
     return;
   }
-  if (o.reporting_limit) {
-    out << "  reported as < " << format_plain(*o.reporting_limit) << " " << o.unit
-        << " (below the lowest calibrator; computed " << format_sig(*r.concentration, 4) << " "
-        << o.unit << ")\n";
+  if (r.censored) {
+    out << "  reported as " << released_text(r, o.unit)
+        << " (below the reporting limit; what was computed is kept in the record, not released)\n";
+    out << "  from response " << format_shortest(r.response)
+        << (r.replicates > 1 ? " (mean of " + std::to_string(r.replicates) + ")" : "")
+        << ", dilution factor " << format_shortest(r.dilution) << "\n";
   } else {
     out << "  concentration " << format_sig(*r.concentration, 4) << " " << o.unit << "  (95 % CI "
         << format_sig(*r.ci_low, 4) << " to " << format_sig(*r.ci_high, 4) << " " << o.unit
         << ")\n";
+    if (r.uncertainty) out << "  " << uncertainty_text(*r.uncertainty, o.unit) << "\n";
+    out << "  from response " << format_shortest(r.response)
+        << (r.replicates > 1 ? " (mean of " + std::to_string(r.replicates) + ")" : "")
+        << "; instrument level " << format_sig(*r.x0, 4) << " " << o.unit << " ± "
+        << format_sig(*r.sd_x0, 3) << " (s.d.), dilution factor " << format_shortest(r.dilution)
+        << "\n";
   }
-  out << "  from response " << format_plain(r.response)
-      << (r.replicates > 1 ? " (mean of " + std::to_string(r.replicates) + ")" : "")
-      << "; instrument level " << format_sig(*r.x0, 4) << " " << o.unit << " ± "
-      << format_sig(*r.sd_x0, 3) << " (s.d.), dilution factor " << format_plain(r.dilution) << "\n";
   if (o.curve) {
     out << "  curve " << o.curve->curve.id.value << " (method " << o.curve->method_code << " v"
         << o.curve->version.version << ", instrument " << o.curve->instrument_code << ", lots";
@@ -282,7 +323,11 @@ void print_status_board(std::ostream& out, const std::vector<app::InstrumentStat
       for (const auto& k : st.recent_failures) {
         out << "    " << zone.format_local(k.occurred_at) << "  " << to_string(k.kind) << " "
             << k.id.value << " on curve " << k.curve_id.value;
-        if (k.recovery_pct) out << ", recovery " << format_fixed(*k.recovery_pct, 1) << " %";
+        if (k.recovery_pct)
+          out << ", recovery "
+              << format_fixed_against(*k.recovery_pct,
+                                      {k.limit_low.value_or(0), k.limit_high.value_or(0)}, 1)
+              << " %";
         out << "\n";
       }
     }
@@ -342,6 +387,7 @@ void print_trace_result(std::ostream& out, const app::ResultTrace& t, const LabZ
       << result_value_text(r, unit) << "\n  quantified " << zone.format_local(r.occurred_at)
       << " by " << r.analyst << " from response " << format_plain(r.response) << ", dilution "
       << format_plain(r.dilution) << "\n";
+  if (r.uncertainty) out << "  " << uncertainty_text(*r.uncertainty, unit) << "\n";
   for (const auto& d : r.reasons) out << "  - " << to_string(d.reason) << ": " << d.message << "\n";
   if (!t.curve) {
     out << "  no curve was used\n";
@@ -350,7 +396,9 @@ void print_trace_result(std::ostream& out, const app::ResultTrace& t, const LabZ
   const auto& c = t.curve->curve;
   out << "Curve " << c.id.value << " (" << fitting::to_string(c.fit.model) << ", "
       << fitting::to_string(c.fit.weighting) << "): slope " << format_sig(c.fit.slope, 6)
-      << ", intercept " << format_sig(c.fit.intercept, 6) << ", r² " << format_fixed(c.fit.r2, 6)
+      << ", intercept " << format_sig(c.fit.intercept, 6) << ", r² "
+      << r2_text(c.fit,
+                 t.method_version ? t.method_version->definition.calibration.min_r2 : std::nullopt)
       << ", " << c.fit.n_points << " points, verdict " << to_string(c.verdict) << "\n";
   out << "  state at the result's time:";
   out << "\n";
@@ -417,7 +465,11 @@ void print_trace_curve(std::ostream& out, const app::CurveTrace& t, const LabZon
     for (const auto& x : t.checks) {
       k.add_row({std::to_string(x.id.value), std::string(to_string(x.kind)),
                  zone.format_local(x.occurred_at), opt_sig(x.measured),
-                 x.recovery_pct ? format_fixed(*x.recovery_pct, 1) + " %" : "-",
+                 x.recovery_pct ? format_fixed_against(
+                                      *x.recovery_pct,
+                                      {x.limit_low.value_or(0), x.limit_high.value_or(0)}, 1) +
+                                      " %"
+                                : "-",
                  x.passed ? "passed" : "FAILED"});
     }
     k.print(out, 2);
@@ -473,8 +525,8 @@ void print_trace_lot(std::ostream& out, const app::LotTrace& t, const LabZone& z
 }
 
 void print_trace_lot_csv(std::ostream& out, const app::LotTrace& t) {
-  out << "lot,result_id,sample,analyte,status,concentration,ci_low,ci_high,unit,flags,curve_id,"
-         "method,method_version,"
+  out << "lot,result_id,sample,analyte,status,released,censored,concentration,reporting_limit,"
+         "ci_low,ci_high,expanded_uncertainty,unit,flags,curve_id,method,method_version,"
          "instrument,quantified_at\n";
   for (const auto& r : t.results) {
     const app::CurveView* v = nullptr;
@@ -484,14 +536,17 @@ void print_trace_lot_csv(std::ostream& out, const app::LotTrace& t) {
     std::string flags;
     for (const auto& f : r.flags) flags += (flags.empty() ? "" : ";") + std::string(to_string(f));
     auto num = [](const std::optional<double>& x) {
-      return x ? format_plain(*x, 12) : std::string();
+      return x ? format_shortest(*x) : std::string();
     };
+    const std::string unit = v ? v->version.definition.unit : "";
     out << csv_field(t.lot.code) << "," << r.id.value << "," << csv_field(r.sample) << ","
-        << csv_field(r.analyte) << "," << to_string(r.status) << "," << num(r.concentration) << ","
-        << num(r.ci_low) << "," << num(r.ci_high) << ","
-        << (v ? csv_field(v->version.definition.unit) : "") << "," << csv_field(flags) << ","
-        << (r.curve_id ? std::to_string(r.curve_id->value) : "") << ","
-        << (v ? csv_field(v->method_code) : "") << ","
+        << csv_field(r.analyte) << "," << to_string(r.status) << ","
+        << csv_field(r.status == ResultStatus::Reported ? released_text(r, unit) : "") << ","
+        << (r.censored ? "<" : "") << "," << num(r.concentration) << "," << num(r.reporting_limit)
+        << "," << num(r.ci_low) << "," << num(r.ci_high) << ","
+        << (r.uncertainty ? num(r.uncertainty->expanded) : std::string()) << "," << csv_field(unit)
+        << "," << csv_field(flags) << "," << (r.curve_id ? std::to_string(r.curve_id->value) : "")
+        << "," << (v ? csv_field(v->method_code) : "") << ","
         << (v ? std::to_string(v->version.version) : "") << ","
         << (v ? csv_field(v->instrument_code) : "") << "," << format_utc(r.occurred_at) << "\n";
   }

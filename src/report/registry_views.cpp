@@ -235,6 +235,7 @@ Json lot_json(const Lot& lot, const LabZone& zone, Instant at) {
       {"code", lot.code},
       {"material", lot.material},
       {"certificate", json_optional(lot.certificate)},
+      {"coverage_factor", lot.coverage()},
       {"expires_on", format_date(lot.expires_on)},
       {"opened_on", lot.opened_on ? Json(format_date(*lot.opened_on)) : Json(nullptr)},
       {"in_use_days", json_optional(lot.in_use_days)},
@@ -251,6 +252,8 @@ Json lot_json(const Lot& lot, const LabZone& zone, Instant at) {
 void print_lot(std::ostream& out, const Lot& lot, const LabZone& zone, Instant at) {
   out << "Lot " << lot.code << "  " << lot.material << "\n";
   if (lot.certificate) out << "  certificate " << *lot.certificate << "\n";
+  out << "  uncertainties stated with k = " << format_shortest(lot.coverage())
+      << (lot.coverage_factor ? "" : " (the default)") << "\n";
   out << "  expires     " << format_date(lot.expires_on) << " (certificate)\n";
   if (lot.opened_on) {
     out << "  opened      " << format_date(*lot.opened_on);

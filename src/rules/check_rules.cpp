@@ -15,8 +15,9 @@ std::string describe_check(const Check& k, const std::string& unit, const LabZon
   s += "measured " + format_sig(*k.measured, 4) + " " + unit;
   if (k.kind == CheckKind::Check) {
     s += " against nominal " + format_plain(k.nominal, 8) + " (recovery " +
-         format_fixed(*k.recovery_pct, 1) + " %, allowed " +
-         format_plain(k.limit_low.value_or(0), 6) + "–" +
+         format_fixed_against(*k.recovery_pct, {k.limit_low.value_or(0), k.limit_high.value_or(0)},
+                              1) +
+         " %, allowed " + format_plain(k.limit_low.value_or(0), 6) + "–" +
          format_plain(k.limit_high.value_or(0), 6) + " %)";
   } else if (k.limit_high) {
     s += " (blank limit " + format_sig(*k.limit_high, 4) + " " + unit + ")";

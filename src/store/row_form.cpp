@@ -37,7 +37,8 @@ constexpr Column kLots[] = {{"id", T::Integer},
                             {"in_use_days", T::Integer, true},
                             {"certificate", T::Text, true},
                             {"registered_at", T::Instant},
-                            {"audit_seq", T::Integer}};
+                            {"audit_seq", T::Integer},
+                            {"coverage_factor", T::Real, true, true}};
 constexpr Column kLotValues[] = {
     {"id", T::Integer}, {"lot_id", T::Integer},         {"analyte", T::Text},
     {"value", T::Real}, {"uncertainty", T::Real, true}, {"audit_seq", T::Integer}};
@@ -150,7 +151,12 @@ constexpr Column kResults[] = {{"id", T::Integer},
                                {"reason_details", T::Json},
                                {"analyst", T::Text},
                                {"occurred_at", T::Instant},
-                               {"audit_seq", T::Integer}};
+                               {"audit_seq", T::Integer},
+                               // Added by migration 0005.
+                               {"censored", T::Text, true, true},
+                               {"reporting_limit", T::Real, true, true},
+                               {"computed_concentration", T::Real, true, true},
+                               {"uncertainty", T::Json, true, true}};
 
 const std::array<TableForm, 17> kForms = {{
     {FactTable::LabSettings, "lab_settings", kLabSettings},

@@ -3,7 +3,9 @@
 // its columns with logical types. A row becomes a JSON object {column: value} with keys sorted,
 // integers and booleans as integers, reals as shortest round-trip numbers, text, instants, dates
 // and JSON documents as strings, NULL as null (DEVELOPERS.md, "The audit trail"). The form is
-// the one every store written so far was hashed with, so existing trails verify unchanged.
+// the one every store written so far was hashed with, so existing trails verify unchanged. A
+// column added to a table by a later migration (`added_later`) is part of a row's canonical form
+// only when it holds a value: rows written before it existed keep their bytes and their hash.
 #pragma once
 
 #include <cstdint>
@@ -33,6 +35,9 @@ struct Column {
   std::string_view name;
   ColumnType type;
   bool nullable = false;
+  /// Added by a migration after the table was created: nullable, and left out of the canonical
+  /// row when NULL.
+  bool added_later = false;
 };
 
 struct TableForm {

@@ -55,14 +55,14 @@ TEST_CASE("e2e registry: init, instrument, method, revision, lot and withdrawal"
   CHECK(j["changed"] == true);
   CHECK(j["lab"] == "Water lab");
   CHECK(j["time_zone"] == "Europe/Berlin");
-  CHECK(j["schema_version"] == 4);
+  CHECK(j["schema_version"] == 5);
   // CURVEWARDEN_NOW is "now" for the migration record too.
   CHECK(cw::test::query_text(box.db(),
                              "SELECT group_concat(DISTINCT applied_at) FROM "
                              "schema_migrations") == "2026-03-02T08:00:00Z");
   Counts counts = cw::test::table_row_counts(box.db());
   CHECK(changes({}, counts) ==
-        Counts{{"audit_log", 1}, {"lab_settings", 1}, {"schema_migrations", 4}});
+        Counts{{"audit_log", 1}, {"lab_settings", 1}, {"schema_migrations", 5}});
 
   // 2. instrument add
   box.now = "2026-03-02T09:00:00Z";
@@ -134,7 +134,8 @@ TEST_CASE("e2e registry: init, instrument, method, revision, lot and withdrawal"
             "CERT-123", "--value", "nitrate=1000±5", "--value", "sulfate=500+/-2.5", "--json"});
   CHECK(j == Json::parse(R"({
       "code": "CRM-NO3-0042", "material": "Nitrate in water, 1000 mg/L",
-      "certificate": "CERT-123", "expires_on": "2027-03-31", "opened_on": "2026-03-01",
+      "certificate": "CERT-123", "coverage_factor": 2.0, "expires_on": "2027-03-31",
+      "opened_on": "2026-03-01",
       "in_use_days": 30, "in_use_expires_on": "2026-03-31", "effective_expires_on": "2026-03-31",
       "usable_until": "2026-03-31T22:00:00Z", "status": "usable", "withdrawn_at": null,
       "withdrawal_reason": null, "registered_at": "2026-03-04T09:00:00Z",
@@ -228,13 +229,13 @@ TEST_CASE("e2e registry: init is idempotent", "[e2e]") {
     CHECK(j["changed"] == false);
     CHECK(j["lab"] == "Water lab");
     CHECK(j["time_zone"] == "America/New_York");
-    CHECK(j["schema_version"] == 4);
+    CHECK(j["schema_version"] == 5);
     CHECK(cw::test::table_row_counts(box.db()) == counts);
     CHECK(cw::test::read_file(box.db()) == bytes);
   }
   r = box.run({"init"});
   CHECK(r.out == "Store " + box.db().string() +
-                     " is up to date (schema 4): Water lab, time zone America/New_York.\n");
+                     " is up to date (schema 5): Water lab, time zone America/New_York.\n");
 
   // A new lab name is a change that needs a reason, recorded as a rename with it.
   r = box.run({"init", "--lab", "Water and soil lab", "--json"});

@@ -103,13 +103,18 @@ TEST_CASE("quantify: below the range is flagged, above the range is refused and 
   Lab lab;
   const auto [nitrate, sulfate] = set_up(lab);
 
-  SECTION("below the lowest sulfate level (2 mg/L): reported with a flag") {
+  SECTION("below the lowest sulfate level (2 mg/L): released as '< 2', the estimate kept") {
     // 4.0 reads (4.0 - 0.9033333333)/3.09 = 1.002157497 mg/L (exact fit, scenario_support.h).
     const Json q = quantify(
         lab, {"--curve", std::to_string(sulfate), "--response", "4.0", "--sample", "W-201"});
     CHECK(q.at("status") == "reported");
     CHECK(strings(q.at("flags")) == std::vector<std::string>{"below-range"});
-    CHECK(q.at("concentration").get<double>() == Approx(1.002157497).epsilon(1e-8));
+    CHECK(q.at("censored") == "<");
+    CHECK(q.at("concentration").is_null());
+    CHECK(q.at("reporting_limit").get<double>() == 2.0);
+    CHECK(q.at("computed_concentration").get<double>() == Approx(1.002157497).epsilon(1e-8));
+    CHECK(q.at("report_as") == "< 2 mg/L");
+    CHECK(q.at("uncertainty").is_null());
   }
   SECTION("above the highest nitrate level (12): refused, dilute and re-run") {
     const auto before = lab.counts();

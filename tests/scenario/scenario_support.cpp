@@ -22,9 +22,12 @@ std::string MethodSpec::toml() const {
   if (min_levels_within) t += "min_levels_within = " + *min_levels_within + "\n";
   t += "valid_for = \"" + valid_for + "\"\n";
   t += std::string("review_required = ") + (review_required ? "true" : "false") + "\n";
+  if (limits) t += "limits = \"" + *limits + "\"\n";
+  if (report_limit) t += "report_limit = \"" + *report_limit + "\"\n";
   t += "\n[check]\ntolerance_pct = " + tolerance_pct + "\nsamples_per_check = 10\n";
   if (check_every) t += "check_every = \"" + *check_every + "\"\n";
   if (blank_limit) t += "blank_limit = " + *blank_limit + "\n";
+  if (dilution_pct) t += "\n[uncertainty]\ndilution_pct = " + *dilution_pct + "\n";
   return t;
 }
 

@@ -44,6 +44,9 @@ struct MethodSpec {
   std::string tolerance_pct = "10.0";
   std::optional<std::string> check_every;
   std::optional<std::string> blank_limit;
+  std::optional<std::string> limits;        ///< [calibration] limits: ich-q2 | din-32645
+  std::optional<std::string> report_limit;  ///< [calibration] report_limit
+  std::optional<std::string> dilution_pct;  ///< [uncertainty] dilution_pct
 
   std::string toml() const;
 };

@@ -63,6 +63,8 @@ json method_definition_to_json(const MethodDefinition& d) {
       {"max_rf_rsd_pct", optional_to_json(d.calibration.max_rf_rsd_pct)},
       {"valid_for", duration_to_json(d.calibration.valid_for)},
       {"review_required", d.calibration.review_required},
+      {"limits", fitting::to_string(d.calibration.limits)},
+      {"report_limit", to_string(d.calibration.report_limit)},
   };
   json k = {
       {"tolerance_pct", d.check.tolerance_pct},
@@ -79,6 +81,7 @@ json method_definition_to_json(const MethodDefinition& d) {
       {"internal_standard", optional_to_json(d.internal_standard)},
       {"calibration", c},
       {"check", k},
+      {"uncertainty", {{"dilution_pct", optional_to_json(d.uncertainty.dilution_pct)}}},
   };
 }
 
@@ -101,6 +104,18 @@ MethodDefinition method_definition_from_json(const json& j) {
   d.calibration.max_rf_rsd_pct = optional_from<double>(c, "max_rf_rsd_pct");
   d.calibration.valid_for = duration_from(c.at("valid_for"));
   d.calibration.review_required = c.at("review_required").get<bool>();
+  // Keys added after the first versions were stored: absent means the earlier behaviour.
+  if (c.contains("limits")) {
+    d.calibration.limits = token_from<fitting::LimitDefinition>(
+        c.at("limits"), fitting::parse_limit_definition, "limit definition");
+  }
+  if (c.contains("report_limit")) {
+    d.calibration.report_limit =
+        token_from<ReportLimit>(c.at("report_limit"), parse_report_limit, "report limit");
+  }
+  if (j.contains("uncertainty")) {
+    d.uncertainty.dilution_pct = optional_from<double>(j.at("uncertainty"), "dilution_pct");
+  }
   const json& k = j.at("check");
   d.check.tolerance_pct = k.at("tolerance_pct").get<double>();
   d.check.samples_per_check = optional_from<int>(k, "samples_per_check");
@@ -146,6 +161,37 @@ json fit_to_json(const fitting::FitResult& f) {
       {"sum_x2_w", f.sum_x2_w},
       {"weights_normalisation", "weights scaled to sum to the number of fitted points"},
   };
+  j["lod_sigma"] = number_or_null(f.lod_sigma);
+  j["lod_slope"] = number_or_null(f.lod_slope);
+  j["lod_definition"] = f.lod_definition;
+  if (f.din) {
+    const auto& d = *f.din;
+    j["din"] = {{"alpha", d.parameters.alpha},
+                {"beta", d.parameters.beta},
+                {"k", d.parameters.k},
+                {"m", d.parameters.m},
+                {"dof", d.dof},
+                {"method_sd", d.method_sd},
+                {"critical_response", d.critical_response},
+                {"critical_value", d.critical_value},
+                {"detection_limit", d.detection_limit},
+                {"quantification_limit", optional_to_json(d.quantification_limit)},
+                {"iterations", d.iterations}};
+  } else {
+    j["din"] = nullptr;
+  }
+  if (f.design) {
+    const auto& d = *f.design;
+    json r = json::array();
+    for (const auto& row : d.r_inverse) r.push_back({row[0], row[1], row[2]});
+    j["design"] = {{"centre", d.centre},
+                   {"scale", d.scale},
+                   {"parameters", d.parameters},
+                   {"coefficients", {d.coefficients[0], d.coefficients[1], d.coefficients[2]}},
+                   {"r_inverse", r}};
+  } else {
+    j["design"] = nullptr;
+  }
   if (f.mandel) {
     j["mandel"] = {{"s_y1", f.mandel->s_y1},
                    {"s_y2", f.mandel->s_y2},
@@ -195,6 +241,40 @@ fitting::FitResult fit_from_json(const json& j) {
   f.sxx_w = j.at("sxx_w").get<double>();
   f.sum_raw_weights = j.at("sum_raw_weights").get<double>();
   f.sum_x2_w = j.at("sum_x2_w").get<double>();
+  // Figures added after the first curves were stored: absent in those, which keep the limits
+  // they were judged with (fitting::reporting_limits describes them).
+  if (j.contains("lod_sigma")) f.lod_sigma = number_from(j.at("lod_sigma"), 0);
+  if (j.contains("lod_slope")) f.lod_slope = number_from(j.at("lod_slope"), 0);
+  if (j.contains("lod_definition")) f.lod_definition = j.at("lod_definition").get<std::string>();
+  if (j.contains("din") && !j.at("din").is_null()) {
+    const json& d = j.at("din");
+    fitting::DinLimits din;
+    din.parameters.alpha = d.at("alpha").get<double>();
+    din.parameters.beta = d.at("beta").get<double>();
+    din.parameters.k = d.at("k").get<double>();
+    din.parameters.m = d.at("m").get<int>();
+    din.dof = d.at("dof").get<int>();
+    din.method_sd = d.at("method_sd").get<double>();
+    din.critical_response = d.at("critical_response").get<double>();
+    din.critical_value = d.at("critical_value").get<double>();
+    din.detection_limit = d.at("detection_limit").get<double>();
+    din.quantification_limit = optional_from<double>(d, "quantification_limit");
+    din.iterations = d.at("iterations").get<int>();
+    f.din = din;
+  }
+  if (j.contains("design") && !j.at("design").is_null()) {
+    const json& d = j.at("design");
+    fitting::ScaledDesign design;
+    design.centre = d.at("centre").get<double>();
+    design.scale = d.at("scale").get<double>();
+    design.parameters = d.at("parameters").get<int>();
+    for (int i = 0; i < 3; ++i) design.coefficients[i] = d.at("coefficients").at(i).get<double>();
+    for (int r = 0; r < 3; ++r) {
+      for (int c = 0; c < 3; ++c)
+        design.r_inverse[r][c] = d.at("r_inverse").at(r).at(c).get<double>();
+    }
+    f.design = design;
+  }
   if (j.contains("mandel") && !j.at("mandel").is_null()) {
     const json& m = j.at("mandel");
     f.mandel =

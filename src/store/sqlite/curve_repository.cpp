@@ -98,6 +98,29 @@ Result SqliteCurves::result_of(SQLite::Statement& s) {
   }
   r.analyst = s.getColumn(19).getString();
   r.occurred_at = stored_instant(s.getColumn(20).getString(), "results.occurred_at", db_.path);
+  if (auto censored = opt_text(s.getColumn(21))) {
+    if (*censored != "<") damaged(db_.path, "results.censored holds '" + *censored + "'");
+    r.censored = true;
+  }
+  r.reporting_limit = opt_real(s.getColumn(22));
+  r.computed_concentration = opt_real(s.getColumn(23));
+  if (auto text = opt_text(s.getColumn(24))) {
+    const json u = parse_stored_json(*text, "results.uncertainty", db_.path);
+    try {
+      ResultUncertainty budget;
+      for (const auto& c : u.at("components")) {
+        budget.components.push_back(
+            {c.at("source").get<std::string>(), c.at("relative_u").get<double>()});
+      }
+      budget.combined = u.at("combined").get<double>();
+      budget.expanded = u.at("expanded").get<double>();
+      budget.k = u.at("k").get<double>();
+      r.uncertainty = std::move(budget);
+    } catch (const json::exception&) {
+      damaged(db_.path, "results.uncertainty of result " + std::to_string(r.id.value) +
+                            " is not an uncertainty budget");
+    }
+  }
   return r;
 }
 
@@ -592,6 +615,23 @@ ResultId SqliteCurves::add_result(const Result& r) {
     bind_text(s, ":analyst", r.analyst);
     bind_instant(s, ":at", r.occurred_at);
     bind_int(s, ":seq", w.seq);
+    bind_opt_text(s, ":censored", r.censored ? std::optional<std::string>("<") : std::nullopt);
+    bind_opt_real(s, ":limit", r.reporting_limit);
+    bind_opt_real(s, ":computed", r.computed_concentration);
+    if (r.uncertainty) {
+      json components = json::array();
+      for (const auto& c : r.uncertainty->components) {
+        components.push_back({{"source", c.source}, {"relative_u", c.relative_u}});
+      }
+      bind_text(s, ":uncertainty",
+                json{{"components", components},
+                     {"combined", r.uncertainty->combined},
+                     {"expanded", r.uncertainty->expanded},
+                     {"k", r.uncertainty->k}}
+                    .dump());
+    } else {
+      bind_opt_text(s, ":uncertainty", std::nullopt);
+    }
     s.exec();
     const ResultId id{db_.db->getLastInsertRowid()};
     w.add_row(FactTable::Results, id.value);

@@ -41,6 +41,7 @@ Lot lot_of(SQLite::Statement& s, const std::string& path) {
   if (auto days = opt_int(s.getColumn(5))) l.in_use_days = static_cast<int>(*days);
   l.certificate = opt_text(s.getColumn(6));
   l.registered_at = stored_instant(s.getColumn(7).getString(), "lots.registered_at", path);
+  l.coverage_factor = opt_real(s.getColumn(8));
   return l;
 }
 
@@ -332,6 +333,7 @@ LotId SqliteRegistry::add_lot(const Lot& lot) {
     bind_opt_text(s, ":cert", lot.certificate);
     bind_instant(s, ":at", lot.registered_at);
     bind_int(s, ":seq", w.seq);
+    bind_opt_real(s, ":k", lot.coverage_factor);
     s.exec();
     const LotId id{db_.db->getLastInsertRowid()};
     w.add_row(FactTable::Lots, id.value);

@@ -30,6 +30,7 @@ nlohmann::json canonical_row(SQLite::Statement& s, const TableForm& form, const 
     } else if (!c.isNull()) {
       damaged(path, std::string(form.name) + "." + std::string(column.name) + " holds a blob");
     }
+    if (column.added_later && std::holds_alternative<std::monostate>(value)) continue;
     try {
       row[std::string(column.name)] = canonical_value(column, value);
     } catch (const std::logic_error& e) {

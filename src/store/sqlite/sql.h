@@ -53,13 +53,16 @@ inline constexpr const char* kInsertMethodVersion =
     ":at, :title, :unit, :definition, :source_name, :source_text, :sha, :reason, :seq)";
 
 inline constexpr const char* kLotByCode =
-    "SELECT id, code, material, expires_on, opened_on, in_use_days, certificate, registered_at "
+    "SELECT id, code, material, expires_on, opened_on, in_use_days, certificate, registered_at, "
+    "coverage_factor "
     "FROM lots WHERE code = :code";
 inline constexpr const char* kLotsAll =
-    "SELECT id, code, material, expires_on, opened_on, in_use_days, certificate, registered_at "
+    "SELECT id, code, material, expires_on, opened_on, in_use_days, certificate, registered_at, "
+    "coverage_factor "
     "FROM lots ORDER BY code";
 inline constexpr const char* kLotsByIds =
-    "SELECT id, code, material, expires_on, opened_on, in_use_days, certificate, registered_at "
+    "SELECT id, code, material, expires_on, opened_on, in_use_days, certificate, registered_at, "
+    "coverage_factor "
     "FROM lots WHERE id IN (SELECT value FROM json_each(:ids)) ORDER BY code";
 inline constexpr const char* kLotValuesOf =
     "SELECT lot_id, analyte, value, uncertainty FROM lot_values "
@@ -69,8 +72,8 @@ inline constexpr const char* kLotWithdrawalsOf =
     "WHERE lot_id IN (SELECT value FROM json_each(:ids)) ORDER BY lot_id, id";
 inline constexpr const char* kInsertLot =
     "INSERT INTO lots (code, material, expires_on, opened_on, in_use_days, certificate, "
-    "registered_at, audit_seq) VALUES (:code, :material, :expires, :opened, :days, :cert, :at, "
-    ":seq)";
+    "registered_at, audit_seq, coverage_factor) VALUES (:code, :material, :expires, :opened, "
+    ":days, :cert, :at, :seq, :k)";
 inline constexpr const char* kInsertLotValue =
     "INSERT INTO lot_values (lot_id, analyte, value, uncertainty, audit_seq) "
     "VALUES (:lot, :analyte, :value, :u, :seq)";
@@ -192,24 +195,28 @@ inline constexpr const char* kInsertCheck =
 inline constexpr const char* kResultById =
     "SELECT id, sample, analyte, status, curve_id, method_id, instrument_id, response, "
     "is_response, replicates, dilution, x0, sd_x0, concentration, ci_low, ci_high, flags, "
-    "reasons, reason_details, analyst, occurred_at FROM results WHERE id = :id";
+    "reasons, reason_details, analyst, occurred_at, censored, reporting_limit, "
+    "computed_concentration, uncertainty FROM results WHERE id = :id";
 inline constexpr const char* kResultsOf =
     "SELECT id, sample, analyte, status, curve_id, method_id, instrument_id, response, "
     "is_response, replicates, dilution, x0, sd_x0, concentration, ci_low, ci_high, flags, "
-    "reasons, reason_details, analyst, occurred_at FROM results "
+    "reasons, reason_details, analyst, occurred_at, censored, reporting_limit, "
+    "computed_concentration, uncertainty FROM results "
     "WHERE curve_id IN (SELECT value FROM json_each(:ids)) ORDER BY occurred_at, id";
 inline constexpr const char* kReportedBetween =
     "SELECT id, sample, analyte, status, curve_id, method_id, instrument_id, response, "
     "is_response, replicates, dilution, x0, sd_x0, concentration, ci_low, ci_high, flags, "
-    "reasons, reason_details, analyst, occurred_at FROM results WHERE curve_id = :id AND "
+    "reasons, reason_details, analyst, occurred_at, censored, reporting_limit, "
+    "computed_concentration, uncertainty FROM results WHERE curve_id = :id AND "
     "status = 'reported' AND occurred_at > :after AND occurred_at <= :until "
     "ORDER BY occurred_at, id";
 inline constexpr const char* kInsertResult =
     "INSERT INTO results (sample, analyte, status, curve_id, method_id, instrument_id, response, "
     "is_response, replicates, dilution, x0, sd_x0, concentration, ci_low, ci_high, flags, "
-    "reasons, reason_details, analyst, occurred_at, audit_seq) VALUES (:sample, :analyte, "
-    ":status, :curve, :method, :instrument, :response, :is, :m, :dilution, :x0, :sd, :conc, "
-    ":low, :high, :flags, :reasons, :details, :analyst, :at, :seq)";
+    "reasons, reason_details, analyst, occurred_at, audit_seq, censored, reporting_limit, "
+    "computed_concentration, uncertainty) VALUES (:sample, :analyte, :status, :curve, :method, "
+    ":instrument, :response, :is, :m, :dilution, :x0, :sd, :conc, :low, :high, :flags, "
+    ":reasons, :details, :analyst, :at, :seq, :censored, :limit, :computed, :uncertainty)";
 inline constexpr const char* kInsertRefusal =
     "INSERT INTO refusals (action, entity_kind, entity_id, actor, reasons, message, occurred_at, "
     "audit_seq) VALUES (:action, :kind, :id, :actor, :reasons, :message, :at, :seq)";

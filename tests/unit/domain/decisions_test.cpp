@@ -117,7 +117,7 @@ TEST_CASE("check judgement: bad readings are bad input naming the option", "[dom
 
 TEST_CASE("quantitation: a reported value with its interval follows §9 M1", "[domain]") {
   const cw::Curve c = m1_curve();
-  const auto d = cw::decide_quantitation(c, active(), method(), {13.5, std::nullopt, 1, 1.0});
+  const auto d = cw::decide_quantitation(c, active(), method(), {}, {13.5, std::nullopt, 1, 1.0});
   REQUIRE(d.status == cw::ResultStatus::Reported);
   CHECK_THAT(*d.x0, WithinRel(6.207215541, 1e-9));
   CHECK_THAT(*d.sd_x0, WithinRel(0.2397542227, 1e-8));
@@ -126,7 +126,7 @@ TEST_CASE("quantitation: a reported value with its interval follows §9 M1", "[d
   // Four readings averaging 13.5: s_x0 = 0.1406133618 (§9 M1 [C]); a tenfold dilution scales
   // the value and its interval.
   const auto diluted =
-      cw::decide_quantitation(c, active(), method(), {13.5, std::nullopt, 4, 10.0});
+      cw::decide_quantitation(c, active(), method(), {}, {13.5, std::nullopt, 4, 10.0});
   CHECK_THAT(*diluted.sd_x0, WithinRel(0.1406133618, 1e-8));
   CHECK_THAT(*diluted.concentration, WithinRel(62.07215541, 1e-9));
   CHECK_THAT(*diluted.ci_high - *diluted.concentration, WithinRel(3.614581537, 1e-8));
@@ -137,14 +137,16 @@ TEST_CASE("quantitation: above the range is refused with a dilution, below it is
   const cw::Curve c = m1_curve();
   // y0 = 30 reads as (30 - 85/56)/(1081/560) = 14.76 pg/mL, above the top calibrator (12): a
   // twofold dilution brings it to 7.4, under 80 % of 12 (common practice).
-  const auto above = cw::decide_quantitation(c, active(), method(), {30.0, std::nullopt, 1, 1.0});
+  const auto above =
+      cw::decide_quantitation(c, active(), method(), {}, {30.0, std::nullopt, 1, 1.0});
   CHECK(above.status == cw::ResultStatus::Refused);
   REQUIRE(above.reasons.size() == 1);
   CHECK(above.reasons[0].reason == cw::Reason::AboveRange);
   CHECK(above.suggested_dilution == 2.0);
   CHECK_FALSE(above.concentration.has_value());
   // y0 = 1.0 reads below the intercept: below the lowest calibrator (0), flagged.
-  const auto below = cw::decide_quantitation(c, active(), method(), {1.0, std::nullopt, 1, 1.0});
+  const auto below =
+      cw::decide_quantitation(c, active(), method(), {}, {1.0, std::nullopt, 1, 1.0});
   CHECK(below.status == cw::ResultStatus::Reported);
   CHECK(below.flags == std::vector<cw::ResultFlag>{cw::ResultFlag::BelowRange});
   CHECK(below.reporting_limit == 0.0);
@@ -156,19 +158,20 @@ TEST_CASE("quantitation: a curve that is not active refuses with every blocking 
   stale.state = cw::CurveState::Stale;
   stale.reasons = {{cw::Reason::CheckFailed, std::nullopt, "check 4 failed"},
                    {cw::Reason::MethodRevised, std::nullopt, "version 2 took effect"}};
-  const auto d = cw::decide_quantitation(m1_curve(), stale, method(), {13.5, std::nullopt, 1, 1.0});
+  const auto d =
+      cw::decide_quantitation(m1_curve(), stale, method(), {}, {13.5, std::nullopt, 1, 1.0});
   CHECK(d.status == cw::ResultStatus::Refused);
   CHECK(d.reasons == stale.reasons);
   CHECK_FALSE(d.x0.has_value());
   // Bad input is refused before the state is looked at.
   CHECK(validation_error([&] {
-          cw::decide_quantitation(m1_curve(), stale, method(), {13.5, 2.0, 1, 1.0});
+          cw::decide_quantitation(m1_curve(), stale, method(), {}, {13.5, 2.0, 1, 1.0});
         }).option() == "--is-response");
 }
 
 TEST_CASE("quantitation: a dilution whose product overflows is bad input", "[domain]") {
   const auto e = validation_error([&] {
-    cw::decide_quantitation(m1_curve(), active(), method(), {13.5, std::nullopt, 1, 1e308});
+    cw::decide_quantitation(m1_curve(), active(), method(), {}, {13.5, std::nullopt, 1, 1e308});
   });
   CHECK(e.option() == "--dilution");
   CHECK_THAT(e.what(), Catch::Contains("is not a finite number"));

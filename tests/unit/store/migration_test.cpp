@@ -65,7 +65,7 @@ std::vector<std::string> table_names(RawDb& raw) {
 
 TEST_CASE("store: the migrations compiled in are the files of migrations/, in order", "[store]") {
   const auto m = cw::store::sqlite::embedded_migrations();
-  REQUIRE(m.size() == 4);
+  REQUIRE(m.size() == 5);
   CHECK(m[0].version == 1);
   CHECK(m[0].name == "0001_create_audit_and_registries");
   CHECK(m[1].version == 2);
@@ -74,6 +74,8 @@ TEST_CASE("store: the migrations compiled in are the files of migrations/, in or
   CHECK(m[2].name == "0003_create_checks_and_results");
   CHECK(m[3].version == 4);
   CHECK(m[3].name == "0004_forbid_updates_and_deletes");
+  CHECK(m[4].version == 5);
+  CHECK(m[4].name == "0005_add_censoring_and_uncertainty");
   CHECK_THAT(m[0].sql, Catch::Contains("CREATE TABLE audit_log"));
 }
 
@@ -85,12 +87,12 @@ TEST_CASE("store: a fresh store records every migration, user_version and applic
   {
     auto c = cw::store::Store::open(options(path, true));
     CHECK(c->was_created());
-    CHECK(c->schema_version() == 4);
+    CHECK(c->schema_version() == 5);
   }
   RawDb raw(path);
   const auto rows =
       raw.rows("SELECT version, name, sha256, applied_at FROM schema_migrations ORDER BY version");
-  REQUIRE(rows.size() == 4);
+  REQUIRE(rows.size() == 5);
   for (size_t i = 0; i < rows.size(); ++i) {
     INFO("migration " << i + 1);
     CHECK(rows[i][0] == std::to_string(i + 1));
@@ -100,7 +102,7 @@ TEST_CASE("store: a fresh store records every migration, user_version and applic
     CHECK(rows[i][3].size() == 20);  // YYYY-MM-DDTHH:MM:SSZ
     CHECK(rows[i][3].back() == 'Z');
   }
-  CHECK(raw.integer("PRAGMA user_version") == 4);
+  CHECK(raw.integer("PRAGMA user_version") == 5);
   CHECK(raw.integer("PRAGMA application_id") == 0x43575244);
   CHECK(raw.text("PRAGMA journal_mode") == "wal");
   CHECK(table_names(raw) ==
@@ -116,7 +118,7 @@ TEST_CASE("store: a fresh store records every migration, user_version and applic
   const std::string header = read_bytes(path).substr(0, 100);
   CHECK(header.substr(0, 16) == std::string("SQLite format 3\0", 16));
   CHECK(header.substr(68, 4) == "CWRD");  // application_id 0x43575244
-  CHECK(header.substr(60, 4) == std::string("\0\0\0\x04", 4));
+  CHECK(header.substr(60, 4) == std::string("\0\0\0\x05", 4));
   CHECK(header[18] == 2);  // WAL
   CHECK(header[19] == 2);
 }
@@ -138,12 +140,12 @@ TEST_CASE("store: re-opening applies nothing", "[store]") {
     INFO("create = " << create);
     auto c = cw::store::Store::open(options(path, create));
     CHECK_FALSE(c->was_created());
-    CHECK(c->schema_version() == 4);
+    CHECK(c->schema_version() == 5);
   }
   RawDb raw(path);
   CHECK(raw.rows("SELECT * FROM schema_migrations ORDER BY version") == before);
   CHECK(raw.integer("SELECT count(*) FROM sqlite_master") == objects_before);
-  CHECK(raw.integer("PRAGMA user_version") == 4);
+  CHECK(raw.integer("PRAGMA user_version") == 5);
   CHECK(read_bytes(path) == bytes_before);
 }
 
@@ -193,7 +195,7 @@ TEST_CASE("store: a first migration that fails leaves a bare, unclaimed file", "
   }
   // So init can try again.
   auto c = cw::store::Store::open(options(path, true));
-  CHECK(c->schema_version() == 4);
+  CHECK(c->schema_version() == 5);
 }
 
 TEST_CASE("store: a store written by a newer version is refused and left byte-identical",
@@ -211,11 +213,11 @@ TEST_CASE("store: a store written by a newer version is refused and left byte-id
     const std::string message = open_error(options(path, create));
     CHECK_THAT(message, Catch::Contains("newer version of curvewarden"));
     CHECK_THAT(message, Catch::Contains("schema 99"));
-    CHECK_THAT(message, Catch::Contains("knows up to 4"));
+    CHECK_THAT(message, Catch::Contains("knows up to 5"));
     CHECK(read_bytes(path) == before);
   }
   RawDb raw(path);
-  CHECK(raw.integer("SELECT count(*) FROM schema_migrations") == 4);
+  CHECK(raw.integer("SELECT count(*) FROM schema_migrations") == 5);
 }
 
 TEST_CASE("store: a file that is not SQLite is refused and left unchanged", "[store]") {
@@ -271,5 +273,5 @@ TEST_CASE("store: a missing or empty file is not a store unless init creates it"
   CHECK(read_bytes(empty).empty());
   auto c = cw::store::Store::open(options(empty, true));
   CHECK(c->was_created());
-  CHECK(c->schema_version() == 4);
+  CHECK(c->schema_version() == 5);
 }
