@@ -78,8 +78,8 @@ void print_lots(std::ostream& out, const std::vector<Lot>& lots, const LabZone& 
         << format_date(l.effective_expires_on()) << ", " << lot_status(l, zone, at)
         << " at the result's time\n";
     for (const auto& v : l.values) {
-      out << "      " << v.analyte << " = " << format_plain(v.value)
-          << (v.uncertainty ? " ± " + format_plain(*v.uncertainty) : "") << "\n";
+      out << "      " << v.analyte << " = " << format_shortest(v.value)
+          << (v.uncertainty ? " ± " + format_shortest(*v.uncertainty) : "") << "\n";
     }
   }
 }
@@ -121,10 +121,10 @@ void print_check_outcome(std::ostream& out, const app::CheckOutcome& o, const La
     out << "the response has no solution on the curve\n";
   } else if (k.kind == CheckKind::Check) {
     out << "measured " << format_sig(*k.measured, 4) << " " << o.unit << " against nominal "
-        << format_plain(k.nominal) << ", recovery "
+        << format_shortest(k.nominal) << ", recovery "
         << format_fixed_against(*k.recovery_pct,
                                 {k.limit_low.value_or(0), k.limit_high.value_or(0)}, 1)
-        << " % (allowed " << format_plain(*k.limit_low) << "–" << format_plain(*k.limit_high)
+        << " % (allowed " << format_shortest(*k.limit_low) << "–" << format_shortest(*k.limit_high)
         << " %)\n";
   } else {
     out << "measured " << format_sig(*k.measured, 4) << " " << o.unit << " (must be below "
@@ -385,8 +385,8 @@ void print_trace_result(std::ostream& out, const app::ResultTrace& t, const LabZ
   const std::string unit = t.method_version ? t.method_version->definition.unit : "";
   out << "Result " << r.id.value << ": sample " << r.sample << ", " << r.analyte << ", "
       << result_value_text(r, unit) << "\n  quantified " << zone.format_local(r.occurred_at)
-      << " by " << r.analyst << " from response " << format_plain(r.response) << ", dilution "
-      << format_plain(r.dilution) << "\n";
+      << " by " << r.analyst << " from response " << format_shortest(r.response) << ", dilution "
+      << format_shortest(r.dilution) << "\n";
   if (r.uncertainty) out << "  " << uncertainty_text(*r.uncertainty, unit) << "\n";
   for (const auto& d : r.reasons) out << "  - " << to_string(d.reason) << ": " << d.message << "\n";
   if (!t.curve) {

@@ -13,7 +13,7 @@ std::string or_dash(const std::optional<std::string>& s) {
 }
 
 std::string opt_num(const std::optional<double>& v, const std::string& suffix = "") {
-  return v ? format_plain(*v, 6) + suffix : "-";
+  return v ? format_shortest(*v) + suffix : "-";
 }
 
 }  // namespace
@@ -165,24 +165,24 @@ void print_method_version(std::ostream& out, const Method& m, const MethodVersio
       << fitting::to_string(c.weighting) << ", valid for " << to_string(c.valid_for)
       << (c.review_required ? ", second-person review required" : ", no review required") << "\n";
   out << "  acceptance  at least " << c.min_levels << " levels";
-  if (c.min_r2) out << "; r² ≥ " << format_plain(*c.min_r2);
+  if (c.min_r2) out << "; r² ≥ " << format_shortest(*c.min_r2);
   if (c.max_error_pct) {
-    out << "; |%RE| ≤ " << format_plain(*c.max_error_pct, 4) << " %";
+    out << "; |%RE| ≤ " << format_shortest(*c.max_error_pct) << " %";
     if (c.max_error_pct_lowest)
-      out << " (lowest level ≤ " << format_plain(*c.max_error_pct_lowest, 4) << " %)";
+      out << " (lowest level ≤ " << format_shortest(*c.max_error_pct_lowest) << " %)";
     if (c.min_levels_within) {
-      out << " for at least " << format_plain(100 * *c.min_levels_within, 4) << " % of levels";
+      out << " for at least " << format_shortest(100 * *c.min_levels_within) << " % of levels";
     } else {
       out << " at every level";
     }
   }
   if (c.max_rf_rsd_pct)
-    out << "; response-factor %RSD ≤ " << format_plain(*c.max_rf_rsd_pct, 4) << " %";
+    out << "; response-factor %RSD ≤ " << format_shortest(*c.max_rf_rsd_pct) << " %";
   out << "\n";
-  out << "  checks      recovery within 100 ± " << format_plain(k.tolerance_pct, 4) << " %";
+  out << "  checks      recovery within 100 ± " << format_shortest(k.tolerance_pct) << " %";
   if (k.check_every) out << ", due every " << to_string(*k.check_every);
   if (k.samples_per_check) out << ", at most " << *k.samples_per_check << " samples per check";
-  if (k.blank_limit) out << ", blanks below " << format_plain(*k.blank_limit, 6) << " " << d.unit;
+  if (k.blank_limit) out << ", blanks below " << format_shortest(*k.blank_limit) << " " << d.unit;
   out << "\n";
   if (!k.trend_rules.empty()) {
     std::string rules;
@@ -272,7 +272,7 @@ void print_lot(std::ostream& out, const Lot& lot, const LabZone& zone, Instant a
   out << "\n  certified values:\n";
   Table t({{"analyte"}, {"value", Table::Align::Right}, {"uncertainty", Table::Align::Right}});
   for (const auto& v : lot.values)
-    t.add_row({v.analyte, format_plain(v.value, 8), opt_num(v.uncertainty)});
+    t.add_row({v.analyte, format_shortest(v.value), opt_num(v.uncertainty)});
   t.print(out, 4);
 }
 

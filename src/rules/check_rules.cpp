@@ -11,14 +11,14 @@ std::string describe_check(const Check& k, const std::string& unit, const LabZon
   std::string s = std::string(to_string(k.kind)) + " " + std::to_string(k.id.value) + " at " +
                   zone.format_local(k.occurred_at) + ": ";
   if (!k.measured)
-    return s + "response " + format_plain(k.response, 8) + " has no solution on the curve";
+    return s + "response " + format_shortest(k.response) + " has no solution on the curve";
   s += "measured " + format_sig(*k.measured, 4) + " " + unit;
   if (k.kind == CheckKind::Check) {
-    s += " against nominal " + format_plain(k.nominal, 8) + " (recovery " +
+    s += " against nominal " + format_shortest(k.nominal) + " (recovery " +
          format_fixed_against(*k.recovery_pct, {k.limit_low.value_or(0), k.limit_high.value_or(0)},
                               1) +
-         " %, allowed " + format_plain(k.limit_low.value_or(0), 6) + "–" +
-         format_plain(k.limit_high.value_or(0), 6) + " %)";
+         " %, allowed " + format_shortest(k.limit_low.value_or(0)) + "–" +
+         format_shortest(k.limit_high.value_or(0)) + " %)";
   } else if (k.limit_high) {
     s += " (blank limit " + format_sig(*k.limit_high, 4) + " " + unit + ")";
   }
