@@ -5,6 +5,8 @@
 #include "core/clean_text.h"
 #include "core/error.h"
 #include "core/text.h"
+#include "plot/plot.h"
+#include "report/curve_plot_view.h"
 #include "report/curve_views.h"
 
 namespace cw::cli::handlers {
@@ -76,13 +78,19 @@ int curve_list(Invocation& in) {
 
 int curve_show(Invocation& in) {
   const CurveId id = in.curve_id("id");
+  const auto plot_path = in.optional_output_path("--plot");
+  if (plot_path) plot::output_format_for(*plot_path);  // a bad extension fails before anything
   auto s = in.open_session();
   const auto v = app::show_curve(s, id);
+  if (plot_path) plot::render_curve_plot(report::curve_plot_of(v, s.now()), *plot_path);
   if (in.json()) {
-    in.emit(report::curve_json(v, s.zone()));
+    report::Json j = report::curve_json(v, s.zone());
+    if (plot_path) j["plot"] = *plot_path;
+    in.emit(j);
   } else {
     report::print_calibration_header(in.out(), v, s.zone(), v.curve.calibration_id);
     report::print_curve_report(in.out(), v, s.zone());
+    if (plot_path) in.out() << "\nPlot written to " << *plot_path << "\n";
   }
   return 0;
 }

@@ -3,6 +3,7 @@
 #include "cli/invocation.h"
 
 #include <pwd.h>
+#include <sys/stat.h>
 #include <unistd.h>
 
 #include <algorithm>
@@ -212,6 +213,18 @@ std::string Invocation::path(std::string_view option) const {
     }
     return *raw;
   });
+}
+
+std::optional<std::string> Invocation::optional_output_path(std::string_view option) const {
+  if (!has(option)) return std::nullopt;
+  const std::string p = path(option);
+  struct stat st {};
+  if (::lstat(p.c_str(), &st) == 0 && !S_ISREG(st.st_mode)) {
+    throw option_error(std::string(option),
+                       std::string(option) + " '" + p + "' exists and is not a regular file",
+                       "give the path of a new file, or of an ordinary file to replace");
+  }
+  return p;
 }
 
 bool Invocation::either(std::string_view first, std::string_view second) const {

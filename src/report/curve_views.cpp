@@ -41,7 +41,9 @@ bool has_term(const fitting::FitResult& f, int k) {
   return true;
 }
 
-std::string equation(const fitting::FitResult& f) {
+}  // namespace
+
+std::string equation_text(const fitting::FitResult& f) {
   using fitting::Model;
   // One style for every parameter: six significant figures, an ASCII minus.
   auto term = [](double v, const std::string& suffix) {
@@ -59,6 +61,8 @@ std::string equation(const fitting::FitResult& f) {
   }
   return "";
 }
+
+namespace {
 
 Json limits_json(const app::CurveView& v) {
   const auto& f = v.curve.fit;
@@ -290,7 +294,7 @@ void print_curve_report(std::ostream& out, const app::CurveView& v, const LabZon
   if (v.version.definition.internal_standard) {
     out << ", response = analyte / " << *v.version.definition.internal_standard;
   }
-  out << "\n  " << equation(f) << "\n";
+  out << "\n  " << equation_text(f) << "\n";
   Table params(
       {{"parameter"}, {"estimate", Table::Align::Right}, {"std. error", Table::Align::Right}});
   if (has_term(f, 0))

@@ -26,6 +26,9 @@ void print_curve_list(std::ostream& out, const std::vector<app::CurveView>& list
 void print_status(std::ostream& out, const CurveStatus& status, const LabZone& zone,
                   int indent = 2);
 
+/// The fitted function as text, e.g. "y = 0.0194547 + 0.100072·x" (six significant figures).
+std::string equation_text(const fitting::FitResult& f);
+
 /// The short caution printed under reports that lead to reported values.
 extern const char* const kReviewCaution;
 

@@ -1,0 +1,113 @@
+// SPDX-License-Identifier: Apache-2.0
+// Files the tool writes on request: `curve show --plot` draws the curve as SVG, PNG or PDF; an
+// unknown extension or a path that is not a regular file is refused before the store is read.
+#include <sys/stat.h>
+
+#include <catch2/catch.hpp>
+#include <cstdio>
+#include <memory>
+#include <regex>
+#include <string>
+
+#include "harness.h"
+
+namespace {
+
+using cw::test::RunResult;
+using cw::test::Sandbox;
+
+void run_ok(const Sandbox& box, const std::vector<std::string>& args) {
+  const RunResult r = box.run(args);
+  INFO(r.describe());
+  REQUIRE(r.exit_code == 0);
+}
+
+/// A store with one calibration of `levels` levels × `replicates` replicates of nitrate.
+void populate(Sandbox& box, int levels, int replicates) {
+  box.write_file("anion.toml", cw::test::method_toml());
+  std::string csv = "analyte,level,nominal,response,replicate\n";
+  for (int l = 1; l <= levels; ++l) {
+    for (int r = 1; r <= replicates; ++r) {
+      const double x = l * 2.5;
+      const double y = 0.1 * x * (1 + 0.004 * ((l + r) % 3 - 1));  // invented, within 0.4 %
+      csv += "nitrate,L" + std::to_string(l) + "," + std::to_string(x) + "," + std::to_string(y) +
+             "," + std::to_string(r) + "\n";
+    }
+  }
+  box.write_file("points.csv", csv);
+  run_ok(box, {"init", "--tz", "UTC"});
+  run_ok(box, {"instrument", "add", "IC-02"});
+  run_ok(box, {"method", "add", "anion.toml"});
+  run_ok(box, {"lot", "add", "CRM-1", "--material", "m", "--expires", "2027-03-31", "--value",
+               "nitrate=1000"});
+  run_ok(box, {"curve", "log", "--method", "ANION-IC", "--instrument", "IC-02", "--lot", "CRM-1",
+               "--points", "points.csv"});
+}
+
+std::string command_output(const std::string& command) {
+  std::string out;
+  std::unique_ptr<FILE, int (*)(FILE*)> pipe(popen(command.c_str(), "r"), pclose);
+  REQUIRE(pipe != nullptr);
+  char buffer[512];
+  while (fgets(buffer, sizeof buffer, pipe.get()) != nullptr) out += buffer;
+  return out;
+}
+
+std::size_t count(const std::string& text, const std::string& what) {
+  std::size_t n = 0;
+  for (auto at = text.find(what); at != std::string::npos; at = text.find(what, at + 1)) ++n;
+  return n;
+}
+
+}  // namespace
+
+TEST_CASE("e2e output files: curve show --plot writes SVG, PNG and PDF", "[e2e]") {
+  for (const auto& [levels, replicates] : std::vector<std::pair<int, int>>{{5, 1}, {8, 5}}) {
+    DYNAMIC_SECTION(levels * replicates << " points") {
+      Sandbox box;
+      populate(box, levels, replicates);
+      const int points = levels * replicates;
+
+      run_ok(box, {"curve", "show", "1", "--plot", "curve.png"});
+      const std::string png = cw::test::read_file(box.path("curve.png"));
+      REQUIRE(png.size() > 24);
+      CHECK(png.substr(0, 8) == "\x89PNG\r\n\x1a\n");  // PNG signature (ISO/IEC 15948)
+      // IHDR width and height, big-endian: the default page of 900 × 700.
+      const auto be32 = [&](std::size_t at) {
+        return (static_cast<unsigned char>(png[at]) << 24) |
+               (static_cast<unsigned char>(png[at + 1]) << 16) |
+               (static_cast<unsigned char>(png[at + 2]) << 8) |
+               static_cast<unsigned char>(png[at + 3]);
+      };
+      CHECK(be32(16) == 900u);
+      CHECK(be32(20) == 700u);
+
+      run_ok(box, {"curve", "show", "1", "--plot", "curve.svg"});
+      const std::string svg = cw::test::read_file(box.path("curve.svg"));
+      CHECK_THAT(svg, Catch::StartsWith("<?xml"));
+      // One marker per calibrator in the curve panel and one per %RE in the residual panel,
+      // each a path marked with stroke-miterlimit 7 (src/plot/plot.h).
+      CHECK(count(svg, "stroke-miterlimit:7;") == static_cast<std::size_t>(2 * points));
+
+      run_ok(box, {"curve", "show", "1", "--plot", "curve.pdf"});
+      const std::string info = command_output("pdfinfo '" + box.path("curve.pdf").string() + "'");
+      CHECK(std::regex_search(info, std::regex("Pages:\\s+1\\b")));
+    }
+  }
+}
+
+TEST_CASE("e2e output files: a bad plot path is refused before anything happens", "[e2e]") {
+  Sandbox box;
+  populate(box, 5, 1);
+  const auto counts = cw::test::table_row_counts(box.db());
+  const RunResult bad = box.run({"curve", "show", "1", "--plot", "curve.gif", "--json"});
+  CHECK(bad.exit_code == 2);
+  CHECK_THAT(bad.err, Catch::Contains("expected .svg, .png or .pdf"));
+  CHECK_FALSE(std::filesystem::exists(box.path("curve.gif")));
+  REQUIRE(mkfifo(box.path("pipe.png").c_str(), 0600) == 0);
+  const RunResult pipe = box.run({"curve", "show", "1", "--plot", "pipe.png"});
+  CHECK(pipe.exit_code == 2);
+  CHECK(pipe.seconds < 1.0);
+  CHECK_THAT(pipe.err, Catch::Contains("exists and is not a regular file"));
+  CHECK(cw::test::table_row_counts(box.db()) == counts);
+}
