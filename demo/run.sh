@@ -8,16 +8,20 @@ build="${CURVEWARDEN_BUILD_DIR:-$root/build}"
 data="$root/demo/data"
 out="$root/demo/out"
 
+echo "== Checking the Debian packages the build needs (installs what is missing)"
 "$root/.ci/install-deps"
-cmake -S "$root" -B "$build" -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCURVEWARDEN_BUILD_TESTS=OFF >/dev/null
-cmake --build "$build" -j "$(nproc)" --target curvewarden >/dev/null
+echo "== Building curvewarden in $build (the same build tests/run.sh uses; a few minutes the first time)"
+"$root/.ci/configure" "$build"
+cmake --build "$build" -j "$(nproc)" --target curvewarden curvewarden-docs
 
 rm -rf "$out" && mkdir -p "$out"
 export CURVEWARDEN_DB="$out/demo.db"
 export CURVEWARDEN_USER="r.okafor"      # the bench analyst (fictional)
 cw="$build/curvewarden"
 
-step() { printf '\n\033[1m== %s\033[0m\n' "$*"; }
+# Bold headings on a terminal only: a log or a pipe gets plain text.
+if [ -t 1 ]; then bold=$'\033[1m' plain=$'\033[0m'; else bold="" plain=""; fi
+step() { printf '\n%s== %s%s\n' "$bold" "$*" "$plain"; }
 show() { printf '$ curvewarden %s\n' "$*"; "$cw" "$@" || printf '(exit %d)\n' "$?"; }
 at() { export CURVEWARDEN_NOW="$1"; }   # the demo fixes "now" so that it plays the same every time
 

@@ -6,8 +6,7 @@ root=$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)
 build="${CURVEWARDEN_BUILD_DIR:-$root/build}"
 
 "$root/.ci/install-deps"
-cmake -S "$root" -B "$build" -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCURVEWARDEN_WERROR=ON \
-  -DCURVEWARDEN_BUILD_TESTS=ON >/dev/null
+"$root/.ci/configure" "$build"
 cmake --build "$build" -j "$(nproc)"
 cd "$build"
 ctest --output-on-failure -j "$(nproc)" "$@"

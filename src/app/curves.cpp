@@ -229,14 +229,15 @@ CurveLogOutcome log_calibration(Session& s, const CurveLogRequest& r) {
     auto unit = s.read();
     basis = load_basis(*unit, r, at, s.zone());
   }
-  FittedCalibration fitted = fit_calibration(r.points, text, basis.version());
+  FittedCalibration fitted =
+      fit_calibration(import::recorded_name(r.points), text, basis.version());
 
   // 2. One transaction: the same checks on the current facts, then the facts and entries.
   auto unit = s.write();
   const CalibrationBasis now = load_basis(*unit, r, at, s.zone());
   if (now.version_id != basis.version_id) {
     // The method was revised in between: judge against the version in force now.
-    fitted = fit_calibration(r.points, text, now.version());
+    fitted = fit_calibration(import::recorded_name(r.points), text, now.version());
   }
   const MethodVersion& version = now.version();
 

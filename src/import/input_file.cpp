@@ -31,10 +31,23 @@ std::string size_text(std::size_t bytes) {
 
 }  // namespace
 
+std::string recorded_name(const std::string& path) {
+  return path == "-" ? "(standard input)" : path;
+}
+
 InputFile::InputFile(const std::string& path, std::size_t max_bytes, std::string_view option)
     : path_(path), option_(option), max_bytes_(max_bytes) {
-  const SourceLocation where{path, std::nullopt, std::nullopt, {}};
+  const SourceLocation where{recorded_name(path), std::nullopt, std::nullopt, {}};
   const std::string prefix = option_ + " '" + path + "': ";
+  if (path == "-") {
+    if (::isatty(STDIN_FILENO)) {
+      throw ValidationError(where, prefix + "standard input is a terminal",
+                            "pipe the file in, e.g. curvewarden ... " + option_ + " - < FILE");
+    }
+    fd_ = STDIN_FILENO;
+    owned_ = false;
+    return;
+  }
   struct stat before {};
   if (::stat(path.c_str(), &before) != 0) {
     const int err = errno;
@@ -69,7 +82,7 @@ InputFile::InputFile(const std::string& path, std::size_t max_bytes, std::string
 }
 
 InputFile::~InputFile() {
-  if (fd_ >= 0) ::close(fd_);
+  if (fd_ >= 0 && owned_) ::close(fd_);
 }
 
 bool InputFile::read_some(std::string& out, std::size_t chunk) {
@@ -82,7 +95,7 @@ bool InputFile::read_some(std::string& out, std::size_t chunk) {
   if (n < 0) {
     const int err = errno;
     out.resize(start);
-    throw ValidationError(SourceLocation{path_, std::nullopt, std::nullopt, {}},
+    throw ValidationError(SourceLocation{recorded_name(path_), std::nullopt, std::nullopt, {}},
                           option_ + " '" + path_ + "': read error: " + std::strerror(err));
   }
   out.resize(start + static_cast<std::size_t>(n));
@@ -115,7 +128,7 @@ std::string read_text_file(const std::string& path, std::size_t max_bytes,
       if (!next_code_point(text, pos)) break;
       if (text[at] == '\n') ++line;
     }
-    throw ValidationError(SourceLocation{path, line, std::nullopt, {}},
+    throw ValidationError(SourceLocation{recorded_name(path), line, std::nullopt, {}},
                           std::string(option) + " '" + path + "' is not UTF-8 text",
                           "save the file as UTF-8 (plain CSV or TOML text)");
   }

@@ -15,7 +15,8 @@ inline constexpr std::size_t kMaxPointsFileBytes = 16u << 20;  ///< 16 MiB
 
 /// An open regular file. The path is checked with stat() before it is opened (so a FIFO or a
 /// device is refused without blocking), opened non-blocking, and checked again with fstat() on
-/// the open descriptor (so a file swapped in between is refused too).
+/// the open descriptor (so a file swapped in between is refused too). The path "-" reads
+/// standard input (a pipe or a redirected file, not a terminal), with the same cap.
 class InputFile {
  public:
   /// Opens `path` for reading at most `max_bytes`. `option` names where the path came from
@@ -40,7 +41,11 @@ class InputFile {
   std::size_t max_bytes_;
   std::size_t read_ = 0;
   int fd_ = -1;
+  bool owned_ = true;  ///< false for standard input, which is not closed
 };
+
+/// The name a file read from `path` is recorded under: the path, or "(standard input)" for "-".
+std::string recorded_name(const std::string& path);
 
 /// The whole file as text: InputFile::read_all(), then checked to be well-formed UTF-8.
 std::string read_text_file(const std::string& path, std::size_t max_bytes, std::string_view option);

@@ -397,7 +397,8 @@ MethodFile parse_method_text(const std::string& file_name, const std::string& te
 }
 
 MethodFile read_method_file(const std::string& path) {
-  return parse_method_text(path, read_text_file(path, kMaxMethodFileBytes, "method file"));
+  return parse_method_text(recorded_name(path),
+                           read_text_file(path, kMaxMethodFileBytes, "method file"));
 }
 
 }  // namespace cw::import

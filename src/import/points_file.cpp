@@ -224,7 +224,8 @@ PointsFile parse_points_text(const std::string& file_name, const std::string& te
 }
 
 PointsFile read_points_file(const std::string& path, const MethodDefinition& method) {
-  return parse_points_text(path, read_text_file(path, kMaxPointsFileBytes, "--points"), method);
+  return parse_points_text(recorded_name(path),
+                           read_text_file(path, kMaxPointsFileBytes, "--points"), method);
 }
 
 }  // namespace cw::import

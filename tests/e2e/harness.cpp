@@ -134,7 +134,7 @@ std::filesystem::path binary_path() {
 
 RunResult run_process(const std::filesystem::path& binary, const std::vector<std::string>& args,
                       const std::map<std::string, std::string>& env,
-                      const std::filesystem::path& cwd) {
+                      const std::filesystem::path& cwd, const std::filesystem::path& stdin_path) {
   int out_pipe[2], err_pipe[2];
   if (pipe2(out_pipe, O_CLOEXEC) != 0) fail_errno("pipe");
   if (pipe2(err_pipe, O_CLOEXEC) != 0) fail_errno("pipe");
@@ -152,13 +152,14 @@ RunResult run_process(const std::filesystem::path& binary, const std::vector<std
   for (auto& e : env_text) envp.push_back(e.data());
   envp.push_back(nullptr);
   const std::string dir = cwd.string();
+  const std::string input = stdin_path.string();
 
   const pid_t pid = fork();
   if (pid < 0) fail_errno("fork");
   if (pid == 0) {
     dup2(out_pipe[1], STDOUT_FILENO);
     dup2(err_pipe[1], STDERR_FILENO);
-    const int null_in = open("/dev/null", O_RDONLY);
+    const int null_in = open(input.c_str(), O_RDONLY);
     if (null_in >= 0) dup2(null_in, STDIN_FILENO);
     if (chdir(dir.c_str()) != 0) _exit(126);
     execve(argv[0], argv.data(), envp.data());
@@ -236,6 +237,12 @@ std::map<std::string, std::string> Sandbox::environment(const EnvOverrides& over
 
 RunResult Sandbox::run(const std::vector<std::string>& args, const EnvOverrides& overrides) const {
   return run_process(binary_path(), args, environment(overrides), dir_);
+}
+
+RunResult Sandbox::run_with_input(const std::vector<std::string>& args, const std::string& input,
+                                  const EnvOverrides& overrides) const {
+  const auto file = write_file(".stdin", input);
+  return run_process(binary_path(), args, environment(overrides), dir_, file);
 }
 
 std::map<std::string, std::int64_t> table_row_counts(const std::filesystem::path& db) {

@@ -62,7 +62,8 @@ std::filesystem::path binary_path();
 /// waits for it and captures both output streams.
 RunResult run_process(const std::filesystem::path& binary, const std::vector<std::string>& args,
                       const std::map<std::string, std::string>& env,
-                      const std::filesystem::path& cwd);
+                      const std::filesystem::path& cwd,
+                      const std::filesystem::path& stdin_path = "/dev/null");
 
 /// One test's temporary directory, store path and pinned environment.
 class Sandbox {
@@ -93,6 +94,9 @@ class Sandbox {
 
   /// Runs the binary with `args` in the sandbox directory.
   RunResult run(const std::vector<std::string>& args, const EnvOverrides& overrides = {}) const;
+  /// Runs the binary with `input` on its standard input.
+  RunResult run_with_input(const std::vector<std::string>& args, const std::string& input,
+                           const EnvOverrides& overrides = {}) const;
 
  private:
   std::filesystem::path dir_;

@@ -111,3 +111,33 @@ TEST_CASE("e2e output files: a bad plot path is refused before anything happens"
   CHECK_THAT(pipe.err, Catch::Contains("exists and is not a regular file"));
   CHECK(cw::test::table_row_counts(box.db()) == counts);
 }
+
+TEST_CASE("e2e output files: '-' reads a method or points file from standard input", "[e2e]") {
+  Sandbox box;
+  run_ok(box, {"init", "--tz", "UTC"});
+  run_ok(box, {"instrument", "add", "IC-02"});
+  const RunResult method =
+      box.run_with_input({"method", "add", "-", "--json"}, cw::test::method_toml());
+  INFO(method.describe());
+  REQUIRE(method.exit_code == 0);
+  CHECK(method.json()["source_name"] == "(standard input)");
+  run_ok(box, {"lot", "add", "CRM-1", "--material", "m", "--expires", "2027-03-31", "--value",
+               "nitrate=1000"});
+  const std::string csv =
+      "analyte,level,nominal,response\nnitrate,1,1,0.101\nnitrate,2,2,0.199\n"
+      "nitrate,3,5,0.502\nnitrate,4,10,1.001\nnitrate,5,20,1.998\n";
+  const RunResult logged =
+      box.run_with_input({"curve", "log", "--method", "ANION-IC", "--instrument", "IC-02", "--lot",
+                          "CRM-1", "--points", "-", "--json"},
+                         csv);
+  INFO(logged.describe());
+  REQUIRE(logged.exit_code == 0);
+  CHECK(cw::test::query_text(box.db(), "SELECT points_file FROM calibrations") ==
+        "(standard input)");
+  // Errors in a file read from standard input name it and its line.
+  const RunResult bad = box.run_with_input({"curve", "log", "--method", "ANION-IC", "--instrument",
+                                            "IC-02", "--lot", "CRM-1", "--points", "-"},
+                                           "analyte,level,nominal,response\nnitrate,1,x,1\n");
+  CHECK(bad.exit_code == 2);
+  CHECK_THAT(bad.err, Catch::Contains("(standard input):2:3"));
+}

@@ -3,6 +3,7 @@
 // has a summary, every option has help text, the README lists every command, and
 // `curvewarden help COMMAND` prints the same help as `COMMAND --help`.
 #include <catch2/catch.hpp>
+#include <cstdio>
 #include <fstream>
 #include <set>
 #include <sstream>
@@ -10,6 +11,7 @@
 
 #include "cli/cli_app.h"
 #include "cli/command_table.h"
+#include "cli/docs.h"
 
 namespace {
 
@@ -110,4 +112,52 @@ TEST_CASE("command table: help COMMAND is COMMAND --help", "[cli]") {
   const Output top = run({"help"});
   CHECK(top.code == 0);
   CHECK_THAT(top.out, Catch::Contains("supports your quality system"));
+}
+
+TEST_CASE("command table: the manual page and the completion cover every command", "[cli]") {
+  const std::string man = cw::cli::man_page();
+  const std::string completion = cw::cli::bash_completion();
+  CHECK_THAT(man, Catch::StartsWith(".TH CURVEWARDEN 1"));
+  CHECK_THAT(man, Catch::Contains("supports your quality system"));
+  for (const auto& c : cw::cli::command_table()) {
+    INFO("command: " << c.path);
+    const auto w = words(c.path);
+    // Every command is a word its parent completes to.
+    CHECK_THAT(completion, Catch::Contains(w.back()));
+    if (c.handler == nullptr && c.path != "help") continue;
+    // roff writes a hyphen as \- (man(7)).
+    std::string escaped;
+    for (char ch : std::string(c.path))
+      escaped += ch == '-' ? std::string("\\-") : std::string(1, ch);
+    CHECK_THAT(man, Catch::Contains(".SS " + escaped));
+    for (const auto& o : c.options) {
+      if (o.kind == cw::cli::OptionKind::Positional) continue;
+      CHECK_THAT(completion, Catch::Contains(std::string(o.name)));
+    }
+  }
+}
+
+TEST_CASE("command table: the bash completion completes commands and options", "[cli]") {
+  const std::string script = cw::cli::bash_completion();
+  const std::string path = std::string(CW_BUILD_DIR) + "/completion-under-test.bash";
+  {
+    std::ofstream out(path);
+    out << script;
+  }
+  const auto complete = [&](const std::string& words, int cword) {
+    const std::string command = "bash -c 'source " + path + "; COMP_WORDS=(" + words +
+                                "); COMP_CWORD=" + std::to_string(cword) +
+                                "; _curvewarden; echo \"${COMPREPLY[*]}\"' 2>&1";
+    std::string out;
+    FILE* p = popen(command.c_str(), "r");
+    REQUIRE(p != nullptr);
+    char buffer[1024];
+    while (fgets(buffer, sizeof buffer, p) != nullptr) out += buffer;
+    pclose(p);
+    return out;
+  };
+  CHECK(complete("curvewarden cu", 1) == "curve\n");
+  CHECK(complete("curvewarden curve r", 2) == "review retire\n");
+  CHECK_THAT(complete("curvewarden curve log --po", 3), Catch::Contains("--points"));
+  CHECK_THAT(complete("curvewarden --json check log --", 4), Catch::Contains("--nominal"));
 }
