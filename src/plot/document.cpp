@@ -333,11 +333,12 @@ class Flow {
       std::string role;
       std::vector<std::string> lines;
       std::vector<std::string> signed_lines;
+      bool name_line = false;
     };
     std::vector<Laid> laid;
     double content_h = 0;
     for (const auto& f : s.fields) {
-      Laid l{f.role, {}, {}};
+      Laid l{f.role, {}, {}, f.name_line};
       for (const auto& line : f.lines) {
         for (auto& piece : c_.wrap(line, kKeyFont, inner)) l.lines.push_back(piece);
       }
@@ -346,10 +347,10 @@ class Flow {
       }
       l.lines = capped(l.lines, 8);
       l.signed_lines = capped(l.signed_lines, 6);
-      // Signing by hand needs room: 36 points above the signature's rule, 22 above the date's,
-      // each rule labelled underneath.
+      // Signing by hand needs room: 22 points above the rule of the name, 36 above the
+      // signature's, 22 above the date's, each rule labelled underneath.
       const double below = l.signed_lines.empty()
-                               ? 36.0 + 11 + 22 + 11
+                               ? (l.name_line ? 22.0 + 11 : 0.0) + 36 + 11 + 22 + 11
                                : 6 + lh * static_cast<double>(l.signed_lines.size()) + 4;
       content_h = std::max(content_h, line_height(kCaptionFont) + 3 +
                                           lh * static_cast<double>(l.lines.size()) + below);
@@ -372,8 +373,14 @@ class Flow {
           ty += lh;
         }
         if (l.signed_lines.empty()) {
-          for (const char* what : {"signature", "date"}) {
-            const double rule_y = y + height - pad - (what[0] == 's' ? 11 + 22 + 11 : 11);
+          // Ruled lines from the foot of the box up: date, signature, name.
+          const double date_y = y + height - pad - 11;
+          const double signature_y = date_y - 11 - 22;
+          const double name_y = signature_y - 11 - 36;
+          const std::pair<const char*, double> rules[] = {
+              {"date", date_y}, {"signature", signature_y}, {"name", name_y}};
+          for (const auto& [what, rule_y] : rules) {
+            if (what[0] == 'n' && !l.name_line) continue;
             c.line({x + pad, rule_y}, {x + box_w - pad, rule_y}, {0.6, kBlack, {}});
             c.text(what, x + pad, rule_y + 1.5, kNoteFont, Align::Start, Align::Start,
                    kSecondaryInk);
@@ -583,11 +590,12 @@ class Flow {
         }
       } else {
         // Fixed columns keep their cells on one line (their headers may wrap). The wrapping
-        // columns first get a floor (their longest word, within bounds, so that a sample code
-        // is not broken), then share what is left in proportion to how much more they would
-        // like; as the table is too wide, none reaches what it would like.
-        double fixed = 0, floors = 0, shortfall = 0;
+        // columns share what is left fairly: a column that wants less than an equal share gets
+        // what it wants, the others split the rest equally, none below its floor (its longest
+        // word, within bounds, so that a sample code is not broken).
+        double fixed = 0, floors = 0;
         std::vector<double> floor(cols, 0);
+        std::vector<std::size_t> open;  // wrapping columns still to be sized
         for (std::size_t c = 0; c < cols; ++c) {
           if (t_.columns[c].wrap) {
             double word = 0;
@@ -596,24 +604,44 @@ class Flow {
             }
             floor[c] = std::min(want[c], std::clamp(word + 2 * kCellPadX + 0.5, 48.0, 110.0));
             floors += floor[c];
-            shortfall += want[c] - floor[c];
+            open.push_back(c);
           } else {
             w_[c] = std::min(want[c], need[c]);
             fixed += w_[c];
           }
         }
-        const double left = kTextWidth - fixed;
+        double left = kTextWidth - fixed;
         if (left >= floors) {
-          for (std::size_t c = 0; c < cols; ++c) {
-            if (!t_.columns[c].wrap) continue;
-            w_[c] =
-                floor[c] + (shortfall > 0 ? (left - floors) * (want[c] - floor[c]) / shortfall : 0);
+          // Settle the columns that need no more than an equal share (or are held up by their
+          // floor) until none is left to settle; the rest divide what remains.
+          for (bool settled = true; settled && !open.empty();) {
+            settled = false;
+            const double share = left / static_cast<double>(open.size());
+            for (auto it = open.begin(); it != open.end();) {
+              const std::size_t c = *it;
+              if (want[c] <= share || floor[c] >= share) {
+                w_[c] = want[c] <= share ? want[c] : floor[c];
+                left -= w_[c];
+                it = open.erase(it);
+                settled = true;
+              } else {
+                ++it;
+              }
+            }
+          }
+          for (std::size_t c : open) w_[c] = left / static_cast<double>(open.size());
+          // Every wrapping column got what it wants (the fixed columns gave up their header
+          // widths): the room to spare goes to the wrapping columns, so the table spans the page.
+          if (open.empty() && left > 0) {
+            double wrap_total = 0;
+            for (std::size_t c = 0; c < cols; ++c) wrap_total += t_.columns[c].wrap ? w_[c] : 0;
+            for (std::size_t c = 0; c < cols; ++c) {
+              if (t_.columns[c].wrap) w_[c] += left * w_[c] / wrap_total;
+            }
           }
         } else {
           // Too many fixed columns: everything shrinks alike and cells wrap where they must.
-          for (std::size_t c = 0; c < cols; ++c) {
-            if (t_.columns[c].wrap) w_[c] = floor[c];
-          }
+          for (std::size_t c : open) w_[c] = floor[c];
           const double total = fixed + floors;
           for (double& v : w_) v *= kTextWidth / total;
         }

@@ -105,6 +105,9 @@ struct SignatureFields {
     std::string role;                       ///< e.g. "Reviewed by"
     std::vector<std::string> lines;         ///< printed under the role: name, action, meaning
     std::vector<std::string> signed_lines;  ///< the manifestation; empty: sign by hand
+    /// Signing by hand: a ruled line for the signer's printed name too (when the record names
+    /// nobody yet).
+    bool name_line = false;
   };
   std::vector<Field> fields;
 };

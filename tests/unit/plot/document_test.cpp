@@ -228,3 +228,30 @@ TEST_CASE("render_document: refuses a path that is not a PDF", "[plot][document]
   CHECK_THROWS_AS(cw::plot::render_document(base(), path), cw::ValidationError);
   CHECK_FALSE(std::filesystem::exists(path));
 }
+
+TEST_CASE("render_document: short wrapping columns are not squeezed by a long one",
+          "[plot][document]") {
+  Document d = base();
+  Table t;
+  t.columns = {{"Position", true},      {"Sample code"},        {"Value", true},
+               {"Uncertainty", true},   {"Flags", false, true}, {"Status"},
+               {"Reasons", false, true}};
+  std::string reason;
+  for (int i = 0; i < 40; ++i) reason += "because" + std::to_string(i) + " ";
+  for (int i = 0; i < 30; ++i) {
+    t.rows.push_back({{std::to_string(i), "WS-24-" + std::to_string(1000 + i), "12.25 mg/L",
+                       "± 0.75", "diluted ×10", "reported", i % 5 == 0 ? reason : ""}});
+  }
+  d.blocks.push_back(t);
+  const std::string path = out_path("document-column-share.pdf");
+  cw::plot::render_document(d, path);
+  if (!have_tool("pdftotext")) return;
+  const std::string text = squeeze(pdf_text(path));
+  // Every flag stays on its row's line: the long reasons column gives way, not the short one.
+  std::size_t rows_with_flag = 0;
+  for (std::size_t at = text.find("± 0.75 diluted ×10 reported"); at != std::string::npos;
+       at = text.find("± 0.75 diluted ×10 reported", at + 1)) {
+    ++rows_with_flag;
+  }
+  CHECK(rows_with_flag == 30);
+}
