@@ -273,3 +273,58 @@ TEST_CASE("render_curve_report: an invalid plot leaves no file behind", "[plot][
   CHECK_THROWS_AS(cw::plot::render_curve_report(report, path), cw::ValidationError);
   CHECK_FALSE(std::filesystem::exists(path));
 }
+
+TEST_CASE("render_curve_report: long texts everywhere stay on the page", "[plot][report]") {
+  cw::plot::CurveReport report = report_test::curve_report(kEightLevels, 3, {{0, 1}, {5, 3}});
+  report.frame.lab =
+      "Regional Drinking Water and Environmental Monitoring Laboratory of the Upper Valley "
+      "Water Authority, Department of Inorganic Chemistry";
+  report.method_title =
+      "Determination of dissolved anions (fluoride, chloride, nitrite, bromide, nitrate, "
+      "phosphate, sulfate) in drinking, ground and surface water by ion chromatography with "
+      "suppressed conductivity detection";
+  report.note =
+      "Eluent bottle replaced before the sequence; column temperature stabilised for 45 minutes. "
+      "The first injection of the lowest level showed a shoulder and was excluded after review "
+      "of the chromatogram with the section head.";
+  for (int i = 0; i < 6; ++i) {
+    report.lots.push_back({"LOT-" + std::to_string(7000 + i),
+                           "single-anion standard solution traceable to a national metrology "
+                           "institute, 1000 mg/L in water",
+                           "certificate of analysis " + std::to_string(88000 + i) + "/2023-REV2",
+                           "2025-0" + std::to_string(i + 1) + "-28",
+                           i == 2 ? "withdrawn 2024-03-04: supplier notice of a wrong certified "
+                                    "value"
+                                  : ""});
+  }
+  report.levels[0].reason =
+      "shoulder on the peak; integration not reliable, excluded after review of the "
+      "chromatogram with the section head (see the laboratory notebook page 114)";
+  report.state = "stale";
+  report.usable = false;
+  report.state_reasons = {
+      "check-failed: check 23 at 2024-03-04 08:15 +01:00 recovered 84.2 % (limits 90–110 %)",
+      "lot-withdrawn: LOT-7002 withdrawn 2024-03-04 (supplier notice of a wrong certified value)",
+      "method-revised: NITRATE-IC version 3 in force since 2024-03-05 08:00 +01:00"};
+  report.analyst.name = "jdoe (Jane Alexandra Doe-Montgomery, senior analyst, inorganic section)";
+  report.reviewer->signature = cw::plot::SignatureManifestation{
+      "Alexander Kim-Vasquez, head of the inorganic chemistry section",
+      "2024-03-01 11:05:12 +01:00", "review and approval of the calibration and its record"};
+  const std::string path = out_path("report-curve-long-texts.pdf");
+  const std::string again = out_path("report-curve-long-texts-again.pdf");
+  const int pages = cw::plot::render_curve_report(report, path);
+  cw::plot::render_curve_report(report, again);
+  CHECK(read_bytes(path) == read_bytes(again));
+  if (!have_tool("pdftotext")) return;
+  CHECK(pages_of(path) == pages);
+  std::string joined;
+  for (char c : pdf_text(path)) {
+    if (c != '\n' && c != ' ' && c != '\f') joined += c;
+  }
+  // Wrapped, not cut: the ends of the long texts are there.
+  for (const std::string tail :
+       {"suppressedconductivitydetection", "withthesectionhead.", "notebookpage114)",
+        "wrongcertifiedvalue", "since2024-03-0508:00+01:00", "ofthecalibrationanditsrecord"}) {
+    CHECK_THAT(joined, Contains(tail));
+  }
+}
