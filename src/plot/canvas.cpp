@@ -24,8 +24,11 @@ constexpr double kPi = 3.14159265358979323846;
 constexpr double kDefaultMiterLimit = 10;  // cairo's default
 
 [[noreturn]] void fail(const std::string& path, cairo_status_t status) {
+  if (path.empty()) {
+    throw ValidationError(std::string("cannot draw: ") + cairo_status_to_string(status));
+  }
   throw ValidationError(SourceLocation{path, std::nullopt, std::nullopt, {}},
-                        "cannot write plot '" + path + "': " + cairo_status_to_string(status));
+                        "cannot write '" + path + "': " + cairo_status_to_string(status));
 }
 
 void set_colour(cairo_t* cr, Rgb c) {
@@ -58,11 +61,12 @@ struct Canvas::Impl {
   PangoLayout* layout = nullptr;
   int clip_depth = 0;
   bool finished = false;
+  bool embedded = false;  // drawing on a caller's context: its state is restored, nothing owned
 
   // Loads text, font and box into the shared layout.
   void set_layout(const std::string& text, const Font& font, const TextBox& box, Align h) {
     PangoFontDescription* description = pango_font_description_new();
-    pango_font_description_set_family(description, "DejaVu Sans");
+    pango_font_description_set_family(description, font.mono ? "DejaVu Sans Mono" : "DejaVu Sans");
     pango_font_description_set_absolute_size(description, font.size * PANGO_SCALE);
     pango_font_description_set_weight(description,
                                       font.bold ? PANGO_WEIGHT_BOLD : PANGO_WEIGHT_NORMAL);
@@ -100,6 +104,22 @@ struct Canvas::Impl {
     }
   }
 
+  // The shared layout. Unhinted metrics, so that text measures the same on every surface and at
+  // every scale, and the layout of a PNG matches that of the SVG and PDF; a fixed language, so
+  // that line breaking does not follow the user's locale.
+  void create_layout() {
+    layout = pango_cairo_create_layout(cr);
+    PangoContext* context = pango_layout_get_context(layout);
+    cairo_font_options_t* options = cairo_font_options_create();
+    cairo_font_options_set_hint_metrics(options, CAIRO_HINT_METRICS_OFF);
+    cairo_font_options_set_hint_style(options, CAIRO_HINT_STYLE_NONE);
+    cairo_font_options_set_antialias(options, CAIRO_ANTIALIAS_GRAY);
+    pango_cairo_context_set_font_options(context, options);
+    cairo_font_options_destroy(options);
+    pango_context_set_language(context, pango_language_from_string("en"));
+    pango_layout_context_changed(layout);
+  }
+
   // Logical extents of the loaded layout in page units.
   Rect extents() const {
     PangoRectangle logical;
@@ -131,7 +151,10 @@ Canvas::Canvas(OutputFormat format, const std::string& path, const PlotPage& pag
       if (cairo_surface_status(d.surface) == CAIRO_STATUS_SUCCESS) {
         const std::string created = format_utc(page.created_at);
         cairo_pdf_surface_set_metadata(d.surface, CAIRO_PDF_METADATA_CREATE_DATE, created.c_str());
-        cairo_pdf_surface_set_metadata(d.surface, CAIRO_PDF_METADATA_TITLE, title.c_str());
+        // Metadata must be UTF-8: a stray invalid byte becomes U+FFFD, as in drawn text.
+        gchar* valid = g_utf8_make_valid(title.c_str(), static_cast<gssize>(title.size()));
+        cairo_pdf_surface_set_metadata(d.surface, CAIRO_PDF_METADATA_TITLE, valid);
+        g_free(valid);
         cairo_pdf_surface_set_metadata(d.surface, CAIRO_PDF_METADATA_CREATOR, "Curvewarden");
       }
       break;
@@ -153,23 +176,33 @@ Canvas::Canvas(OutputFormat format, const std::string& path, const PlotPage& pag
   cairo_paint(d.cr);
   cairo_set_line_join(d.cr, CAIRO_LINE_JOIN_MITER);
 
-  // Unhinted metrics, so that text measures the same on every surface and the layout of a PNG
-  // matches that of the SVG and PDF; a fixed language, so that line breaking does not follow the
-  // user's locale.
-  d.layout = pango_cairo_create_layout(d.cr);
-  PangoContext* context = pango_layout_get_context(d.layout);
-  cairo_font_options_t* options = cairo_font_options_create();
-  cairo_font_options_set_hint_metrics(options, CAIRO_HINT_METRICS_OFF);
-  cairo_font_options_set_hint_style(options, CAIRO_HINT_STYLE_NONE);
-  cairo_font_options_set_antialias(options, CAIRO_ANTIALIAS_GRAY);
-  pango_cairo_context_set_font_options(context, options);
-  cairo_font_options_destroy(options);
-  pango_context_set_language(context, pango_language_from_string("en"));
-  pango_layout_context_changed(d.layout);
+  d.create_layout();
+}
+
+Canvas::Canvas(cairo_t* target, const Rect& frame, double width, double height)
+    : impl_(std::make_unique<Impl>()) {
+  Impl& d = *impl_;
+  d.embedded = true;
+  d.width = width;
+  d.height = height;
+  d.cr = cairo_reference(target);
+  cairo_save(d.cr);
+  cairo_new_path(d.cr);
+  cairo_rectangle(d.cr, frame.x, frame.y, frame.w, frame.h);
+  cairo_clip(d.cr);
+  cairo_translate(d.cr, frame.x, frame.y);
+  const double scale = std::min(frame.w / width, frame.h / height);
+  cairo_scale(d.cr, scale, scale);
+  cairo_set_line_join(d.cr, CAIRO_LINE_JOIN_MITER);
+  d.create_layout();
 }
 
 Canvas::~Canvas() {
   Impl& d = *impl_;
+  if (d.embedded && !d.finished) {
+    while (d.clip_depth > 0) unclip();
+    cairo_restore(d.cr);
+  }
   if (d.layout != nullptr) g_object_unref(d.layout);
   if (d.cr != nullptr) cairo_destroy(d.cr);
   if (d.surface != nullptr) cairo_surface_destroy(d.surface);
@@ -185,6 +218,10 @@ double Canvas::width() const {
 
 double Canvas::height() const {
   return impl_->height;
+}
+
+cairo_t* Canvas::context() const {
+  return impl_->cr;
 }
 
 Rect Canvas::measure(const std::string& text, const Font& font, const TextBox& box) const {
@@ -205,6 +242,26 @@ Rect Canvas::text(const std::string& text, double x, double y, const Font& font,
   pango_cairo_show_layout(d.cr, d.layout);
   cairo_new_path(d.cr);
   return {left, top, e.w, e.h};
+}
+
+std::vector<std::string> Canvas::wrap(const std::string& text, const Font& font,
+                                      double max_width) const {
+  Impl& d = *impl_;
+  d.set_layout(text, font, {max_width, true, 0}, Align::Start);
+  // The layout's own text: set_layout may have replaced invalid bytes.
+  const char* laid_out = pango_layout_get_text(d.layout);
+  std::vector<std::string> lines;
+  for (GSList* l = pango_layout_get_lines_readonly(d.layout); l != nullptr; l = l->next) {
+    const auto* line = static_cast<const PangoLayoutLine*>(l->data);
+    std::string piece(laid_out + line->start_index, static_cast<std::size_t>(line->length));
+    while (!piece.empty() && (piece.back() == ' ' || piece.back() == '\n' || piece.back() == '\r' ||
+                              piece.back() == '\t')) {
+      piece.pop_back();
+    }
+    lines.push_back(std::move(piece));
+  }
+  if (lines.empty()) lines.emplace_back();
+  return lines;
 }
 
 Rect Canvas::vertical_text(const std::string& text, double x, double y, const Font& font,
@@ -350,10 +407,46 @@ void Canvas::unclip() {
   --impl_->clip_depth;
 }
 
+void Canvas::set_author(const std::string& author) {
+  Impl& d = *impl_;
+  if (d.embedded || d.format != OutputFormat::Pdf) return;
+  gchar* valid = g_utf8_make_valid(author.c_str(), static_cast<gssize>(author.size()));
+  cairo_pdf_surface_set_metadata(d.surface, CAIRO_PDF_METADATA_AUTHOR, valid);
+  g_free(valid);
+}
+
+void Canvas::next_page() {
+  Impl& d = *impl_;
+  if (d.embedded) return;
+  while (d.clip_depth > 0) unclip();
+  if (d.format == OutputFormat::Pdf) {
+    cairo_show_page(d.cr);
+    set_colour(d.cr, kWhite);
+    cairo_paint(d.cr);
+  }
+}
+
+void Canvas::add_outline(const std::string& text, int page, double y) {
+  Impl& d = *impl_;
+  if (d.embedded || d.format != OutputFormat::Pdf) return;
+  char link[96];
+  std::snprintf(link, sizeof link, "page=%d pos=[0 %.2f]", page, y);
+  gchar* valid = g_utf8_make_valid(text.c_str(), static_cast<gssize>(text.size()));
+  cairo_pdf_surface_add_outline(d.surface, CAIRO_PDF_OUTLINE_ROOT, valid, link,
+                                static_cast<cairo_pdf_outline_flags_t>(0));
+  g_free(valid);
+}
+
 void Canvas::finish() {
   Impl& d = *impl_;
   while (d.clip_depth > 0) unclip();
   cairo_status_t status = cairo_status(d.cr);
+  if (d.embedded) {
+    cairo_restore(d.cr);
+    d.finished = true;
+    if (status != CAIRO_STATUS_SUCCESS) fail(d.path, status);
+    return;
+  }
   if (status != CAIRO_STATUS_SUCCESS) fail(d.path, status);
   if (d.format == OutputFormat::Png) {
     cairo_surface_flush(d.surface);

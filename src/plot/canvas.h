@@ -10,6 +10,9 @@
 
 #include "plot/plot.h"
 
+// cairo's context type, declared as cairo.h does, so that this header needs no cairo include.
+typedef struct _cairo cairo_t;
+
 namespace cw::plot::detail {
 
 struct Point {
@@ -58,6 +61,7 @@ struct Font {
   double size = 12;  ///< pixel (page-unit) size, not points
   bool bold = false;
   bool italic = false;
+  bool mono = false;  ///< DejaVu Sans Mono (hashes, codes) instead of DejaVu Sans
 };
 
 enum class Align { Start, Centre, End };
@@ -80,7 +84,9 @@ enum class MarkerShape {
   OpenTriangle,
 };
 
-/// A page being drawn; finish() writes it to the file named at construction.
+/// A page being drawn; finish() writes it to the file named at construction. A canvas may also
+/// draw into a rectangle of another canvas's page (the embedding constructor): a plot placed on
+/// a report page stays vector graphics.
 class Canvas {
  public:
   /// Opens the surface for `format` at `path` (SVG and PDF stream into the file as they are
@@ -88,6 +94,11 @@ class Canvas {
   /// when the file cannot be created.
   Canvas(OutputFormat format, const std::string& path, const PlotPage& page,
          const std::string& title);
+  /// Draws onto a caller's cairo context: a drawing of `width` × `height` units whose top-left
+  /// corner is at (frame.x, frame.y) of `target`, scaled uniformly to fit `frame` and clipped to
+  /// it. The context's state is saved here and restored by finish() (or the destructor); nothing
+  /// is written to a file and nothing is painted behind the drawing.
+  Canvas(cairo_t* target, const Rect& frame, double width, double height);
   ~Canvas();
   Canvas(const Canvas&) = delete;
   Canvas& operator=(const Canvas&) = delete;
@@ -95,12 +106,19 @@ class Canvas {
   double width() const;
   double height() const;
 
+  /// The cairo context this canvas draws with, for embedding another drawing in its page.
+  cairo_t* context() const;
+
   /// Size of `text` as it would be drawn (logical extents; x = y = 0).
   Rect measure(const std::string& text, const Font& font, const TextBox& box = {}) const;
   /// Draws `text` with the anchor (x, y) at the given horizontal and vertical alignment of its
   /// logical box; returns that box.
   Rect text(const std::string& text, double x, double y, const Font& font, Align h, Align v,
             Rgb colour = kBlack, const TextBox& box = {});
+  /// `text` broken into lines no wider than `max_width` (at word boundaries, within a word only
+  /// when it is wider than the line), as pango would wrap it; explicit line breaks are kept.
+  /// Each line is returned without its trailing spaces; an empty text gives one empty line.
+  std::vector<std::string> wrap(const std::string& text, const Font& font, double max_width) const;
   /// Draws `text` turned 90° anticlockwise (reading upwards), centred on (x, y); returns the
   /// rotated box.
   Rect vertical_text(const std::string& text, double x, double y, const Font& font,
@@ -121,7 +139,17 @@ class Canvas {
   void clip(const Rect& r);
   void unclip();
 
-  /// Completes the file. Throws ValidationError when it cannot be written.
+  /// Sets the PDF's author field (other formats have none).
+  void set_author(const std::string& author);
+  /// Ends the current page and starts a new blank one (multi-page PDF; for SVG and PNG the
+  /// drawing simply goes on).
+  void next_page();
+  /// Adds a bookmark to the PDF's outline pointing at height `y` of page `page` (1-based);
+  /// ignored for other formats and for embedded canvases.
+  void add_outline(const std::string& text, int page, double y);
+
+  /// Completes the file (an embedded canvas: restores the caller's context). Throws
+  /// ValidationError when it cannot be written.
   void finish();
 
  private:

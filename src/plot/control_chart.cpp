@@ -14,6 +14,7 @@
 #include "core/error.h"
 #include "plot/axes.h"
 #include "plot/canvas.h"
+#include "plot/figures.h"
 #include "plot/ticks.h"
 
 namespace cw::plot {
@@ -517,11 +518,16 @@ class ControlChartDrawing {
 
 }  // namespace
 
+void detail::draw_control_chart(const ControlChart& chart, Canvas& canvas) {
+  validate(chart);
+  ControlChartDrawing(chart, canvas).draw();
+}
+
 void render_control_chart(const ControlChart& chart, const std::string& path) {
   const OutputFormat format = output_format_for(path);
   validate(chart);
   Canvas canvas(format, path, chart.page, chart.title);
-  ControlChartDrawing(chart, canvas).draw();
+  detail::draw_control_chart(chart, canvas);
   canvas.finish();
 }
 

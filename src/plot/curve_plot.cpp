@@ -13,6 +13,7 @@
 #include "core/error.h"
 #include "plot/axes.h"
 #include "plot/canvas.h"
+#include "plot/figures.h"
 #include "plot/ticks.h"
 
 namespace cw::plot {
@@ -724,11 +725,16 @@ double mean_response_half_width(const fitting::FitResult& fit, double x) {
   return band_half_width(fit, fitting::student_t_quantile(0.975, fit.dof), x);
 }
 
+void detail::draw_curve_plot(const CurvePlot& plot, Canvas& canvas) {
+  validate(plot);
+  CurvePlotDrawing(plot, canvas).draw();
+}
+
 void render_curve_plot(const CurvePlot& plot, const std::string& path) {
   const OutputFormat format = output_format_for(path);
   validate(plot);
   Canvas canvas(format, path, plot.page, plot.title);
-  CurvePlotDrawing(plot, canvas).draw();
+  detail::draw_curve_plot(plot, canvas);
   canvas.finish();
 }
 

@@ -4,8 +4,10 @@
 //
 // Overview. This folder draws pictures of numbers it is given: curve_plot.h draws a calibration
 // curve with its residual panel, control_chart.h a check standard's control chart, ticks.h
-// chooses round axis numbers. Inputs are plain structs filled by the caller; nothing here reads
-// the store, the clock or the command line. cairo draws and writes the files (SVG, PNG or PDF by
+// chooses round axis numbers. document.h lays out printable A4 documents (text, tables and these
+// plots as vector figures) as PDF, and curve_report.h and run_report.h are the two reports built
+// on it. Inputs are plain structs filled by the caller; nothing here reads the store, the clock
+// or the command line. cairo draws and writes the files (SVG, PNG or PDF by
 // the file's extension) and pango lays out the text in DejaVu Sans; both stay inside the .cpp
 // files of this folder.
 //

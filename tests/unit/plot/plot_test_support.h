@@ -177,4 +177,12 @@ inline std::string pdf_info(const std::string& path, const std::string& field) {
   return {};
 }
 
+/// The text of a PDF as poppler's `pdftotext -layout` extracts it: of page `page` (1-based) only,
+/// or of every page when `page` is 0 (pages separated by form feeds). Empty when it fails.
+inline std::string pdf_text(const std::string& path, int page = 0) {
+  std::string range;
+  if (page > 0) range = " -f " + std::to_string(page) + " -l " + std::to_string(page);
+  return run("pdftotext -layout -enc UTF-8" + range + " '" + path + "' -").value_or("");
+}
+
 }  // namespace plot_test
