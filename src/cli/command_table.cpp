@@ -226,6 +226,16 @@ const std::vector<CommandSpec>& command_table() {
        false,
        h::trace_lot},
 
+      {"report", "Printable reports (A4 PDF) to review and sign", {}, false, nullptr},
+      {"report curve",
+       "The calibration report of a curve: identification, plot, fit, points, every criterion, "
+       "the state now, the audit entries and fields to sign",
+       {positional("id", "Curve id"),
+        {"--out", "FILE.pdf", "Write the report to this PDF file (replaced if it exists)",
+         OptionKind::Value, true}},
+       false,
+       h::report_curve},
+
       {"audit", "Read and verify the audit trail", {}, false, nullptr},
       {"audit log",
        "List audit entries",

@@ -38,6 +38,9 @@ int trace_result(Invocation& in);
 int trace_curve(Invocation& in);
 int trace_lot(Invocation& in);
 
+// printable reports (handlers_report.cpp)
+int report_curve(Invocation& in);
+
 // audit trail (handlers_audit.cpp)
 int audit_log(Invocation& in);
 int audit_verify(Invocation& in);

@@ -26,10 +26,18 @@ struct VerifyReport {
   std::string head_hash;                     ///< hash of the last entry (anchor it elsewhere)
 };
 
+/// The newest entry of the trail: what a printed record is checked against.
+struct ChainHead {
+  std::int64_t seq = 0;
+  std::string hash;
+};
+
 class AuditReader {
  public:
   virtual ~AuditReader() = default;
   virtual std::vector<audit::AuditEntry> list(const AuditFilter& filter) = 0;
+  /// The newest entry; nullopt for an empty trail.
+  virtual std::optional<ChainHead> head() = 0;
   /// Walks the chain: sequence without gaps, each prev_hash linking, each hash recomputed, and
   /// every fact row equal to the row recorded in its entry's payload (rows changed, deleted or
   /// added behind the tool's back are found).

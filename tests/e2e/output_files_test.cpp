@@ -9,6 +9,7 @@
 #include <regex>
 #include <string>
 
+#include "core/text.h"
 #include "harness.h"
 
 namespace {
@@ -140,4 +141,81 @@ TEST_CASE("e2e output files: '-' reads a method or points file from standard inp
                                            "analyte,level,nominal,response\nnitrate,1,x,1\n");
   CHECK(bad.exit_code == 2);
   CHECK_THAT(bad.err, Catch::Contains("(standard input):2:3"));
+}
+
+TEST_CASE("e2e output files: report curve writes a PDF a reviewer can sign", "[e2e]") {
+  for (const auto& [levels, replicates] : std::vector<std::pair<int, int>>{{5, 1}, {8, 5}}) {
+    DYNAMIC_SECTION(levels * replicates << " points") {
+      Sandbox box;
+      populate(box, levels, replicates);
+      box.user = "m.reviewer";
+      run_ok(box, {"curve", "review", "1", "--approve", "--reason", "residuals checked"});
+      box.now = "2026-03-02T10:00:00Z";
+      run_ok(box, {"check", "log", "--curve", "1", "--nominal", "10", "--response", "1.0"});
+
+      const RunResult r = box.run({"report", "curve", "1", "--out", "curve 1.pdf", "--json"});
+      INFO(r.describe());
+      REQUIRE(r.exit_code == 0);
+      const std::string pdf = box.path("curve 1.pdf").string();
+      const std::string info = command_output("pdfinfo '" + pdf + "'");
+      std::smatch pages;
+      REQUIRE(std::regex_search(info, pages, std::regex("Pages:\\s+(\\d+)")));
+      CHECK(r.json()["pages"] == std::stoi(pages[1]));
+      CHECK(std::stoi(pages[1]) >= 2);
+
+      const std::string text = command_output("pdftotext -layout '" + pdf + "' -");
+      for (const char* fact :
+           {"ANION-IC version 1", "IC-02", "CRM-1", "2027-03-31", "alice", "m.reviewer",
+            "residuals checked", "calibration levels", "coefficient of determination", "worst %RE",
+            "active", "curve.log", "curve.approve", "check.log", "Sign-off"}) {
+        CHECK_THAT(text, Catch::Contains(fact));
+      }
+      // Every calibrator's response, as the points file gave it (echoed in shortest form).
+      const RunResult shown = box.run({"curve", "show", "1", "--json"});
+      REQUIRE(shown.exit_code == 0);
+      for (const auto& p : shown.json()["points"]) {
+        CHECK_THAT(text, Catch::Contains(cw::format_shortest(p["response"].get<double>())));
+      }
+      // The head of the trail printed is the one `audit verify` recomputes.
+      const RunResult verify = box.run({"audit", "verify", "--json"});
+      REQUIRE(verify.exit_code == 0);
+      CHECK_THAT(text, Catch::Contains(verify.json()["head_hash"].get<std::string>()));
+      CHECK(r.json()["audit_head"]["hash"] == verify.json()["head_hash"]);
+      // Page numbers in every footer.
+      CHECK(count(text, "page 1 of " + std::string(pages[1])) == 1);
+      CHECK(count(text, "Supports and never replaces") ==
+            static_cast<std::size_t>(std::stoi(pages[1])));
+
+      // The same store at the same moment gives the same bytes.
+      run_ok(box, {"report", "curve", "1", "--out", "again.pdf"});
+      CHECK(cw::test::read_file(box.path("again.pdf")) ==
+            cw::test::read_file(box.path("curve 1.pdf")));
+    }
+  }
+}
+
+TEST_CASE("e2e output files: report curve refuses a bad path or curve and writes nothing",
+          "[e2e]") {
+  Sandbox box;
+  populate(box, 5, 1);
+  const auto counts = cw::test::table_row_counts(box.db());
+  const RunResult ext = box.run({"report", "curve", "1", "--out", "report.png", "--json"});
+  CHECK(ext.exit_code == 2);
+  CHECK(ext.json()["error"]["option"] == "--out");
+  CHECK_FALSE(std::filesystem::exists(box.path("report.png")));
+  const RunResult missing = box.run({"report", "curve", "1"});
+  CHECK(missing.exit_code == 2);
+  CHECK_THAT(missing.err, Catch::Contains("--out"));
+  const RunResult unknown = box.run({"report", "curve", "99", "--out", "r.pdf"});
+  CHECK(unknown.exit_code == 2);
+  CHECK_FALSE(std::filesystem::exists(box.path("r.pdf")));
+  REQUIRE(mkfifo(box.path("pipe.pdf").c_str(), 0600) == 0);
+  const RunResult pipe = box.run({"report", "curve", "1", "--out", "pipe.pdf"});
+  CHECK(pipe.exit_code == 2);
+  CHECK(pipe.seconds < 1.0);
+  std::filesystem::create_directory(box.path("dir.pdf"));
+  CHECK(box.run({"report", "curve", "1", "--out", "dir.pdf"}).exit_code == 2);
+  CHECK(box.run({"report", "curve", "1", "--out", "no/such/folder/r.pdf"}).exit_code == 2);
+  CHECK(cw::test::table_row_counts(box.db()) == counts);
+  CHECK(box.run({"audit", "verify"}).exit_code == 0);
 }

@@ -210,6 +210,15 @@ VerifyReport SqliteAudit::verify() {
   });
 }
 
+std::optional<ChainHead> SqliteAudit::head() {
+  auto& last = db_.statement(sql::kAuditHead);
+  std::optional<ChainHead> out;
+  if (last.executeStep())
+    out = ChainHead{last.getColumn(0).getInt64(), last.getColumn(1).getString()};
+  last.reset();
+  return out;
+}
+
 void SqliteAudit::start(WriteState& w) {
   auto& last = db_.statement(sql::kAuditHead);
   if (last.executeStep()) {

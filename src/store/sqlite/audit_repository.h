@@ -28,6 +28,7 @@ class SqliteAudit final : public AuditReader {
 
   std::vector<audit::AuditEntry> list(const AuditFilter& filter) override;
   VerifyReport verify() override;
+  std::optional<ChainHead> head() override;
 
   /// Reads the head of the chain into `w` (inside the write transaction).
   void start(WriteState& w);
