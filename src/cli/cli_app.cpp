@@ -13,6 +13,7 @@
 #include "cli/error_output.h"
 #include "cli/invocation.h"
 #include "core/error.h"
+#include "report/csv.h"
 
 namespace cw::cli {
 namespace {
@@ -189,11 +190,21 @@ int run_cli(const std::vector<std::string>& raw_args, std::ostream& out, std::os
     for (auto& [name, v] : values[key]) in.set_values(name, v);
     for (auto& [name, n] : flags[key]) in.set_values(name, std::vector<std::string>(n, "1"));
     in.set_json(global_flags["--json"] > 0);
+    if (in.has("--csv")) {
+      if (in.json()) throw UsageError("give --csv or --json, not both");
+      in.set_csv(true);
+    }
 
     const int code = chosen->handler(in);
     for (const auto& w : in.warnings()) err << "curvewarden: warning: " << w << '\n';
-    if (in.failure()) return report_failure(*in.failure(), in.json(), in.document(), out, err);
-    if (in.json() && in.document()) {
+    if (in.failure()) {
+      return report_failure(*in.failure(), in.json() && !in.csv(), in.document(), out, err);
+    }
+    if (in.csv() && in.document()) {
+      const report::CsvListing* listing = report::csv_listing(chosen->path);
+      if (listing == nullptr) throw std::logic_error("no CSV columns for " + key);
+      report::write_csv(out, *in.document(), *listing);
+    } else if (in.json() && in.document()) {
       out << in.document()->dump(2, ' ', false, nlohmann::json::error_handler_t::replace) << '\n';
     }
     return code;

@@ -34,6 +34,9 @@ OptionSpec positional(std::string_view name, std::string_view help) {
   return {name, "", help, K::Positional, true};
 }
 
+const OptionSpec kCsv = flag("--csv",
+                             "Print the rows as CSV (RFC 4180, UTC times, full-precision numbers; "
+                             "the README lists the columns)");
 const OptionSpec kReason = value("--reason", "TEXT", "Why (required; up to 2000 characters)", true);
 
 }  // namespace
@@ -71,7 +74,7 @@ const std::vector<CommandSpec>& command_table() {
        h::instrument_add},
       {"instrument list",
        "List instruments with their service status",
-       {},
+       {kCsv},
        false,
        h::instrument_list},
       {"instrument show",
@@ -98,7 +101,7 @@ const std::vector<CommandSpec>& command_table() {
         value("--reason", "TEXT", "Why the method changed (required)", true)},
        true,
        h::method_revise},
-      {"method list", "List methods with the version in force", {}, false, h::method_list},
+      {"method list", "List methods with the version in force", {kCsv}, false, h::method_list},
       {"method show",
        "Show a method version (default: the one in force)",
        {positional("code", "Method code"), value("--version", "N", "Version number")},
@@ -120,7 +123,7 @@ const std::vector<CommandSpec>& command_table() {
                  "Certified value, e.g. nitrate=1000±5; repeat for each analyte", true)},
        true,
        h::lot_add},
-      {"lot list", "List lots with their status", {}, false, h::lot_list},
+      {"lot list", "List lots with their status", {kCsv}, false, h::lot_list},
       {"lot show", "Show one lot", {positional("code", "Lot code")}, false, h::lot_show},
       {"lot withdraw",
        "Withdraw a lot: curves made with it stop being valid",
@@ -148,7 +151,7 @@ const std::vector<CommandSpec>& command_table() {
               "Only this state: rejected, awaiting-review, active, stale, retired"),
         value("--method", "CODE", "Only this method"),
         value("--instrument", "CODE", "Only this instrument"),
-        value("--analyte", "NAME", "Only this analyte")},
+        value("--analyte", "NAME", "Only this analyte"), kCsv},
        false,
        h::curve_list},
       {"curve show",
@@ -200,12 +203,13 @@ const std::vector<CommandSpec>& command_table() {
       {"expiring",
        "Active curves whose validity ends in a window, soonest first",
        {flag("--this-week", "The lab-local ISO week (Monday to Sunday) holding now"),
-        value("--within", "DURATION", "From now for this long, e.g. '3 days' (default 7 days)")},
+        value("--within", "DURATION", "From now for this long, e.g. '3 days' (default 7 days)"),
+        kCsv},
        false,
        h::expiring},
       {"status",
        "One screen per instrument: curves by state, expiring, blocked, failures",
-       {},
+       {kCsv},
        false,
        h::status},
 
@@ -217,12 +221,12 @@ const std::vector<CommandSpec>& command_table() {
        h::trace_result},
       {"trace curve",
        "Every check and result a curve produced",
-       {positional("id", "Curve id")},
+       {positional("id", "Curve id"), kCsv},
        false,
        h::trace_curve},
       {"trace lot",
        "Every curve made with a lot and every result those curves produced",
-       {positional("code", "Lot code"), flag("--csv", "Print the affected results as CSV")},
+       {positional("code", "Lot code"), kCsv},
        false,
        h::trace_lot},
 
@@ -242,7 +246,7 @@ const std::vector<CommandSpec>& command_table() {
        {value("--since", "TIME", "Only entries recorded at or after this time"),
         value("--entity", "KIND",
               "Only this kind: lab, instrument, method, lot, calibration, curve, check, result"),
-        value("--id", "ID", "Only this entity id (a code or a number)")},
+        value("--id", "ID", "Only this entity id (a code or a number)"), kCsv},
        false,
        h::audit_log},
       {"audit verify",

@@ -152,14 +152,10 @@ int trace_curve(Invocation& in) {
 
 int trace_lot(Invocation& in) {
   const std::string code = in.code("code", "lot code");
-  const bool csv = in.flag("--csv");
-  if (csv && in.json()) throw UsageError("give --csv or --json, not both");
   auto s = in.open_session();
   const auto t = app::trace_lot(s, code);
   if (in.json()) {
     in.emit(report::trace_lot_json(t, s.zone()));
-  } else if (csv) {
-    report::print_trace_lot_csv(in.out(), t);
   } else {
     report::print_trace_lot(in.out(), t, s.zone());
   }

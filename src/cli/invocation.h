@@ -32,9 +32,17 @@ class Invocation {
   // ---- filled by the parser
   void set_values(std::string name, std::vector<std::string> values);
   void set_json(bool json) { json_ = json; }
+  /// --csv: the handler builds its JSON document (json() is true) and the runner prints the
+  /// listing's rows as CSV instead.
+  void set_csv(bool csv) {
+    csv_ = csv;
+    json_ = json_ || csv;
+  }
 
   const CommandSpec& command() const { return command_; }
+  /// Structured output: --json, or --csv (printed from the same document).
   bool json() const { return json_; }
+  bool csv() const { return csv_; }
 
   // ---- raw access
   bool has(std::string_view option) const;
@@ -105,6 +113,7 @@ class Invocation {
   std::ostream& err_;
   std::map<std::string, std::vector<std::string>, std::less<>> values_;
   bool json_ = false;
+  bool csv_ = false;
   std::optional<Json> document_;
   std::optional<Error> failure_;
   std::vector<std::string> warnings_;

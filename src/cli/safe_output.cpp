@@ -7,6 +7,14 @@ namespace cw::cli {
 SafeStreambuf::int_type SafeStreambuf::overflow(int_type ch) {
   if (traits_type::eq_int_type(ch, traits_type::eof())) return traits_type::not_eof(ch);
   const auto byte = static_cast<unsigned char>(traits_type::to_char_type(ch));
+  if (pending_cr_) {  // a carriage return is kept only as the first half of CRLF (CSV records)
+    pending_cr_ = false;
+    if (target_->sputc(byte == '\n' ? '\r' : '?') == traits_type::eof()) return traits_type::eof();
+  }
+  if (byte == '\r') {
+    pending_cr_ = true;
+    return ch;
+  }
   if (pending_c2_) {
     pending_c2_ = false;
     if (byte >= 0x80 && byte <= 0x9F)
@@ -23,6 +31,10 @@ SafeStreambuf::int_type SafeStreambuf::overflow(int_type ch) {
 }
 
 int SafeStreambuf::sync() {
+  if (pending_cr_) {
+    pending_cr_ = false;
+    target_->sputc('?');
+  }
   if (pending_c2_) {
     pending_c2_ = false;
     target_->sputc(static_cast<char>(0xC2));

@@ -15,16 +15,6 @@ std::string opt_sig(const std::optional<double>& v, int digits = 4) {
   return v ? format_sig(*v, digits) : "-";
 }
 
-std::string csv_field(const std::string& s) {
-  if (s.find_first_of(",\"\n\r") == std::string::npos) return s;
-  std::string out = "\"";
-  for (char c : s) {
-    if (c == '"') out += '"';
-    out += c;
-  }
-  return out + "\"";
-}
-
 Json reason_tokens(const std::vector<Finding>& findings) {
   Json list = Json::array();
   for (const auto& f : findings) list.push_back(std::string(to_string(f.reason)));
@@ -489,7 +479,24 @@ Json trace_lot_json(const app::LotTrace& t, const LabZone& zone) {
   Json curves = Json::array();
   for (const auto& v : t.curves) curves.push_back(curve_list_item_json(v));
   Json results = Json::array();
-  for (const auto& r : t.results) results.push_back(result_json(r));
+  for (const auto& r : t.results) {
+    // Each result with the lot, what was released and where it came from: one row of the
+    // impact list (and of its CSV).
+    const app::CurveView* v = nullptr;
+    for (const auto& c : t.curves) {
+      if (r.curve_id && c.curve.id == *r.curve_id) v = &c;
+    }
+    const std::string unit = v ? v->version.definition.unit : "";
+    Json row = result_json(r);
+    row["lot"] = t.lot.code;
+    row["released"] =
+        r.status == ResultStatus::Reported ? Json(released_text(r, unit)) : Json(nullptr);
+    row["unit"] = unit.empty() ? Json(nullptr) : Json(unit);
+    row["method"] = v ? Json(v->method_code) : Json(nullptr);
+    row["method_version"] = v ? Json(v->version.version) : Json(nullptr);
+    row["instrument"] = v ? Json(v->instrument_code) : Json(nullptr);
+    results.push_back(std::move(row));
+  }
   return Json{{"lot", lot_json(t.lot, zone,
                                t.curves.empty() ? t.lot.registered_at : t.curves.front().as_of)},
               {"curves", curves},
@@ -521,34 +528,6 @@ void print_trace_lot(std::ostream& out, const app::LotTrace& t, const LabZone& z
                   zone.format_local(r.occurred_at), result_value_text(r, unit)});
     }
     rt.print(out, 2);
-  }
-}
-
-void print_trace_lot_csv(std::ostream& out, const app::LotTrace& t) {
-  out << "lot,result_id,sample,analyte,status,released,censored,concentration,reporting_limit,"
-         "ci_low,ci_high,expanded_uncertainty,unit,flags,curve_id,method,method_version,"
-         "instrument,quantified_at\n";
-  for (const auto& r : t.results) {
-    const app::CurveView* v = nullptr;
-    for (const auto& c : t.curves) {
-      if (r.curve_id && c.curve.id == *r.curve_id) v = &c;
-    }
-    std::string flags;
-    for (const auto& f : r.flags) flags += (flags.empty() ? "" : ";") + std::string(to_string(f));
-    auto num = [](const std::optional<double>& x) {
-      return x ? format_shortest(*x) : std::string();
-    };
-    const std::string unit = v ? v->version.definition.unit : "";
-    out << csv_field(t.lot.code) << "," << r.id.value << "," << csv_field(r.sample) << ","
-        << csv_field(r.analyte) << "," << to_string(r.status) << ","
-        << csv_field(r.status == ResultStatus::Reported ? released_text(r, unit) : "") << ","
-        << (r.censored ? "<" : "") << "," << num(r.concentration) << "," << num(r.reporting_limit)
-        << "," << num(r.ci_low) << "," << num(r.ci_high) << ","
-        << (r.uncertainty ? num(r.uncertainty->expanded) : std::string()) << "," << csv_field(unit)
-        << "," << csv_field(flags) << "," << (r.curve_id ? std::to_string(r.curve_id->value) : "")
-        << "," << (v ? csv_field(v->method_code) : "") << ","
-        << (v ? std::to_string(v->version.version) : "") << ","
-        << (v ? csv_field(v->instrument_code) : "") << "," << format_utc(r.occurred_at) << "\n";
   }
 }
 

@@ -32,6 +32,5 @@ void print_trace_curve(std::ostream& out, const app::CurveTrace& t, const LabZon
 Json trace_lot_json(const app::LotTrace& t, const LabZone& zone);
 void print_trace_lot(std::ostream& out, const app::LotTrace& t, const LabZone& zone);
 /// One CSV line per affected result (with its curve), for spreadsheets.
-void print_trace_lot_csv(std::ostream& out, const app::LotTrace& t);
 
 }  // namespace cw::report

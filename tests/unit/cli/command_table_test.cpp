@@ -12,6 +12,7 @@
 #include "cli/cli_app.h"
 #include "cli/command_table.h"
 #include "cli/docs.h"
+#include "report/csv.h"
 
 namespace {
 
@@ -160,4 +161,27 @@ TEST_CASE("command table: the bash completion completes commands and options", "
   CHECK(complete("curvewarden curve r", 2) == "review retire\n");
   CHECK_THAT(complete("curvewarden curve log --po", 3), Catch::Contains("--points"));
   CHECK_THAT(complete("curvewarden --json check log --", 4), Catch::Contains("--nominal"));
+}
+
+TEST_CASE("cli: exactly the listings with CSV columns offer --csv, and the README lists them",
+          "[cli]") {
+  std::set<std::string> with_flag;
+  for (const auto& c : cw::cli::command_table()) {
+    for (const auto& o : c.options) {
+      if (o.name == "--csv") with_flag.insert(std::string(c.path));
+    }
+  }
+  std::set<std::string> with_columns;
+  const std::string text = readme();
+  for (const auto& l : cw::report::csv_listings()) {
+    with_columns.insert(std::string(l.command));
+    std::string row = "| `" + std::string(l.command) + "` | `" + std::string(l.rows) + "` | ";
+    for (std::size_t i = 0; i < l.columns.size(); ++i) {
+      row += (i ? ", `" : "`") + std::string(l.columns[i]) + "`";
+    }
+    row += " |";
+    INFO(row);
+    CHECK_THAT(text, Catch::Contains(row));
+  }
+  CHECK(with_flag == with_columns);
 }
