@@ -22,15 +22,37 @@ QuantitationDecision refuse_without_curve(std::vector<Finding> reasons) {
   return d;
 }
 
+std::optional<Finding> check_due(const CheckRules& rules, const Curve& curve,
+                                 const ChecksSoFar& so_far) {
+  if (!rules.samples_per_check || so_far.reported_since_check < *rules.samples_per_check) {
+    return std::nullopt;
+  }
+  const std::string since = so_far.last_passing_check
+                                ? "check " + std::to_string(so_far.last_passing_check->value)
+                                : "it was acquired (no check standard has passed on it)";
+  return Finding{Reason::CheckDue, std::nullopt,
+                 "the method allows " + std::to_string(*rules.samples_per_check) +
+                     " sample(s) after a passing check; " +
+                     std::to_string(so_far.reported_since_check) +
+                     " have been reported from curve " + std::to_string(curve.id.value) +
+                     " since " + since + ": measure a check standard first"};
+}
+
 QuantitationDecision decide_quantitation(const Curve& curve, const CurveStatus& status,
                                          const MethodDefinition& method,
                                          const QuantitationReading& reading,
-                                         const ReadingLabels& labels) {
+                                         const ReadingLabels& labels,
+                                         const std::optional<ChecksSoFar>& so_far) {
   // Bad input is refused before anything else, whatever the curve's state.
   const double y = method.fitted_response(reading.response, reading.is_response, labels.response,
                                           labels.is_response);
   QuantitationDecision d;
-  if (!status.is_usable()) return refuse_without_curve(status.blocking());
+  std::vector<Finding> blocking;
+  if (!status.is_usable()) blocking = status.blocking();
+  if (so_far) {
+    if (auto due = check_due(method.check, curve, *so_far)) blocking.push_back(std::move(*due));
+  }
+  if (!blocking.empty()) return refuse_without_curve(std::move(blocking));
   const std::string& unit = method.unit;
   fitting::Prediction p{};
   try {

@@ -35,8 +35,17 @@ struct QuantitationDecision {
   std::optional<double> suggested_dilution;  ///< above the range: a usual dilution factor
 };
 
+/// What the curve has reported since its last passing check standard: the method's
+/// samples_per_check limits how many samples may follow a passing check (product.md §5.4).
+struct ChecksSoFar {
+  long reported_since_check = 0;              ///< reported results since that check
+  std::optional<CheckId> last_passing_check;  ///< nullopt: none since the curve was acquired
+};
+
 /// Decides a quantitation on `curve` (made under `method`) whose state at the moment is `status`.
-/// Refused with every blocking reason unless the curve is active; refused as above-range when x0
+/// Refused with every blocking reason unless the curve is active, and with check-due when
+/// `so_far` is given and the method's samples_per_check samples have been reported since the
+/// last passing check (a check standard is due first); refused as above-range when x0
 /// exceeds the highest calibrator ("dilute and re-run", with a suggested factor); refused as
 /// no-solution when the response cannot be read on the curve; reported with the below-range flag
 /// and its reporting limit below the lowest calibrator. Throws ValidationError (naming the labels)
@@ -45,7 +54,12 @@ struct QuantitationDecision {
 QuantitationDecision decide_quantitation(const Curve& curve, const CurveStatus& status,
                                          const MethodDefinition& method,
                                          const QuantitationReading& reading,
-                                         const ReadingLabels& labels = {});
+                                         const ReadingLabels& labels = {},
+                                         const std::optional<ChecksSoFar>& so_far = std::nullopt);
+
+/// The check-due finding when `so_far` has used up the method's samples_per_check, else nullopt.
+std::optional<Finding> check_due(const CheckRules& rules, const Curve& curve,
+                                 const ChecksSoFar& so_far);
 
 /// The refusal when no curve could be chosen: `reasons` say why.
 QuantitationDecision refuse_without_curve(std::vector<Finding> reasons);
