@@ -192,8 +192,11 @@ int run_cli(const std::vector<std::string>& raw_args, std::ostream& out, std::os
 
     const int code = chosen->handler(in);
     for (const auto& w : in.warnings()) err << "curvewarden: warning: " << w << '\n';
-    if (in.failure()) return report_failure(*in.failure(), in.json(), in.document(), out, err);
-    if (in.json() && in.document()) {
+    if (in.failure()) {
+      return report_failure(*in.failure(), in.json() && !in.is_document_printed(), in.document(),
+                            out, err);
+    }
+    if (in.json() && in.document() && !in.is_document_printed()) {
       out << in.document()->dump(2, ' ', false, nlohmann::json::error_handler_t::replace) << '\n';
     }
     return code;

@@ -24,6 +24,8 @@ std::string csv_field(const std::string& s) {
   return out + "\"";
 }
 
+}  // namespace
+
 Json reason_tokens(const std::vector<Finding>& findings) {
   Json list = Json::array();
   for (const auto& f : findings) list.push_back(std::string(to_string(f.reason)));
@@ -33,12 +35,24 @@ Json reason_tokens(const std::vector<Finding>& findings) {
 std::string result_value_text(const Result& r, const std::string& unit) {
   if (r.status == ResultStatus::Refused) return "refused";
   if (!r.concentration) return "-";
-  std::string s = format_sig(*r.concentration, 4) + " " + unit;
+  std::string s = format_sig(*r.concentration, 4) + (unit.empty() ? "" : " " + unit);
   if (r.ci_low && r.ci_high)
     s += " (95 % CI " + format_sig(*r.ci_low, 4) + " to " + format_sig(*r.ci_high, 4) + ")";
   for (const auto& f : r.flags) s += " [" + std::string(to_string(f)) + "]";
+  if (r.current_status() == ResultStatus::RerunRequired) s = "RE-RUN REQUIRED (was " + s + ")";
   return s;
 }
+
+Json status_event_json(const ResultStatusEvent& e) {
+  return Json{{"status", std::string(to_string(e.status))},
+              {"reason", std::string(to_string(e.reason))},
+              {"detail", e.detail},
+              {"check_id", e.check_id ? Json(e.check_id->value) : Json(nullptr)},
+              {"run_id", e.run_id ? Json(e.run_id->value) : Json(nullptr)},
+              {"at", json_instant(e.occurred_at)}};
+}
+
+namespace {
 
 void print_lots(std::ostream& out, const std::vector<Lot>& lots, const LabZone& zone, Instant at) {
   for (const auto& l : lots) {
@@ -68,7 +82,8 @@ Json check_json(const Check& k) {
               {"limit_low", json_number(k.limit_low)},
               {"limit_high", json_number(k.limit_high)},
               {"passed", k.passed},
-              {"analyst", k.analyst}};
+              {"analyst", k.analyst},
+              {"run_id", k.run_id ? Json(k.run_id->value) : Json(nullptr)}};
 }
 
 Json check_outcome_json(const app::CheckOutcome& o) {
@@ -117,7 +132,11 @@ void print_check_outcome(std::ostream& out, const app::CheckOutcome& o, const La
 
 Json result_json(const Result& r) {
   return Json{{"result_id", r.id.value},
-              {"status", std::string(to_string(r.status))},
+              {"status", std::string(to_string(r.current_status()))},
+              {"recorded_status", std::string(to_string(r.status))},
+              {"rerun", r.latest_event ? status_event_json(*r.latest_event) : Json(nullptr)},
+              {"run_id", r.run_id ? Json(r.run_id->value) : Json(nullptr)},
+              {"run_position", json_optional(r.run_position)},
               {"sample", r.sample},
               {"analyte", r.analyte},
               {"curve_id", r.curve_id ? Json(r.curve_id->value) : Json(nullptr)},
@@ -321,9 +340,32 @@ Json trace_result_json(const app::ResultTrace& t, const LabZone& zone) {
   for (const auto& l : t.lots) lots.push_back(lot_json(l, zone, t.result.occurred_at));
   j["lots"] = lots;
   Json checks = Json::array();
-  if (t.check_before) checks.push_back(check_json(*t.check_before));
-  if (t.check_after) checks.push_back(check_json(*t.check_after));
+  if (t.check_before) {
+    Json k = check_json(*t.check_before);
+    k["bracket"] = "before";
+    k["position"] = json_optional(t.check_before_position);
+    checks.push_back(k);
+  }
+  if (t.check_after) {
+    Json k = check_json(*t.check_after);
+    k["bracket"] = "after";
+    k["position"] = json_optional(t.check_after_position);
+    checks.push_back(k);
+  }
   j["checks"] = checks;
+  if (t.run) {
+    j["run"] = {{"run_id", t.run->id.value},
+                {"position", json_optional(t.result.run_position)},
+                {"file_name", t.run->file_name},
+                {"file_sha256", t.run->file_sha256},
+                {"acquired_at", json_instant(t.run->acquired_at)},
+                {"analyst", t.run->analyst}};
+  } else {
+    j["run"] = nullptr;
+  }
+  Json history = Json::array();
+  for (const auto& e : t.history) history.push_back(status_event_json(e));
+  j["status_history"] = history;
   if (t.curve) {
     j["state_at_result_time"] = {
         {"state", std::string(to_string(t.curve->status.state))},
@@ -377,17 +419,35 @@ void print_trace_result(std::ostream& out, const app::ResultTrace& t, const LabZ
   }
   out << "Lots:\n";
   print_lots(out, t.lots, zone, r.occurred_at);
+  if (t.run) {
+    out << "Run " << t.run->id.value << " (" << t.run->file_name << ", sha256 "
+        << t.run->file_sha256 << "), position " << t.result.run_position.value_or(0)
+        << ", imported " << zone.format_local(t.run->acquired_at) << " by " << t.run->analyst
+        << "\n";
+  }
   out << "Bracketing checks:\n";
   if (!t.check_before && !t.check_after) out << "  none logged against this curve\n";
+  const auto where = [&](const std::optional<long>& position, const Check& k) {
+    return position ? "at position " + std::to_string(*position) + " of the run"
+                    : "at " + zone.format_local(k.occurred_at);
+  };
   if (t.check_before) {
-    out << "  before: " << to_string(t.check_before->kind) << " " << t.check_before->id.value
-        << " at " << zone.format_local(t.check_before->occurred_at) << " "
+    out << "  before: " << to_string(t.check_before->kind) << " " << t.check_before->id.value << " "
+        << where(t.check_before_position, *t.check_before) << " "
         << (t.check_before->passed ? "passed" : "FAILED") << "\n";
   }
   if (t.check_after) {
-    out << "  after:  " << to_string(t.check_after->kind) << " " << t.check_after->id.value
-        << " at " << zone.format_local(t.check_after->occurred_at) << " "
+    out << "  after:  " << to_string(t.check_after->kind) << " " << t.check_after->id.value << " "
+        << where(t.check_after_position, *t.check_after) << " "
         << (t.check_after->passed ? "passed" : "FAILED") << "\n";
+  } else if (t.check_before) {
+    out << "  after:  none yet (the result is not bracketed by a closing check)\n";
+  }
+  out << "Status history:\n";
+  out << "  " << zone.format_local(r.occurred_at) << "  " << to_string(r.status) << "\n";
+  for (const auto& e : t.history) {
+    out << "  " << zone.format_local(e.occurred_at) << "  " << to_string(e.status) << " ("
+        << to_string(e.reason) << "): " << e.detail << "\n";
   }
 }
 
