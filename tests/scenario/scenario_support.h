@@ -44,6 +44,10 @@ struct MethodSpec {
   std::string tolerance_pct = "10.0";
   std::optional<std::string> check_every;
   std::optional<std::string> blank_limit;
+  std::optional<std::string> samples_per_check = "10";
+  std::vector<std::string> trend_rules;   ///< e.g. {"2-2s", "1-3s"}
+  std::optional<std::string> trend_mean;  ///< with trend_sd: established control limits
+  std::optional<std::string> trend_sd;
 
   std::string toml() const;
 };
