@@ -72,7 +72,7 @@ class RunFileReader {
   RunRow parse(const CsvRecord& record);
 
   InputFile file_;
-  const MethodDefinition& method_;
+  MethodDefinition method_;  ///< a copy: the reader may outlive the caller's
   CsvSplitter splitter_;
   audit::Sha256 digest_;
   std::vector<CsvRecord> ready_;
