@@ -119,7 +119,8 @@ void print_check_outcome(std::ostream& out, const app::CheckOutcome& o, const La
       out << "No results were quantified from this curve since its last passing check.\n";
     } else {
       out << o.affected_results.size()
-          << " result(s) since the last passing check must be re-run:\n";
+          << " result(s) since the last passing check must be re-run (each now "
+             "rerun-required):\n";
       Table t({{"result", Table::Align::Right}, {"sample"}, {"at"}, {"reported"}});
       for (const auto& r : o.affected_results) {
         t.add_row({std::to_string(r.id.value), r.sample, zone.format_local(r.occurred_at),
