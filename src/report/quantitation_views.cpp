@@ -548,8 +548,8 @@ void print_trace_lot_csv(std::ostream& out, const app::LotTrace& t) {
       return x ? format_plain(*x, 12) : std::string();
     };
     out << csv_field(t.lot.code) << "," << r.id.value << "," << csv_field(r.sample) << ","
-        << csv_field(r.analyte) << "," << to_string(r.status) << "," << num(r.concentration) << ","
-        << num(r.ci_low) << "," << num(r.ci_high) << ","
+        << csv_field(r.analyte) << "," << to_string(r.current_status()) << ","
+        << num(r.concentration) << "," << num(r.ci_low) << "," << num(r.ci_high) << ","
         << (v ? csv_field(v->version.definition.unit) : "") << "," << csv_field(flags) << ","
         << (r.curve_id ? std::to_string(r.curve_id->value) : "") << ","
         << (v ? csv_field(v->method_code) : "") << ","

@@ -6,6 +6,9 @@
 #include <catch2/catch.hpp>
 
 #include "run_support.h"
+#include "store/sqlite/diagnostics.h"
+#include "store/sqlite/sql.h"
+#include "store/store.h"
 
 using namespace cw::scenario;
 
@@ -148,4 +151,26 @@ TEST_CASE("listings: runs, results and checks with their filters; trace result o
   CHECK(trace3.at("result").at("status") == "rerun-required");
   REQUIRE(trace3.at("checks").size() == 1);  // no closing check after it
   CHECK(trace3.at("status_history")[0].at("reason") == "no-closing-check");
+}
+
+TEST_CASE("runs: the statements of re-import checks, run rows and status events use indexes",
+          "[scenario][run]") {
+  RunLab rl;
+  cw::store::OpenOptions options;
+  options.location = rl.lab.box.db().string();
+  auto store = cw::store::Store::open(options);
+  namespace sql = cw::store::sqlite::sql;
+  const auto plan = [&](const char* statement) {
+    const std::string p = cw::store::sqlite::query_plan(*store, statement);
+    UNSCOPED_INFO("plan:\n" << p);
+    return p;
+  };
+  // The very statements the repositories execute.
+  CHECK_THAT(plan(sql::kRunsWithSha256), Catch::Contains("runs_by_sha256"));
+  CHECK_THAT(plan(sql::kStatusEventsOf), Catch::Contains("result_status_events_by_result"));
+  const std::string rows = plan(sql::kResultsOfRun);
+  CHECK_THAT(rows, Catch::Contains("sqlite_autoindex_run_results"));
+  CHECK_THAT(rows, !Catch::Contains("SCAN r\n"));
+  CHECK_THAT(plan(sql::kChecksOfGroup), Catch::Contains("curves_by_group"));
+  CHECK_THAT(plan(sql::kCountReportedBetween), Catch::Contains("results_by_curve"));
 }
