@@ -6,7 +6,6 @@
 #include <map>
 #include <set>
 
-#include "app/curves.h"
 #include "app/fact_set.h"
 #include "app/quantitation.h"
 #include "app/refusal.h"
@@ -16,7 +15,6 @@
 #include "domain/bracketing.h"
 #include "domain/check_judgement.h"
 #include "domain/quantitation.h"
-#include "import/column_map.h"
 #include "import/run_file.h"
 #include "rules/curve_facts.h"
 #include "rules/westgard.h"

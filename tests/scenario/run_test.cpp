@@ -332,3 +332,47 @@ TEST_CASE("run import: a bad row near the end of a large run leaves the store as
   CHECK(rl.lab.sql("SELECT hash FROM audit_log ORDER BY seq DESC LIMIT 1") == head_before);
   CHECK(rl.lab.json_at(kRunAt, {"audit", "verify"}).at("ok") == true);
 }
+
+TEST_CASE(
+    "run import: a curve overdue for its check is taken up again by the run's opening "
+    "check",
+    "[scenario][run]") {
+  MethodSpec spec;
+  spec.check_every = "1 hours";  // logged at 08:00, overdue from 09:00; the run is at 12:00
+  RunLab rl(spec);
+  const std::string csv = std::string(kRunHeader) +  //
+                          row(1, "sample", "EARLY", "nitrate", kNitrateLow) +
+                          row(2, "check", "CCV", "nitrate", kNitratePass, "6") +
+                          row(3, "sample", "W-1", "nitrate", kNitrateLow) +
+                          row(4, "check", "CCV", "nitrate", kNitratePass, "6");
+  const Json run = rl.import_json("overdue.csv", csv, 3);
+  CHECK(run.at("curves")[0].at("state_at_start") == "stale");
+  CHECK(run.at("curves")[0].at("reasons_at_start") == Json::array({"check-overdue"}));
+  CHECK(status_by_sample(run) ==
+        std::map<std::string, std::string>{{"EARLY", "refused"}, {"W-1", "reported"}});
+  CHECK(result_of(run, "EARLY").at("reasons") == Json::array({"check-overdue"}));
+}
+
+TEST_CASE("run import: an analyte without any curve refuses the whole run", "[scenario][run]") {
+  Lab lab;
+  lab.add_instrument("IC-01");
+  lab.add_lot("CRM-A", "2026-12-31");
+  lab.add_method(MethodSpec{});
+  lab.log_curve("ANION-IC", "IC-01", "CRM-A", std::string(kPointsHeader) + m1_rows(), kCurvesAt);
+  const auto file = lab.box.write_file(
+      "both.csv", std::string(kRunHeader) + row(1, "check", "CCV", "nitrate", kNitratePass, "6") +
+                      row(2, "sample", "W-1", "sulfate", kSulfateSample));
+  const auto before = lab.counts();
+  const RunResult r = lab.run_at(
+      kRunAt, {"run", "import", file.string(), "--method", "ANION-IC", "--instrument", "IC-01"});
+  INFO(r.describe());
+  CHECK(r.exit_code == 3);
+  CHECK_THAT(r.err, Catch::Contains("can take the run's rows for sulfate"));
+  const auto after = lab.counts();
+  CHECK(after.at("refusals") == before.at("refusals") + 1);
+  CHECK(after.at("runs") == before.at("runs"));
+  CHECK(after.at("results") == before.at("results"));
+  CHECK(after.at("checks") == before.at("checks"));
+  CHECK(lab.sql("SELECT reasons FROM refusals ORDER BY id DESC LIMIT 1") ==
+        "[\"no-active-curve\"]");
+}
