@@ -82,6 +82,16 @@ step "What expires this week (the lot limits the new curves), and the status boa
 show expiring --this-week
 show status
 
+at 2026-12-01T10:00:00Z
+step "Tuesday's sequence, as the instrument exports it: its headers saved once for IC-02, then the whole run imported with bracketing (exit 3: a check failed)"
+show instrument columns IC-02 --set "position=Inj,kind=Type,sample=Sample ID,analyte=Component,response=Area,nominal=Expected,dilution=Dilution" \
+  --reason "export layout of the IC-02 data system"
+show run import "$data/seq-2026-12-01.csv" --method ANION-IC --instrument IC-02
+show run import "$data/seq-2026-12-01.csv" --method ANION-IC --instrument IC-02
+show result list --status rerun-required
+show trace result 9
+show trend --method ANION-IC --instrument IC-02 --analyte nitrate
+
 step "A lot is withdrawn: which curves and results does it touch?"
 show lot withdraw CRM-AN-0419 --reason "supplier recall notice R-7731"
 show trace lot CRM-AN-0419
@@ -101,6 +111,9 @@ What to look at:
   - the rejected calibration (exit 3) stored with every failing criterion named;
   - refusals (exit 3) that name every reason with its date: above the range, failed check,
     method revised;
+  - the run: the failing check at position 10 makes the nitrate results since the passing
+    check before it rerun-required (status events, the rows unchanged) and refuses the rest;
+    sulfate's last sample has no closing check; the same file again is refused;
   - 'trace lot' listing exactly the curves and results a withdrawn lot touched;
   - 'audit verify' recomputing the hash chain over every entry and fact row.
 The store is $CURVEWARDEN_DB; try 'sqlite3 $CURVEWARDEN_DB "UPDATE lots SET material = 1"' (refused by a trigger).

@@ -14,17 +14,41 @@ CREATE INDEX audit_log_by_entity ON audit_log (entity_kind, entity_id, seq);
 -- index audit_log_by_recorded
 CREATE INDEX audit_log_by_recorded ON audit_log (recorded_at);
 
+-- index calibration_lots_by_audit_seq
+CREATE INDEX calibration_lots_by_audit_seq ON calibration_lots (audit_seq);
+
 -- index calibration_lots_by_lot
 CREATE INDEX calibration_lots_by_lot ON calibration_lots (lot_id);
+
+-- index calibrations_by_audit_seq
+CREATE INDEX calibrations_by_audit_seq ON calibrations (audit_seq);
+
+-- index checks_by_audit_seq
+CREATE INDEX checks_by_audit_seq ON checks (audit_seq);
 
 -- index checks_by_curve
 CREATE INDEX checks_by_curve ON checks (curve_id, occurred_at);
 
+-- index checks_by_time
+CREATE INDEX checks_by_time ON checks (occurred_at);
+
+-- index curve_points_by_audit_seq
+CREATE INDEX curve_points_by_audit_seq ON curve_points (audit_seq);
+
+-- index curve_retirements_by_audit_seq
+CREATE INDEX curve_retirements_by_audit_seq ON curve_retirements (audit_seq);
+
 -- index curve_retirements_by_curve
 CREATE INDEX curve_retirements_by_curve ON curve_retirements (curve_id, occurred_at);
 
+-- index curve_reviews_by_audit_seq
+CREATE INDEX curve_reviews_by_audit_seq ON curve_reviews (audit_seq);
+
 -- index curve_reviews_by_curve
 CREATE INDEX curve_reviews_by_curve ON curve_reviews (curve_id, occurred_at);
+
+-- index curves_by_audit_seq
+CREATE INDEX curves_by_audit_seq ON curves (audit_seq);
 
 -- index curves_by_calibration
 CREATE INDEX curves_by_calibration ON curves (calibration_id);
@@ -38,12 +62,76 @@ CREATE INDEX curves_by_group ON curves (method_id, instrument_id, analyte, acqui
 -- index curves_by_instrument
 CREATE INDEX curves_by_instrument ON curves (instrument_id, expires_at);
 
+-- index instrument_column_maps_by_audit_seq
+CREATE INDEX instrument_column_maps_by_audit_seq ON instrument_column_maps (audit_seq);
+
+-- index instrument_column_maps_by_instrument
+CREATE INDEX instrument_column_maps_by_instrument
+  ON instrument_column_maps (instrument_id, occurred_at);
+
+-- index instrument_service_events_by_audit_seq
+CREATE INDEX instrument_service_events_by_audit_seq ON instrument_service_events (audit_seq);
+
 -- index instrument_service_events_by_instrument
 CREATE INDEX instrument_service_events_by_instrument
   ON instrument_service_events (instrument_id, occurred_at);
 
+-- index instruments_by_audit_seq
+CREATE INDEX instruments_by_audit_seq ON instruments (audit_seq);
+
+-- index lab_settings_by_audit_seq
+CREATE INDEX lab_settings_by_audit_seq ON lab_settings (audit_seq);
+
+-- index lot_values_by_audit_seq
+CREATE INDEX lot_values_by_audit_seq ON lot_values (audit_seq);
+
+-- index lot_withdrawals_by_audit_seq
+CREATE INDEX lot_withdrawals_by_audit_seq ON lot_withdrawals (audit_seq);
+
+-- index lots_by_audit_seq
+CREATE INDEX lots_by_audit_seq ON lots (audit_seq);
+
+-- index method_versions_by_audit_seq
+CREATE INDEX method_versions_by_audit_seq ON method_versions (audit_seq);
+
+-- index methods_by_audit_seq
+CREATE INDEX methods_by_audit_seq ON methods (audit_seq);
+
+-- index refusals_by_audit_seq
+CREATE INDEX refusals_by_audit_seq ON refusals (audit_seq);
+
+-- index result_status_events_by_audit_seq
+CREATE INDEX result_status_events_by_audit_seq ON result_status_events (audit_seq);
+
+-- index result_status_events_by_result
+CREATE INDEX result_status_events_by_result ON result_status_events (result_id, id);
+
+-- index results_by_audit_seq
+CREATE INDEX results_by_audit_seq ON results (audit_seq);
+
 -- index results_by_curve
 CREATE INDEX results_by_curve ON results (curve_id, occurred_at);
+
+-- index results_by_sample
+CREATE INDEX results_by_sample ON results (sample, occurred_at);
+
+-- index results_by_time
+CREATE INDEX results_by_time ON results (occurred_at);
+
+-- index run_checks_by_audit_seq
+CREATE INDEX run_checks_by_audit_seq ON run_checks (audit_seq);
+
+-- index run_results_by_audit_seq
+CREATE INDEX run_results_by_audit_seq ON run_results (audit_seq);
+
+-- index runs_by_acquired
+CREATE INDEX runs_by_acquired ON runs (acquired_at);
+
+-- index runs_by_audit_seq
+CREATE INDEX runs_by_audit_seq ON runs (audit_seq);
+
+-- index runs_by_sha256
+CREATE INDEX runs_by_sha256 ON runs (file_sha256);
 
 -- table audit_log
 CREATE TABLE audit_log (
@@ -179,6 +267,17 @@ CREATE TABLE curves (
   audit_seq       INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
 ) STRICT;
 
+-- table instrument_column_maps
+CREATE TABLE instrument_column_maps (
+  id            INTEGER PRIMARY KEY AUTOINCREMENT,
+  instrument_id INTEGER NOT NULL REFERENCES instruments (id),
+  columns       TEXT    NOT NULL,               -- JSON object: logical column -> header ({} clears)
+  reason        TEXT,
+  saved_by      TEXT    NOT NULL,
+  occurred_at   TEXT    NOT NULL,
+  audit_seq     INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
 -- table instrument_service_events
 CREATE TABLE instrument_service_events (
   id            INTEGER PRIMARY KEY AUTOINCREMENT,
@@ -277,6 +376,20 @@ CREATE TABLE refusals (
   audit_seq   INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
 ) STRICT;
 
+-- table result_status_events
+CREATE TABLE result_status_events (
+  id          INTEGER PRIMARY KEY AUTOINCREMENT,
+  result_id   INTEGER NOT NULL REFERENCES results (id),
+  status      TEXT    NOT NULL CHECK (status IN ('rerun-required')),
+  reason      TEXT    NOT NULL CHECK (reason IN ('check-failed', 'samples-per-check',
+                                                 'no-closing-check')),
+  detail      TEXT    NOT NULL,                 -- the facts in plain words
+  check_id    INTEGER REFERENCES checks (id),   -- the failing check, or the last passing one
+  run_id      INTEGER REFERENCES runs (id),     -- the run that decided it
+  occurred_at TEXT    NOT NULL,
+  audit_seq   INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
 -- table results
 CREATE TABLE results (
   id                INTEGER PRIMARY KEY AUTOINCREMENT,
@@ -302,6 +415,42 @@ CREATE TABLE results (
   occurred_at       TEXT    NOT NULL,
   audit_seq         INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
 , censored TEXT CHECK (censored IS NULL OR censored = '<'), reporting_limit REAL, computed_concentration REAL, uncertainty TEXT) STRICT;
+
+-- table run_checks
+CREATE TABLE run_checks (
+  id        INTEGER PRIMARY KEY AUTOINCREMENT,
+  run_id    INTEGER NOT NULL REFERENCES runs (id),
+  position  INTEGER NOT NULL CHECK (position >= 1),
+  check_id  INTEGER NOT NULL UNIQUE REFERENCES checks (id),
+  label     TEXT,                               -- the row's sample column, when it named the check
+  audit_seq INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED,
+  UNIQUE (run_id, position)
+) STRICT;
+
+-- table run_results
+CREATE TABLE run_results (
+  id        INTEGER PRIMARY KEY AUTOINCREMENT,
+  run_id    INTEGER NOT NULL REFERENCES runs (id),
+  position  INTEGER NOT NULL CHECK (position >= 1),
+  result_id INTEGER NOT NULL UNIQUE REFERENCES results (id),
+  audit_seq INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED,
+  UNIQUE (run_id, position)
+) STRICT;
+
+-- table runs
+CREATE TABLE runs (
+  id                INTEGER PRIMARY KEY AUTOINCREMENT,
+  method_version_id INTEGER NOT NULL REFERENCES method_versions (id),
+  instrument_id     INTEGER NOT NULL REFERENCES instruments (id),
+  acquired_at       TEXT    NOT NULL,
+  analyst           TEXT    NOT NULL,
+  file_name         TEXT    NOT NULL,
+  file_sha256       TEXT    NOT NULL CHECK (length(file_sha256) = 64),
+  row_count         INTEGER NOT NULL CHECK (row_count >= 1),
+  columns           TEXT    NOT NULL,           -- JSON object: the header mapping used ({} none)
+  again_reason      TEXT,                       -- why the same file was imported again
+  audit_seq         INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
 
 -- table schema_migrations
 CREATE TABLE schema_migrations (
@@ -375,6 +524,14 @@ BEGIN SELECT RAISE(ABORT, 'curves is append-only: rows cannot be deleted'); END;
 CREATE TRIGGER curves_no_update BEFORE UPDATE ON curves
 BEGIN SELECT RAISE(ABORT, 'curves is append-only: rows cannot be changed'); END;
 
+-- trigger instrument_column_maps_no_delete
+CREATE TRIGGER instrument_column_maps_no_delete BEFORE DELETE ON instrument_column_maps
+BEGIN SELECT RAISE(ABORT, 'instrument_column_maps is append-only: rows cannot be deleted'); END;
+
+-- trigger instrument_column_maps_no_update
+CREATE TRIGGER instrument_column_maps_no_update BEFORE UPDATE ON instrument_column_maps
+BEGIN SELECT RAISE(ABORT, 'instrument_column_maps is append-only: rows cannot be changed'); END;
+
 -- trigger instrument_service_events_no_delete
 CREATE TRIGGER instrument_service_events_no_delete BEFORE DELETE ON instrument_service_events
 BEGIN SELECT RAISE(ABORT, 'instrument_service_events is append-only: rows cannot be deleted'); END;
@@ -447,6 +604,14 @@ BEGIN SELECT RAISE(ABORT, 'refusals is append-only: rows cannot be deleted'); EN
 CREATE TRIGGER refusals_no_update BEFORE UPDATE ON refusals
 BEGIN SELECT RAISE(ABORT, 'refusals is append-only: rows cannot be changed'); END;
 
+-- trigger result_status_events_no_delete
+CREATE TRIGGER result_status_events_no_delete BEFORE DELETE ON result_status_events
+BEGIN SELECT RAISE(ABORT, 'result_status_events is append-only: rows cannot be deleted'); END;
+
+-- trigger result_status_events_no_update
+CREATE TRIGGER result_status_events_no_update BEFORE UPDATE ON result_status_events
+BEGIN SELECT RAISE(ABORT, 'result_status_events is append-only: rows cannot be changed'); END;
+
 -- trigger results_no_delete
 CREATE TRIGGER results_no_delete BEFORE DELETE ON results
 BEGIN SELECT RAISE(ABORT, 'results is append-only: rows cannot be deleted'); END;
@@ -454,6 +619,30 @@ BEGIN SELECT RAISE(ABORT, 'results is append-only: rows cannot be deleted'); END
 -- trigger results_no_update
 CREATE TRIGGER results_no_update BEFORE UPDATE ON results
 BEGIN SELECT RAISE(ABORT, 'results is append-only: rows cannot be changed'); END;
+
+-- trigger run_checks_no_delete
+CREATE TRIGGER run_checks_no_delete BEFORE DELETE ON run_checks
+BEGIN SELECT RAISE(ABORT, 'run_checks is append-only: rows cannot be deleted'); END;
+
+-- trigger run_checks_no_update
+CREATE TRIGGER run_checks_no_update BEFORE UPDATE ON run_checks
+BEGIN SELECT RAISE(ABORT, 'run_checks is append-only: rows cannot be changed'); END;
+
+-- trigger run_results_no_delete
+CREATE TRIGGER run_results_no_delete BEFORE DELETE ON run_results
+BEGIN SELECT RAISE(ABORT, 'run_results is append-only: rows cannot be deleted'); END;
+
+-- trigger run_results_no_update
+CREATE TRIGGER run_results_no_update BEFORE UPDATE ON run_results
+BEGIN SELECT RAISE(ABORT, 'run_results is append-only: rows cannot be changed'); END;
+
+-- trigger runs_no_delete
+CREATE TRIGGER runs_no_delete BEFORE DELETE ON runs
+BEGIN SELECT RAISE(ABORT, 'runs is append-only: rows cannot be deleted'); END;
+
+-- trigger runs_no_update
+CREATE TRIGGER runs_no_update BEFORE UPDATE ON runs
+BEGIN SELECT RAISE(ABORT, 'runs is append-only: rows cannot be changed'); END;
 
 -- trigger schema_migrations_no_delete
 CREATE TRIGGER schema_migrations_no_delete BEFORE DELETE ON schema_migrations
@@ -463,4 +652,4 @@ BEGIN SELECT RAISE(ABORT, 'schema_migrations is append-only: rows cannot be dele
 CREATE TRIGGER schema_migrations_no_update BEFORE UPDATE ON schema_migrations
 BEGIN SELECT RAISE(ABORT, 'schema_migrations is append-only: rows cannot be changed'); END;
 
-PRAGMA user_version = 5;
+PRAGMA user_version = 6;

@@ -23,6 +23,7 @@ struct CalibrationBasis {
   MethodVersionId version_id;
   Instrument instrument;
   std::vector<Lot> lots;
+  std::optional<import::HeaderMapping> mapping;  ///< --columns, or the instrument's saved one
 
   const MethodVersion& version() const { return *method.version_number(version_number); }
   int version_number = 0;
@@ -50,6 +51,12 @@ CalibrationBasis load_basis(store::ReadUnit& unit, const CurveLogRequest& r, Ins
         "instrument " + quote(b.instrument.code) + " is out of service since " +
             zone.format_local(out->occurred_at) + " (" + out->reason + ")",
         "return it with 'instrument service " + b.instrument.code + " --back --reason ...' first");
+  }
+  if (r.columns) {
+    b.mapping = import::HeaderMapping{*r.columns, "--columns"};
+  } else if (const SavedColumns* saved = b.instrument.columns_at(at)) {
+    b.mapping = import::HeaderMapping{saved->columns,
+                                      "the saved columns of instrument " + b.instrument.code};
   }
   for (const auto& code : r.lots) {
     Lot lot = get_lot(unit, code);
@@ -192,9 +199,11 @@ struct FittedCalibration {
 };
 
 FittedCalibration fit_calibration(const std::string& file, const std::string& text,
-                                  const MethodVersion& version) {
+                                  const MethodVersion& version,
+                                  const std::optional<import::HeaderMapping>& mapping) {
   FittedCalibration out;
-  out.points = import::parse_points_text(file, text, version.definition);
+  out.points =
+      import::parse_points_text(file, text, version.definition, mapping ? &*mapping : nullptr);
   for (const auto& analyte : out.points.analytes) {
     out.curves.push_back(build_curve(out.points, analyte, version));
   }
@@ -230,18 +239,26 @@ CurveLogOutcome log_calibration(Session& s, const CurveLogRequest& r) {
     basis = load_basis(*unit, r, at, s.zone());
   }
   FittedCalibration fitted =
-      fit_calibration(import::recorded_name(r.points), text, basis.version());
+      fit_calibration(import::recorded_name(r.points), text, basis.version(), basis.mapping);
 
   // 2. One transaction: the same checks on the current facts, then the facts and entries.
   auto unit = s.write();
   const CalibrationBasis now = load_basis(*unit, r, at, s.zone());
-  if (now.version_id != basis.version_id) {
-    // The method was revised in between: judge against the version in force now.
-    fitted = fit_calibration(import::recorded_name(r.points), text, now.version());
+  if (now.version_id != basis.version_id || now.mapping != basis.mapping) {
+    // The method was revised (or the instrument's columns saved) in between: read and judge
+    // against what is in force now.
+    fitted = fit_calibration(import::recorded_name(r.points), text, now.version(), now.mapping);
   }
   const MethodVersion& version = now.version();
 
   CurveLogOutcome outcome;
+  if (!fitted.points.ignored_columns.empty()) {
+    std::string list;
+    for (const auto& c : fitted.points.ignored_columns)
+      list += (list.empty() ? "" : ", ") + quote(c);
+    outcome.warnings.push_back("columns not used (" + now.mapping->source +
+                               " is in force): " + list);
+  }
   for (const auto& analyte : fitted.points.analytes) {
     const bool certified = std::any_of(now.lots.begin(), now.lots.end(),
                                        [&](const Lot& l) { return l.value_for(analyte); });

@@ -12,6 +12,7 @@
 #include "domain/curve.h"
 #include "domain/curve_state.h"
 #include "domain/curve_transitions.h"
+#include "domain/run.h"
 
 namespace cw::app {
 
@@ -21,6 +22,7 @@ struct CurveLogRequest {
   std::vector<std::string> lots;  ///< lot codes, already checked, no duplicates
   std::string points;             ///< the points file's path
   std::optional<std::string> note;
+  std::optional<ColumnMapping> columns;  ///< --columns; else the instrument's saved mapping
 };
 
 struct CurveLogOutcome {

@@ -6,6 +6,7 @@
 #include <tuple>
 
 #include "core/error.h"
+#include "rules/westgard.h"
 
 namespace cw::app {
 namespace {
@@ -82,6 +83,23 @@ void FactSet::load(const std::vector<CurveId>& ids, bool with_points) {
       lots_[id] = std::make_unique<Lot>(std::move(l));
     }
   }
+  // The trend rule reads the whole group's checks: one query per group whose method version
+  // names a rule that can make a curve stale.
+  for (CurveId id : fresh) {
+    const Curve& c = *curves_.at(id);
+    auto m = methods_.find(c.method_id);
+    if (m == methods_.end()) continue;  // reported as damage when the facts are built
+    for (const auto& v : m->second->versions) {
+      if (v.id != c.method_version_id) continue;
+      if (rules::rejection_rules(v.definition.check.trend_rules).empty()) break;
+      const auto key = std::make_tuple(c.method_id, c.instrument_id, c.analyte);
+      if (!group_checks_.count(key)) {
+        group_checks_[key] =
+            unit_.curves().checks_of_group(c.method_id, c.instrument_id, c.analyte);
+      }
+      break;
+    }
+  }
 }
 
 const Curve& FactSet::curve(CurveId id, bool with_points) {
@@ -146,6 +164,10 @@ const rules::CurveFacts& FactSet::facts(CurveId id) {
       f->lots.push_back(it->second.get());
     }
     if (auto k = checks_.find(id); k != checks_.end()) f->checks = k->second;
+    if (auto g = group_checks_.find(std::make_tuple(c.method_id, c.instrument_id, c.analyte));
+        g != group_checks_.end()) {
+      f->group_checks = g->second;
+    }
     bool has_version = false;
     for (const auto& v : f->method->versions)
       has_version = has_version || v.id == c.method_version_id;

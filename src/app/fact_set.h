@@ -6,6 +6,8 @@
 #include <map>
 #include <memory>
 #include <set>
+#include <string>
+#include <tuple>
 #include <vector>
 
 #include "domain/curve.h"
@@ -19,7 +21,8 @@ class FactSet {
   FactSet(store::ReadUnit& unit, const LabZone& zone) : unit_(unit), zone_(zone) {}
 
   /// Loads the curves and everything their state needs in a handful of queries, whatever their
-  /// number; with `with_points` their calibration points too. Unknown ids are skipped.
+  /// number (one more per group whose method names trend rules: the group's checks); with
+  /// `with_points` their calibration points too. Unknown ids are skipped.
   void load(const std::vector<CurveId>& ids, bool with_points = false);
 
   /// The curve (loaded on demand); NotFoundError naming it when there is none.
@@ -50,6 +53,8 @@ class FactSet {
   std::map<LotId, std::unique_ptr<Lot>> lots_;
   std::map<CalibrationId, std::unique_ptr<Calibration>> calibrations_;
   std::map<CurveId, std::unique_ptr<rules::CurveFacts>> facts_;
+  /// Checks of a group (method, instrument, analyte), for the trend rule.
+  std::map<std::tuple<MethodId, InstrumentId, std::string>, std::vector<Check>> group_checks_;
 };
 
 }  // namespace cw::app

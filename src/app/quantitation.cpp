@@ -7,8 +7,37 @@
 #include "app/registry.h"
 #include "core/error.h"
 #include "core/text.h"
+#include "domain/bracketing.h"
 
 namespace cw::app {
+
+SinceLastPass since_last_pass(const std::vector<Check>& checks, Instant at,
+                              std::optional<CheckId> except) {
+  SinceLastPass out;
+  for (const auto& k : checks) {
+    if (!closes_bracket(k) || k.occurred_at > at || (except && k.id == *except)) continue;
+    if (!out.at || k.occurred_at >= *out.at) {
+      out.at = k.occurred_at;
+      out.check = k.id;
+    }
+  }
+  return out;
+}
+
+void record_rerun(store::WriteUnit& unit, const RerunDecision& decision, std::optional<RunId> run,
+                  Instant at) {
+  ResultStatusEvent e;
+  e.result_id = decision.result;
+  e.status = ResultStatus::RerunRequired;
+  e.reason = decision.reason;
+  e.detail = decision.detail;
+  e.check_id = decision.check;
+  e.run_id = run;
+  e.occurred_at = at;
+  unit.run_writer().add_status_event(e);
+  unit.append_entry({"result.rerun-required", "result", std::to_string(decision.result.value),
+                     std::string(to_string(decision.reason)) + ": " + decision.detail, at});
+}
 
 CheckOutcome log_check(Session& s, const CheckRequest& r) {
   const Instant at = s.at();
@@ -43,13 +72,21 @@ CheckOutcome log_check(Session& s, const CheckRequest& r) {
                       at});
   FactSet after(*unit, s.zone());
   if (!check.passed) {
-    // Results since the last passing check before this one (or since acquisition) must be
-    // re-run.
-    std::optional<Instant> last_pass;
-    for (const auto& k : after.facts(r.curve).checks) {
-      if (k.passed && k.occurred_at <= at && k.id != check.id) last_pass = k.occurred_at;
+    // Results reported since the last passing check standard before this one (or since
+    // acquisition) must be re-run: each becomes rerun-required by a status event of its own.
+    const auto& checks = after.facts(r.curve).checks;
+    const SinceLastPass since = since_last_pass(checks, at, check.id);
+    out.affected_results = unit->curves().reported_between(r.curve, since.at, at);
+    std::vector<ResultId> open;
+    for (const auto& result : out.affected_results) {
+      if (result.current_status() != ResultStatus::RerunRequired) open.push_back(result.id);
     }
-    out.affected_results = unit->curves().reported_between(r.curve, last_pass, at);
+    const MethodDefinition& d = after.version_of(r.curve).definition;
+    Bracket bracket(d.check.samples_per_check, static_cast<long>(out.affected_results.size()), open,
+                    since.check);
+    for (const auto& decision : bracket.on_check(check)) {
+      record_rerun(*unit, decision, std::nullopt, at);
+    }
   }
   out.curve = make_views(after, {r.curve}, at).front();
   unit->commit();
@@ -140,8 +177,13 @@ QuantifyOutcome quantify(Session& s, const QuantifyRequest& r) {
       require_acquired(at, c, s.zone());
       const MethodVersion& version = facts.version_of(*chosen);
       const CurveStatus status = facts.status(*chosen, at);
-      decision =
-          decide_quantitation(c, status, version.definition, facts.lots_of(*chosen), r.reading);
+      const SinceLastPass since = since_last_pass(facts.facts(*chosen).checks, at);
+      ChecksSoFar so_far;
+      so_far.last_passing_check = since.check;
+      so_far.reported_since_check =
+          static_cast<long>(unit->curves().count_reported_between(*chosen, since.at, at));
+      decision = decide_quantitation(c, status, version.definition, facts.lots_of(*chosen),
+                                     r.reading, {}, so_far);
       result.curve_id = *chosen;
       out.unit = version.definition.unit;
       out.method_version = version.version;
@@ -150,18 +192,7 @@ QuantifyOutcome quantify(Session& s, const QuantifyRequest& r) {
     } else {
       decision = refuse_without_curve(std::move(why_none));
     }
-    result.status = decision.status;
-    result.x0 = decision.x0;
-    result.sd_x0 = decision.sd_x0;
-    result.concentration = decision.concentration;
-    result.ci_low = decision.ci_low;
-    result.ci_high = decision.ci_high;
-    result.flags = decision.flags;
-    result.reasons = decision.reasons;
-    result.censored = decision.censored;
-    result.reporting_limit = decision.reporting_limit;
-    result.computed_concentration = decision.computed_concentration;
-    result.uncertainty = decision.uncertainty;
+    record_decision(result, decision);
     out.reporting_limit = decision.reporting_limit;
     out.suggested_dilution = decision.suggested_dilution;
   }

@@ -9,6 +9,7 @@
 
 #include "app/curve_view.h"
 #include "app/session.h"
+#include "domain/bracketing.h"
 #include "domain/check.h"
 #include "domain/check_judgement.h"
 #include "domain/quantitation.h"
@@ -27,9 +28,22 @@ struct CheckOutcome {
   std::string unit;
 };
 
-/// Records a check or blank; a failure makes the curve stale (check-failed) and lists the
-/// results quantified from it since its last passing check. A check against a rejected or
-/// retired curve is refused (recorded, RefusedError).
+/// The last passing check standard among `checks` at or before `at` (except `except`).
+struct SinceLastPass {
+  std::optional<Instant> at;  ///< nullopt: none (count from the curve's acquisition)
+  std::optional<CheckId> check;
+};
+SinceLastPass since_last_pass(const std::vector<Check>& checks, Instant at,
+                              std::optional<CheckId> except = std::nullopt);
+
+/// Records `decision` as a rerun-required status event with its own audit entry.
+void record_rerun(store::WriteUnit& unit, const RerunDecision& decision, std::optional<RunId> run,
+                  Instant at);
+
+/// Records a check or blank; a failure makes the curve stale (check-failed), lists the results
+/// reported from it since its last passing check standard and makes each of them
+/// rerun-required (a status event; those already rerun-required are listed, not marked again).
+/// A check against a rejected or retired curve is refused (recorded, RefusedError).
 CheckOutcome log_check(Session& s, const CheckRequest& request);
 
 /// Which curve to quantify against: one by id, or the one active curve of a group.
@@ -56,7 +70,10 @@ struct QuantifyOutcome {
   std::optional<int> method_version;
 };
 
-/// Quantifies one sample; refusals are recorded as results with status refused.
+/// Quantifies one sample; refusals are recorded as results with status refused. Besides the
+/// curve's state, the method's samples_per_check is enforced: when that many results have been
+/// reported from the curve since its last passing check standard, the quantitation is refused
+/// with check-due.
 QuantifyOutcome quantify(Session& s, const QuantifyRequest& request);
 
 }  // namespace cw::app

@@ -117,14 +117,39 @@ ResultTrace trace_result(Session& s, ResultId id) {
     t.calibration = facts.calibration(facts.curve(cid).calibration_id);
     t.method_version = facts.version_of(cid);
     for (const Lot* lot : facts.lots_of(cid)) t.lots.push_back(*lot);
-    for (const auto& k : facts.facts(cid).checks) {
-      if (k.occurred_at <= result->occurred_at) {
-        t.check_before = k;
-      } else if (!t.check_after) {
-        t.check_after = k;
+    if (result->run_id && result->run_position) {
+      // Within the run every row shares the run's time: position decides.
+      t.run = unit->runs().run(*result->run_id);
+      const long position = *result->run_position;
+      unit->runs().each_run_check(*result->run_id, [&](const store::RunCheckRow& row) {
+        if (row.check.curve_id != cid || row.check.kind != CheckKind::Check) return;
+        if (row.position < position) {
+          t.check_before = row.check;
+          t.check_before_position = row.position;
+        } else if (!t.check_after) {
+          t.check_after = row.check;
+          t.check_after_position = row.position;
+        }
+      });
+      if (!t.check_before) {
+        for (const auto& k : facts.facts(cid).checks) {
+          if (k.kind == CheckKind::Check && k.run_id != result->run_id &&
+              k.occurred_at <= result->occurred_at) {
+            t.check_before = k;
+          }
+        }
+      }
+    } else {
+      for (const auto& k : facts.facts(cid).checks) {
+        if (k.occurred_at <= result->occurred_at) {
+          t.check_before = k;
+        } else if (!t.check_after) {
+          t.check_after = k;
+        }
       }
     }
   }
+  t.history = unit->runs().status_events_of(id);
   return t;
 }
 

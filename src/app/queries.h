@@ -11,6 +11,7 @@
 #include "app/curve_view.h"
 #include "app/session.h"
 #include "domain/check.h"
+#include "domain/run.h"
 
 namespace cw::app {
 
@@ -48,8 +49,16 @@ struct ResultTrace {
   std::string method_code;
   std::optional<Instrument> instrument;
   std::vector<Lot> lots;
-  std::optional<Check> check_before;  ///< last check of the curve at or before the result
-  std::optional<Check> check_after;   ///< first check of the curve after the result
+  /// The checks that bracket the result: for a run's result, the nearest check standards of
+  /// its curve before and after its position in the run (before: the last one before the run
+  /// when the run had none); otherwise the last check of the curve at or before the result and
+  /// the first after it.
+  std::optional<Check> check_before;
+  std::optional<Check> check_after;
+  std::optional<long> check_before_position;  ///< in the run, when it came from the run
+  std::optional<long> check_after_position;
+  std::optional<Run> run;                  ///< the run the result came from
+  std::vector<ResultStatusEvent> history;  ///< status events, oldest first
 };
 ResultTrace trace_result(Session& s, ResultId id);
 

@@ -115,6 +115,28 @@ Instrument show_instrument(Session& s, const std::string& code) {
   return get_instrument(*unit, code);
 }
 
+Instrument save_instrument_columns(Session& s, const std::string& code,
+                                   const ColumnMapping& columns,
+                                   const std::optional<std::string>& reason) {
+  auto unit = s.write();
+  const Instrument instrument = get_instrument(*unit, code);
+  if (s.at() < instrument.registered_at) {
+    throw ValidationError("instrument " + quote(code) + " was registered only at " +
+                          s.zone().format_local(instrument.registered_at));
+  }
+  if (columns.empty() && !instrument.columns_at(s.at())) {
+    throw ValidationError("instrument " + quote(code) + " has no saved columns to clear",
+                          "save a mapping with --set NAME=HEADER,...");
+  }
+  unit->registry_writer().add_saved_columns(instrument.id,
+                                            {columns, reason, s.actor().name, s.at()});
+  unit->append_entry({columns.empty() ? "instrument.clear-columns" : "instrument.columns",
+                      "instrument", code, reason, s.at()});
+  Instrument saved = get_instrument(*unit, code);
+  unit->commit();
+  return saved;
+}
+
 Instrument record_service(Session& s, const ServiceRequest& request) {
   auto unit = s.write();
   const Instrument instrument = get_instrument(*unit, request.code);

@@ -48,6 +48,11 @@ struct ServiceRequest {
   std::string reason;
 };
 Instrument record_service(Session& s, const ServiceRequest& request);
+/// Saves the headers an instrument's exports use (an audited fact), used for its run and points
+/// files when no --columns is given; an empty mapping clears the saved one.
+Instrument save_instrument_columns(Session& s, const std::string& code,
+                                   const ColumnMapping& columns,
+                                   const std::optional<std::string>& reason);
 
 // ---- methods
 MethodVersion add_method(Session& s, const std::string& file);

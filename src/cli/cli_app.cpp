@@ -198,13 +198,14 @@ int run_cli(const std::vector<std::string>& raw_args, std::ostream& out, std::os
     const int code = chosen->handler(in);
     for (const auto& w : in.warnings()) err << "curvewarden: warning: " << w << '\n';
     if (in.failure()) {
-      return report_failure(*in.failure(), in.json() && !in.csv(), in.document(), out, err);
+      return report_failure(*in.failure(), in.json() && !in.csv() && !in.is_document_printed(),
+                            in.document(), out, err);
     }
     if (in.csv() && in.document()) {
       const report::CsvListing* listing = report::csv_listing(chosen->path);
       if (listing == nullptr) throw std::logic_error("no CSV columns for " + key);
       report::write_csv(out, *in.document(), *listing);
-    } else if (in.json() && in.document()) {
+    } else if (in.json() && in.document() && !in.is_document_printed()) {
       out << in.document()->dump(2, ' ', false, nlohmann::json::error_handler_t::replace) << '\n';
     }
     return code;

@@ -13,6 +13,7 @@ int instrument_add(Invocation& in);
 int instrument_list(Invocation& in);
 int instrument_show(Invocation& in);
 int instrument_service(Invocation& in);
+int instrument_columns(Invocation& in);
 int method_add(Invocation& in);
 int method_revise(Invocation& in);
 int method_list(Invocation& in);
@@ -40,6 +41,15 @@ int trace_lot(Invocation& in);
 
 // printable reports (handlers_report.cpp)
 int report_curve(Invocation& in);
+
+// runs, listings, trend (handlers_runs.cpp)
+int run_import(Invocation& in);
+int run_list(Invocation& in);
+int run_show(Invocation& in);
+int result_list(Invocation& in);
+int result_show(Invocation& in);
+int check_list(Invocation& in);
+int trend(Invocation& in);
 
 // audit trail (handlers_audit.cpp)
 int audit_log(Invocation& in);

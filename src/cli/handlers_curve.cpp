@@ -5,6 +5,7 @@
 #include "core/clean_text.h"
 #include "core/error.h"
 #include "core/text.h"
+#include "import/points_file.h"
 #include "plot/plot.h"
 #include "report/curve_plot_view.h"
 #include "report/curve_views.h"
@@ -22,6 +23,12 @@ int curve_log(Invocation& in) {
   }
   r.points = in.path("--points");
   r.note = in.optional_text("--note", kMaxReasonChars);
+  {
+    std::set<std::string> names = import::points_file_required_columns();
+    names.insert(import::points_file_optional_columns().begin(),
+                 import::points_file_optional_columns().end());
+    r.columns = in.optional_columns("--columns", names);
+  }
   auto s = in.open_session();
   const auto outcome = app::log_calibration(s, r);
   for (const auto& w : outcome.warnings) in.warn(w);

@@ -7,6 +7,7 @@
 #include "core/clean_text.h"
 #include "core/error.h"
 #include "core/text.h"
+#include "import/column_map.h"
 #include "report/registry_views.h"
 
 namespace cw::cli::handlers {
@@ -60,6 +61,35 @@ int instrument_show(Invocation& in) {
     in.emit(report::instrument_json(i, s.at()));
   } else {
     report::print_instrument(in.out(), i, s.zone(), s.at());
+  }
+  return 0;
+}
+
+int instrument_columns(Invocation& in) {
+  const std::string code = in.code("code", "instrument code");
+  if (in.has("--set") && in.flag("--clear")) throw UsageError("give --set or --clear, not both");
+  const auto columns = in.optional_columns("--set", import::all_mappable_columns());
+  const bool clear = in.flag("--clear");
+  const auto reason = in.optional_text("--reason", kMaxReasonChars);
+  if (reason && !columns && !clear) {
+    throw UsageError("--reason goes with --set or --clear",
+                     "without them the saved columns are shown");
+  }
+  auto s = in.open_session();
+  const Instrument i = columns || clear ? app::save_instrument_columns(
+                                              s, code, columns.value_or(ColumnMapping{}), reason)
+                                        : app::show_instrument(s, code);
+  if (in.json()) {
+    in.emit(report::instrument_json(i, s.at()));
+  } else if (const SavedColumns* saved = i.columns_at(s.at())) {
+    in.out() << "Instrument " << i.code << " exports are read with the columns "
+             << column_mapping_text(saved->columns) << " (saved "
+             << s.zone().format_local(saved->occurred_at) << " by " << saved->saved_by
+             << "); --columns on a command replaces them for that file.\n";
+  } else {
+    in.out() << "Instrument " << i.code
+             << " has no saved columns: its files must use the column names of the README, or "
+                "give --columns.\n";
   }
   return 0;
 }

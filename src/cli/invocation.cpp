@@ -13,6 +13,7 @@
 #include "core/clock.h"
 #include "core/number.h"
 #include "core/text.h"
+#include "import/column_map.h"
 
 namespace cw::cli {
 namespace {
@@ -157,8 +158,29 @@ CurveId Invocation::curve_id(std::string_view option) const {
   return CurveId{whole(option, 1, INT64_MAX)};
 }
 
+std::optional<CurveId> Invocation::optional_curve_id(std::string_view option) const {
+  if (auto v = optional_whole(option, 1, INT64_MAX)) return CurveId{*v};
+  return std::nullopt;
+}
+
 ResultId Invocation::result_id(std::string_view option) const {
   return ResultId{whole(option, 1, INT64_MAX)};
+}
+
+RunId Invocation::run_id(std::string_view option) const {
+  return RunId{whole(option, 1, INT64_MAX)};
+}
+
+std::optional<RunId> Invocation::optional_run_id(std::string_view option) const {
+  if (auto v = optional_whole(option, 1, INT64_MAX)) return RunId{*v};
+  return std::nullopt;
+}
+
+std::optional<ColumnMapping> Invocation::optional_columns(
+    std::string_view option, const std::set<std::string>& names) const {
+  const std::string* raw = single(option);
+  if (!raw) return std::nullopt;
+  return naming(option, [&] { return import::parse_column_mapping(*raw, names, option); });
 }
 
 std::optional<Instant> Invocation::optional_instant(std::string_view option) const {

@@ -10,6 +10,7 @@
 #include <nlohmann/json.hpp>
 #include <optional>
 #include <ostream>
+#include <set>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -19,6 +20,7 @@
 #include "core/error.h"
 #include "core/time.h"
 #include "domain/ids.h"
+#include "domain/run.h"
 
 namespace cw::cli {
 
@@ -66,7 +68,13 @@ class Invocation {
   std::optional<std::int64_t> optional_whole(std::string_view option, std::int64_t low,
                                              std::int64_t high) const;
   CurveId curve_id(std::string_view option) const;
+  std::optional<CurveId> optional_curve_id(std::string_view option) const;
   ResultId result_id(std::string_view option) const;
+  RunId run_id(std::string_view option) const;
+  std::optional<RunId> optional_run_id(std::string_view option) const;
+  /// A column mapping NAME=HEADER,... whose names are among `names`.
+  std::optional<ColumnMapping> optional_columns(std::string_view option,
+                                                const std::set<std::string>& names) const;
   std::optional<Instant> optional_instant(std::string_view option) const;
   CalendarDate date(std::string_view option) const;
   std::optional<CalendarDate> optional_date(std::string_view option) const;
@@ -94,6 +102,10 @@ class Invocation {
   std::ostream& err() { return err_; }
   void emit(Json document) { document_ = std::move(document); }
   const std::optional<Json>& document() const { return document_; }
+  /// The command wrote its JSON document itself, row by row (long listings), with any error
+  /// member already in it: the runner prints nothing more on stdout.
+  void document_printed() { document_printed_ = true; }
+  bool is_document_printed() const { return document_printed_; }
   /// Ends the command as refused (exit 3) after its outcome was shown: the runner prints
   /// `message` as the error line (and in the JSON document). Returns the exit code.
   int refused(std::string message);
@@ -115,6 +127,7 @@ class Invocation {
   bool json_ = false;
   bool csv_ = false;
   std::optional<Json> document_;
+  bool document_printed_ = false;
   std::optional<Error> failure_;
   std::vector<std::string> warnings_;
 };

@@ -1,5 +1,6 @@
 // SPDX-License-Identifier: Apache-2.0
-// Check standards and blanks measured against a curve, and quantified results.
+// Check standards and blanks measured against a curve, quantified results, and the status
+// events that later change what a result may be used for (a result row is never edited).
 #pragma once
 
 #include <optional>
@@ -30,11 +31,15 @@ struct Check {
   bool passed = false;
   std::string analyst;
   Instant occurred_at;
+  std::optional<RunId> run_id;  ///< the run it was measured in (read back; not a column)
 };
 
-enum class ResultStatus { Reported, Refused };
-std::string_view to_string(ResultStatus s);  // "reported" | "refused"
+/// The status of a result. A result row is stored reported or refused; a later status event
+/// can make it rerun-required (the stored row stays as it was).
+enum class ResultStatus { Reported, Refused, RerunRequired };
+std::string_view to_string(ResultStatus s);  // "reported" | "refused" | "rerun-required"
 std::optional<ResultStatus> parse_result_status(std::string_view text);
+std::vector<ResultStatus> all_result_statuses();
 
 /// Remarks attached to a reported result.
 enum class ResultFlag {
@@ -57,11 +62,34 @@ struct ResultUncertainty {
   double k = 2;
 };
 
+/// Why a reported result must be measured again (calibration-practice.md §5.4).
+enum class RerunReason {
+  CheckFailed,      ///< a later check or blank of its bracket failed
+  SamplesPerCheck,  ///< more samples followed the last passing check than the method allows
+  NoClosingCheck,   ///< its run ended without a passing check after it
+};
+/// "check-failed" | "samples-per-check" | "no-closing-check".
+std::string_view to_string(RerunReason r);
+std::optional<RerunReason> parse_rerun_reason(std::string_view text);
+std::vector<RerunReason> all_rerun_reasons();
+
+/// A change of a result's status, recorded as a new fact.
+struct ResultStatusEvent {
+  StatusEventId id;
+  ResultId result_id;
+  ResultStatus status = ResultStatus::RerunRequired;
+  RerunReason reason = RerunReason::CheckFailed;
+  std::string detail;               ///< the facts in plain words
+  std::optional<CheckId> check_id;  ///< the check that caused it (or the last passing check)
+  std::optional<RunId> run_id;      ///< the run that decided it
+  Instant occurred_at;
+};
+
 struct Result {
   ResultId id;
   std::string sample;
   std::string analyte;
-  ResultStatus status = ResultStatus::Refused;
+  ResultStatus status = ResultStatus::Refused;  ///< as recorded: reported or refused
   std::optional<CurveId> curve_id;
   std::optional<MethodId> method_id;
   std::optional<InstrumentId> instrument_id;
@@ -84,8 +112,13 @@ struct Result {
   std::optional<ResultUncertainty> uncertainty;  ///< reported values
   std::string analyst;
   Instant occurred_at;
+  std::optional<RunId> run_id;                    ///< read back: the run it came from
+  std::optional<long> run_position;               ///< read back: its position in that run
+  std::optional<ResultStatusEvent> latest_event;  ///< read back: the latest status event
 
   bool has_flag(ResultFlag f) const;
+  /// The recorded status, overridden by the latest status event.
+  ResultStatus current_status() const;
 };
 
 }  // namespace cw

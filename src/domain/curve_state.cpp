@@ -22,6 +22,7 @@ constexpr std::pair<Reason, std::string_view> kReasons[] = {
     {Reason::LotWithdrawn, "lot-withdrawn"},
     {Reason::InstrumentServiced, "instrument-serviced"},
     {Reason::Superseded, "superseded"},
+    {Reason::TrendViolation, "trend-violation"},
     {Reason::CurveRejected, "rejected"},
     {Reason::AwaitingReview, "awaiting-review"},
     {Reason::CurveRetired, "retired"},
@@ -29,10 +30,12 @@ constexpr std::pair<Reason, std::string_view> kReasons[] = {
     {Reason::NoActiveCurve, "no-active-curve"},
     {Reason::AboveRange, "above-range"},
     {Reason::NoSolution, "no-solution"},
+    {Reason::CheckDue, "check-due"},
     {Reason::SelfReview, "self-review"},
     {Reason::NotAwaitingReview, "not-awaiting-review"},
     {Reason::NotRetirable, "not-retirable"},
     {Reason::ZoneFixed, "zone-fixed"},
+    {Reason::AlreadyImported, "already-imported"},
 };
 
 }  // namespace
@@ -69,6 +72,7 @@ bool is_stale_reason(Reason r) {
     case Reason::LotWithdrawn:
     case Reason::InstrumentServiced:
     case Reason::Superseded:
+    case Reason::TrendViolation:
       return true;
     default:
       return false;

@@ -33,6 +33,7 @@ enum class Reason {
   LotWithdrawn,        ///< a lot it was made from was withdrawn
   InstrumentServiced,  ///< its instrument was taken out of service after it was acquired
   Superseded,          ///< a newer active curve exists for the same method, instrument, analyte
+  TrendViolation,      ///< a Westgard rule the method's trend_rules name was violated
   // Why a curve cannot be used although no stale reason holds.
   CurveRejected,   ///< failed acceptance or rejected by a reviewer
   AwaitingReview,  ///< accepted but not yet approved
@@ -42,18 +43,22 @@ enum class Reason {
   NoActiveCurve,  ///< no active curve for the method, instrument and analyte
   AboveRange,     ///< above the highest calibrator: dilute and re-run
   NoSolution,     ///< the response has no solution on the curve
+  CheckDue,       ///< the method's samples_per_check were reported since the last passing check
   // Why a review or a retirement is refused.
   SelfReview,         ///< the reviewer logged the calibration
   NotAwaitingReview,  ///< the curve is not waiting for a review
   NotRetirable,       ///< the curve is already retired or rejected
   // Why a change of the lab's settings is refused.
   ZoneFixed,  ///< the lab's zone cannot change once the store holds records
+  // Why a run import is refused.
+  AlreadyImported,  ///< the same file (same SHA-256) was imported before
 };
 
 /// "expired", "method-revised", "check-failed", "check-overdue", "lot-expired",
-/// "lot-withdrawn", "instrument-serviced", "superseded", "rejected", "awaiting-review",
-/// "retired", "not-yet-acquired", "no-active-curve", "above-range", "no-solution",
-/// "self-review", "not-awaiting-review", "not-retirable", "zone-fixed".
+/// "lot-withdrawn", "instrument-serviced", "superseded", "trend-violation", "rejected",
+/// "awaiting-review", "retired", "not-yet-acquired", "no-active-curve", "above-range",
+/// "no-solution", "check-due", "self-review", "not-awaiting-review", "not-retirable",
+/// "zone-fixed", "already-imported".
 std::string_view to_string(Reason r);
 std::optional<Reason> parse_reason(std::string_view text);
 /// True for the reasons that make an active curve stale.

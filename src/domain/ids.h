@@ -24,6 +24,8 @@ using CalibrationId = Id<struct CalibrationTag>;
 using CurveId = Id<struct CurveTag>;
 using CheckId = Id<struct CheckTag>;
 using ResultId = Id<struct ResultTag>;
+using RunId = Id<struct RunTag>;
+using StatusEventId = Id<struct StatusEventTag>;
 
 }  // namespace cw
 

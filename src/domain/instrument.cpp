@@ -28,6 +28,15 @@ const ServiceEvent* Instrument::out_of_service_event_at(Instant t) const {
   return last != nullptr && last->direction == ServiceDirection::Out ? last : nullptr;
 }
 
+const SavedColumns* Instrument::columns_at(Instant t) const {
+  const SavedColumns* last = nullptr;
+  for (const auto& c : columns) {
+    if (c.occurred_at > t) break;
+    last = &c;
+  }
+  return last != nullptr && !last->columns.empty() ? last : nullptr;
+}
+
 bool Instrument::in_service_at(Instant t) const {
   return out_of_service_event_at(t) == nullptr;
 }

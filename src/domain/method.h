@@ -46,6 +46,10 @@ struct CheckRules {
   std::optional<Duration> check_every;   ///< a passing check is due this often
   std::vector<std::string> trend_rules;  ///< Westgard rules that make the curve stale
   std::optional<double> blank_limit;     ///< blank passes below this (else below the LOD)
+  /// Established control limits of the check standard's recovery (percent), for trending;
+  /// both or neither. Without them the limits come from the last 20 passing checks.
+  std::optional<double> trend_mean;
+  std::optional<double> trend_sd;
 };
 
 /// [uncertainty] of a method file: components of a result's budget the method declares.

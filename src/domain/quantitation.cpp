@@ -72,15 +72,52 @@ double release_limit(const Curve& curve, const MethodDefinition& method) {
   return lowest.value_or(fit.range_low);
 }
 
+void record_decision(Result& result, const QuantitationDecision& d) {
+  result.status = d.status;
+  result.x0 = d.x0;
+  result.sd_x0 = d.sd_x0;
+  result.concentration = d.concentration;
+  result.ci_low = d.ci_low;
+  result.ci_high = d.ci_high;
+  result.flags = d.flags;
+  result.reasons = d.reasons;
+  result.censored = d.censored;
+  result.reporting_limit = d.reporting_limit;
+  result.computed_concentration = d.computed_concentration;
+  result.uncertainty = d.uncertainty;
+}
+
+std::optional<Finding> check_due(const CheckRules& rules, const Curve& curve,
+                                 const ChecksSoFar& so_far) {
+  if (!rules.samples_per_check || so_far.reported_since_check < *rules.samples_per_check) {
+    return std::nullopt;
+  }
+  const std::string since = so_far.last_passing_check
+                                ? "check " + std::to_string(so_far.last_passing_check->value)
+                                : "it was acquired (no check standard has passed on it)";
+  return Finding{Reason::CheckDue, std::nullopt,
+                 "the method allows " + std::to_string(*rules.samples_per_check) +
+                     " sample(s) after a passing check; " +
+                     std::to_string(so_far.reported_since_check) +
+                     " have been reported from curve " + std::to_string(curve.id.value) +
+                     " since " + since + ": measure a check standard first"};
+}
+
 QuantitationDecision decide_quantitation(const Curve& curve, const CurveStatus& status,
                                          const MethodDefinition& method,
                                          const std::vector<const Lot*>& lots,
                                          const QuantitationReading& reading,
-                                         const ReadingLabels& labels) {
+                                         const ReadingLabels& labels,
+                                         const std::optional<ChecksSoFar>& so_far) {
   // Bad input is refused before anything else, whatever the curve's state.
   const double y = method.fitted_response(reading.response, reading.is_response, labels.response,
                                           labels.is_response);
-  if (!status.is_usable()) return refuse_without_curve(status.blocking());
+  std::vector<Finding> blocking;
+  if (!status.is_usable()) blocking = status.blocking();
+  if (so_far) {
+    if (auto due = check_due(method.check, curve, *so_far)) blocking.push_back(std::move(*due));
+  }
+  if (!blocking.empty()) return refuse_without_curve(std::move(blocking));
   const auto& fit = curve.fit;
   const std::string& unit = method.unit;
   const std::string product = "the concentration (instrument level × " + labels.dilution + ")";

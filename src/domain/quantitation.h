@@ -45,9 +45,18 @@ struct QuantitationDecision {
 /// method's limit definition.
 double release_limit(const Curve& curve, const MethodDefinition& method);
 
+/// What the curve has reported since its last passing check standard: the method's
+/// samples_per_check limits how many samples may follow a passing check (product.md §5.4).
+struct ChecksSoFar {
+  long reported_since_check = 0;              ///< reported results since that check
+  std::optional<CheckId> last_passing_check;  ///< nullopt: none since the curve was acquired
+};
+
 /// Decides a quantitation on `curve` (made under `method` from `lots`) whose state at the moment is
 /// `status`:
-/// - refused with every blocking reason unless the curve is active;
+/// - refused with every blocking reason unless the curve is active, and with check-due when
+///   `so_far` is given and the method's samples_per_check samples have been reported since the
+///   last passing check (a check standard is due first);
 /// - refused as above-range when the estimate exceeds the highest calibrator ("dilute and re-run",
 ///   with a suggested factor);
 /// - censored below the release limit (release_limit()): released as "< limit × dilution", never
@@ -65,7 +74,16 @@ QuantitationDecision decide_quantitation(const Curve& curve, const CurveStatus& 
                                          const MethodDefinition& method,
                                          const std::vector<const Lot*>& lots,
                                          const QuantitationReading& reading,
-                                         const ReadingLabels& labels = {});
+                                         const ReadingLabels& labels = {},
+                                         const std::optional<ChecksSoFar>& so_far = std::nullopt);
+
+/// Copies what `d` decided into `result` (status, estimate, interval, flags, reasons, censoring,
+/// uncertainty): one place, so that every path that records a result records all of it.
+void record_decision(Result& result, const QuantitationDecision& d);
+
+/// The check-due finding when `so_far` has used up the method's samples_per_check, else nullopt.
+std::optional<Finding> check_due(const CheckRules& rules, const Curve& curve,
+                                 const ChecksSoFar& so_far);
 
 /// The refusal when no curve could be chosen: `reasons` say why.
 QuantitationDecision refuse_without_curve(std::vector<Finding> reasons);

@@ -290,7 +290,8 @@ UncertaintyRules read_uncertainty(const TableReader& r) {
 }
 
 CheckRules read_check(const TableReader& r) {
-  r.allow_only({"tolerance_pct", "samples_per_check", "check_every", "trend_rules", "blank_limit"});
+  r.allow_only({"tolerance_pct", "samples_per_check", "check_every", "trend_rules", "blank_limit",
+                "trend_mean", "trend_sd"});
   CheckRules c;
   auto tolerance =
       r.optional_number("tolerance_pct", 0.0, 100.0, false, "a percentage above 0 and at most 100");
@@ -313,6 +314,20 @@ CheckRules read_check(const TableReader& r) {
     }
   }
   c.blank_limit = r.optional_number("blank_limit", 0.0, 1e300, true, "zero or more");
+  // Established control limits of the recovery (calibration-practice.md §8.2: z is taken from
+  // the limits set for the control material, not from a running mean).
+  c.trend_mean = r.optional_number("trend_mean", 0.0, 1000.0, false,
+                                   "a recovery in percent above 0 and at most 1000");
+  c.trend_sd = r.optional_number("trend_sd", 0.0, 100.0, false,
+                                 "a standard deviation in percent above 0 and at most 100");
+  if (c.trend_mean.has_value() != c.trend_sd.has_value()) {
+    const std::string given = c.trend_mean ? "trend_mean" : "trend_sd";
+    const std::string missing = c.trend_mean ? "trend_sd" : "trend_mean";
+    r.fail(*r.find(given), given,
+           "key " + quote(r.dotted(given)) + " needs " + quote(r.dotted(missing)) + " as well",
+           "give the established mean and standard deviation of the recovery together, or "
+           "neither (the limits then come from the last 20 passing checks)");
+  }
   return c;
 }
 

@@ -63,11 +63,20 @@ class RowReader {
 
 }  // namespace
 
+const std::set<std::string>& points_file_required_columns() {
+  static const std::set<std::string> names = {"analyte", "level", "nominal", "response"};
+  return names;
+}
+
+const std::set<std::string>& points_file_optional_columns() {
+  static const std::set<std::string> names = {"replicate", "is_response", "exclude", "unit"};
+  return names;
+}
+
 PointsFile parse_points_text(const std::string& file_name, const std::string& text,
-                             const MethodDefinition& method) {
-  const CsvTable table =
-      CsvTable::parse(file_name, text, {"analyte", "level", "nominal", "response"},
-                      {"replicate", "is_response", "exclude", "unit"});
+                             const MethodDefinition& method, const HeaderMapping* mapping) {
+  const CsvTable table = CsvTable::parse(file_name, text, points_file_required_columns(),
+                                         points_file_optional_columns(), mapping);
   const bool uses_is = method.internal_standard.has_value();
   if (uses_is && !table.has_column("is_response")) {
     throw ValidationError(SourceLocation{file_name, 1, std::nullopt, "is_response"},
@@ -78,6 +87,7 @@ PointsFile parse_points_text(const std::string& file_name, const std::string& te
   }
   PointsFile out;
   out.file_name = file_name;
+  out.ignored_columns = table.header().ignored();
   out.sha256 = audit::sha256_hex(text);
   std::map<std::tuple<std::string, std::string, int>, long>
       seen;  // (analyte, level, replicate) -> line
@@ -223,9 +233,10 @@ PointsFile parse_points_text(const std::string& file_name, const std::string& te
   return out;
 }
 
-PointsFile read_points_file(const std::string& path, const MethodDefinition& method) {
+PointsFile read_points_file(const std::string& path, const MethodDefinition& method,
+                            const HeaderMapping* mapping) {
   return parse_points_text(recorded_name(path),
-                           read_text_file(path, kMaxPointsFileBytes, "--points"), method);
+                           read_text_file(path, kMaxPointsFileBytes, "--points"), method, mapping);
 }
 
 }  // namespace cw::import

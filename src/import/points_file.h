@@ -4,10 +4,12 @@
 #pragma once
 
 #include <optional>
+#include <set>
 #include <string>
 #include <vector>
 
 #include "domain/method.h"
+#include "import/csv.h"
 
 namespace cw::import {
 
@@ -26,16 +28,24 @@ struct PointRow {
 struct PointsFile {
   std::string file_name;
   std::string sha256;
-  std::vector<PointRow> rows;         ///< in file order
-  std::vector<std::string> analytes;  ///< in the method's order, those present in the file
+  std::vector<PointRow> rows;                ///< in file order
+  std::vector<std::string> analytes;         ///< in the method's order, those present in the file
+  std::vector<std::string> ignored_columns;  ///< headers a mapping left unused
 };
+
+/// The logical columns of a points file.
+const std::set<std::string>& points_file_required_columns();
+const std::set<std::string>& points_file_optional_columns();
 
 /// Reads and checks `path` against `method`: known columns, finite numbers, non-negative
 /// nominals, known analytes, the method's unit, consistent levels, no duplicate
 /// (analyte, level, replicate), internal-standard responses when the method uses one, and
 /// enough distinct levels per analyte to fit the method's model at all.
-PointsFile read_points_file(const std::string& path, const MethodDefinition& method);
+/// With `mapping`, the file's headers are read through it (CsvHeader::read).
+PointsFile read_points_file(const std::string& path, const MethodDefinition& method,
+                            const HeaderMapping* mapping = nullptr);
 PointsFile parse_points_text(const std::string& file_name, const std::string& text,
-                             const MethodDefinition& method);
+                             const MethodDefinition& method,
+                             const HeaderMapping* mapping = nullptr);
 
 }  // namespace cw::import

@@ -75,6 +75,43 @@ const std::vector<CsvListing>& csv_listings() {
         "method_version",
         "instrument",
         "at"}},
+      {"run list",
+       "runs",
+       {"run_id", "file_name", "file_sha256", "method", "method_version", "instrument",
+        "acquired_at", "analyst", "rows", "again_reason", "unit", "summary"}},
+      {"result list",
+       "results",
+       {"result_id",
+        "status",
+        "recorded_status",
+        "rerun.reason",
+        "run_id",
+        "run_position",
+        "sample",
+        "analyte",
+        "curve_id",
+        "response",
+        "is_response",
+        "replicates",
+        "dilution",
+        "concentration",
+        "ci_low",
+        "ci_high",
+        "censored",
+        "reporting_limit",
+        "computed_concentration",
+        "uncertainty.expanded",
+        "uncertainty.k",
+        "unit",
+        "flags",
+        "reasons",
+        "analyst",
+        "at"}},
+      {"check list",
+       "checks",
+       {"check_id", "curve_id", "run_id", "kind", "at", "nominal", "response", "is_response",
+        "measured", "recovery_pct", "limit_low", "limit_high", "passed", "analyst"}},
+      {"trend", "points", {"check_id", "at", "recovery_pct", "z", "passed", "curve_id", "run_id"}},
       {"audit log",
        "entries",
        {"seq", "recorded_at", "occurred_at", "actor", "action", "entity_kind", "entity_id",
@@ -149,20 +186,27 @@ std::string csv_quote(std::string_view text, bool is_number) {
   return out + "\"";
 }
 
-void write_csv(std::ostream& out, const Json& document, const CsvListing& listing) {
-  for (std::size_t i = 0; i < listing.columns.size(); ++i) {
-    out << (i ? "," : "") << csv_quote(listing.columns[i]);
+void CsvWriter::header() {
+  for (std::size_t i = 0; i < listing_.columns.size(); ++i) {
+    out_ << (i ? "," : "") << csv_quote(listing_.columns[i]);
   }
-  out << "\r\n";
+  out_ << "\r\n";
+}
+
+void CsvWriter::row(const Json& row) {
+  for (std::size_t i = 0; i < listing_.columns.size(); ++i) {
+    const Json* v = field(row, listing_.columns[i]);
+    out_ << (i ? "," : "") << (v ? csv_quote(csv_cell(*v), v->is_number()) : std::string());
+  }
+  out_ << "\r\n";
+}
+
+void write_csv(std::ostream& out, const Json& document, const CsvListing& listing) {
+  CsvWriter writer(out, listing);
+  writer.header();
   const Json* rows = field(document, listing.rows);
   if (rows == nullptr || !rows->is_array()) return;
-  for (const auto& row : *rows) {
-    for (std::size_t i = 0; i < listing.columns.size(); ++i) {
-      const Json* v = field(row, listing.columns[i]);
-      out << (i ? "," : "") << (v ? csv_quote(csv_cell(*v), v->is_number()) : std::string());
-    }
-    out << "\r\n";
-  }
+  for (const auto& row : *rows) writer.row(row);
 }
 
 }  // namespace cw::report

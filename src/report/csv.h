@@ -34,7 +34,20 @@ std::string csv_cell(const Json& value);
 /// +, -, @) is prefixed with an apostrophe and quoted (OWASP CSV injection guidance), unless it is
 /// a number.
 std::string csv_quote(std::string_view text, bool is_number = false);
-/// The header and one line per row of `document[listing.rows]`, lines ended with CRLF.
+/// Writes a listing row by row (long listings are never held whole): the header, then one line
+/// per JSON row, each ended with CRLF.
+class CsvWriter {
+ public:
+  CsvWriter(std::ostream& out, const CsvListing& listing) : out_(out), listing_(listing) {}
+  void header();
+  void row(const Json& row);
+
+ private:
+  std::ostream& out_;
+  const CsvListing& listing_;
+};
+
+/// The header and one line per row of `document[listing.rows]`.
 void write_csv(std::ostream& out, const Json& document, const CsvListing& listing);
 
 }  // namespace cw::report

@@ -15,6 +15,8 @@ std::string opt_sig(const std::optional<double>& v, int digits = 4) {
   return v ? format_sig(*v, digits) : "-";
 }
 
+}  // namespace
+
 Json reason_tokens(const std::vector<Finding>& findings) {
   Json list = Json::array();
   for (const auto& f : findings) list.push_back(std::string(to_string(f.reason)));
@@ -24,10 +26,11 @@ Json reason_tokens(const std::vector<Finding>& findings) {
 /// What was released: "< 0.5 mg/L" for a censored result, never its computed number.
 std::string released_text(const Result& r, const std::string& unit) {
   if (r.status == ResultStatus::Refused) return "refused";
+  const std::string with_unit = unit.empty() ? "" : " " + unit;
   if (r.censored && r.reporting_limit)
-    return "< " + format_plain(*r.reporting_limit, 6) + " " + unit;
+    return "< " + format_plain(*r.reporting_limit, 6) + with_unit;
   if (!r.concentration) return "-";
-  return format_sig(*r.concentration, 4) + " " + unit;
+  return format_sig(*r.concentration, 4) + with_unit;
 }
 
 std::string result_value_text(const Result& r, const std::string& unit) {
@@ -36,7 +39,17 @@ std::string result_value_text(const Result& r, const std::string& unit) {
     s += " (95 % CI " + format_sig(*r.ci_low, 4) + " to " + format_sig(*r.ci_high, 4) + ")";
   if (r.censored) s += " [censored]";
   for (const auto& f : r.flags) s += " [" + std::string(to_string(f)) + "]";
+  if (r.current_status() == ResultStatus::RerunRequired) s = "RE-RUN REQUIRED (was " + s + ")";
   return s;
+}
+
+Json status_event_json(const ResultStatusEvent& e) {
+  return Json{{"status", std::string(to_string(e.status))},
+              {"reason", std::string(to_string(e.reason))},
+              {"detail", e.detail},
+              {"check_id", e.check_id ? Json(e.check_id->value) : Json(nullptr)},
+              {"run_id", e.run_id ? Json(e.run_id->value) : Json(nullptr)},
+              {"at", json_instant(e.occurred_at)}};
 }
 
 Json uncertainty_json(const std::optional<ResultUncertainty>& u) {
@@ -50,6 +63,8 @@ Json uncertainty_json(const std::optional<ResultUncertainty>& u) {
               {"expanded", u->expanded},
               {"k", u->k}};
 }
+
+namespace {
 
 std::string uncertainty_text(const ResultUncertainty& u, const std::string& unit) {
   std::string s = "expanded uncertainty ± " + format_sig(u.expanded, 3) + " " + unit +
@@ -89,7 +104,8 @@ Json check_json(const Check& k) {
               {"limit_low", json_number(k.limit_low)},
               {"limit_high", json_number(k.limit_high)},
               {"passed", k.passed},
-              {"analyst", k.analyst}};
+              {"analyst", k.analyst},
+              {"run_id", k.run_id ? Json(k.run_id->value) : Json(nullptr)}};
 }
 
 Json check_outcome_json(const app::CheckOutcome& o) {
@@ -127,7 +143,8 @@ void print_check_outcome(std::ostream& out, const app::CheckOutcome& o, const La
       out << "No results were quantified from this curve since its last passing check.\n";
     } else {
       out << o.affected_results.size()
-          << " result(s) since the last passing check must be re-run:\n";
+          << " result(s) since the last passing check must be re-run (each now "
+             "rerun-required):\n";
       Table t({{"result", Table::Align::Right}, {"sample"}, {"at"}, {"reported"}});
       for (const auto& r : o.affected_results) {
         t.add_row({std::to_string(r.id.value), r.sample, zone.format_local(r.occurred_at),
@@ -140,7 +157,11 @@ void print_check_outcome(std::ostream& out, const app::CheckOutcome& o, const La
 
 Json result_json(const Result& r) {
   return Json{{"result_id", r.id.value},
-              {"status", std::string(to_string(r.status))},
+              {"status", std::string(to_string(r.current_status()))},
+              {"recorded_status", std::string(to_string(r.status))},
+              {"rerun", r.latest_event ? status_event_json(*r.latest_event) : Json(nullptr)},
+              {"run_id", r.run_id ? Json(r.run_id->value) : Json(nullptr)},
+              {"run_position", json_optional(r.run_position)},
               {"sample", r.sample},
               {"analyte", r.analyte},
               {"curve_id", r.curve_id ? Json(r.curve_id->value) : Json(nullptr)},
@@ -356,9 +377,32 @@ Json trace_result_json(const app::ResultTrace& t, const LabZone& zone) {
   for (const auto& l : t.lots) lots.push_back(lot_json(l, zone, t.result.occurred_at));
   j["lots"] = lots;
   Json checks = Json::array();
-  if (t.check_before) checks.push_back(check_json(*t.check_before));
-  if (t.check_after) checks.push_back(check_json(*t.check_after));
+  if (t.check_before) {
+    Json k = check_json(*t.check_before);
+    k["bracket"] = "before";
+    k["position"] = json_optional(t.check_before_position);
+    checks.push_back(k);
+  }
+  if (t.check_after) {
+    Json k = check_json(*t.check_after);
+    k["bracket"] = "after";
+    k["position"] = json_optional(t.check_after_position);
+    checks.push_back(k);
+  }
   j["checks"] = checks;
+  if (t.run) {
+    j["run"] = {{"run_id", t.run->id.value},
+                {"position", json_optional(t.result.run_position)},
+                {"file_name", t.run->file_name},
+                {"file_sha256", t.run->file_sha256},
+                {"acquired_at", json_instant(t.run->acquired_at)},
+                {"analyst", t.run->analyst}};
+  } else {
+    j["run"] = nullptr;
+  }
+  Json history = Json::array();
+  for (const auto& e : t.history) history.push_back(status_event_json(e));
+  j["status_history"] = history;
   if (t.curve) {
     j["state_at_result_time"] = {
         {"state", std::string(to_string(t.curve->status.state))},
@@ -415,17 +459,35 @@ void print_trace_result(std::ostream& out, const app::ResultTrace& t, const LabZ
   }
   out << "Lots:\n";
   print_lots(out, t.lots, zone, r.occurred_at);
+  if (t.run) {
+    out << "Run " << t.run->id.value << " (" << t.run->file_name << ", sha256 "
+        << t.run->file_sha256 << "), position " << t.result.run_position.value_or(0)
+        << ", imported " << zone.format_local(t.run->acquired_at) << " by " << t.run->analyst
+        << "\n";
+  }
   out << "Bracketing checks:\n";
   if (!t.check_before && !t.check_after) out << "  none logged against this curve\n";
+  const auto where = [&](const std::optional<long>& position, const Check& k) {
+    return position ? "at position " + std::to_string(*position) + " of the run"
+                    : "at " + zone.format_local(k.occurred_at);
+  };
   if (t.check_before) {
-    out << "  before: " << to_string(t.check_before->kind) << " " << t.check_before->id.value
-        << " at " << zone.format_local(t.check_before->occurred_at) << " "
+    out << "  before: " << to_string(t.check_before->kind) << " " << t.check_before->id.value << " "
+        << where(t.check_before_position, *t.check_before) << " "
         << (t.check_before->passed ? "passed" : "FAILED") << "\n";
   }
   if (t.check_after) {
-    out << "  after:  " << to_string(t.check_after->kind) << " " << t.check_after->id.value
-        << " at " << zone.format_local(t.check_after->occurred_at) << " "
+    out << "  after:  " << to_string(t.check_after->kind) << " " << t.check_after->id.value << " "
+        << where(t.check_after_position, *t.check_after) << " "
         << (t.check_after->passed ? "passed" : "FAILED") << "\n";
+  } else if (t.check_before) {
+    out << "  after:  none yet (the result is not bracketed by a closing check)\n";
+  }
+  out << "Status history:\n";
+  out << "  " << zone.format_local(r.occurred_at) << "  " << to_string(r.status) << "\n";
+  for (const auto& e : t.history) {
+    out << "  " << zone.format_local(e.occurred_at) << "  " << to_string(e.status) << " ("
+        << to_string(e.reason) << "): " << e.detail << "\n";
   }
 }
 

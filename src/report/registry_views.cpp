@@ -47,11 +47,27 @@ Json instrument_json(const Instrument& i, Instant at) {
                        {"reason", e.reason},
                        {"at", json_instant(e.occurred_at)}});
   }
+  Json columns = nullptr;
+  if (const SavedColumns* c = i.columns_at(at)) {
+    columns = Json::object();
+    for (const auto& [name, header] : c->columns) columns[name] = header;
+  }
+  Json history = Json::array();
+  for (const auto& c : i.columns) {
+    Json mapping = Json::object();
+    for (const auto& [name, header] : c.columns) mapping[name] = header;
+    history.push_back({{"columns", mapping},
+                       {"reason", json_optional(c.reason)},
+                       {"saved_by", c.saved_by},
+                       {"at", json_instant(c.occurred_at)}});
+  }
   return Json{{"code", i.code},
               {"name", json_optional(i.name)},
               {"registered_at", json_instant(i.registered_at)},
               {"in_service", i.in_service_at(at)},
-              {"service", service}};
+              {"service", service},
+              {"columns", columns},
+              {"column_history", history}};
 }
 
 void print_instrument(std::ostream& out, const Instrument& i, const LabZone& zone, Instant at) {
@@ -62,6 +78,10 @@ void print_instrument(std::ostream& out, const Instrument& i, const LabZone& zon
         << e->reason << ")\n";
   } else {
     out << "  status      in service\n";
+  }
+  if (const SavedColumns* c = i.columns_at(at)) {
+    out << "  columns     " << column_mapping_text(c->columns) << " (saved "
+        << zone.format_local(c->occurred_at) << " by " << c->saved_by << ")\n";
   }
   if (!i.service.empty()) {
     out << "  service history:\n";
@@ -120,7 +140,9 @@ Json method_version_json(const Method& m, const MethodVersion& v, bool with_sour
            {"samples_per_check", json_optional(k.samples_per_check)},
            {"check_every", k.check_every ? Json(to_string(*k.check_every)) : Json(nullptr)},
            {"trend_rules", k.trend_rules},
-           {"blank_limit", json_number(k.blank_limit)}}},
+           {"blank_limit", json_number(k.blank_limit)},
+           {"trend_mean", json_number(k.trend_mean)},
+           {"trend_sd", json_number(k.trend_sd)}}},
          {"source_name", v.source_name},
          {"source_sha256", v.source_sha256},
          {"reason", json_optional(v.reason)}};
@@ -188,6 +210,10 @@ void print_method_version(std::ostream& out, const Method& m, const MethodVersio
     std::string rules;
     for (const auto& r : k.trend_rules) rules += (rules.empty() ? "" : ", ") + r;
     out << "  trend rules " << rules << "\n";
+  }
+  if (k.trend_mean && k.trend_sd) {
+    out << "  trend limits mean " << format_plain(*k.trend_mean, 6) << " %, s "
+        << format_plain(*k.trend_sd, 6) << " % (set by the method)\n";
   }
   out << "  file        " << v.source_name << "  sha256 " << v.source_sha256 << "\n";
   if (m.versions.size() > 1) {

@@ -45,4 +45,30 @@ void Table::print(std::ostream& out, int indent) const {
   for (const auto& row : rows_) emit(row);
 }
 
+void StreamTable::header() {
+  std::vector<std::string> cells;
+  for (const auto& c : columns_) cells.push_back(c.header);
+  row(cells);
+}
+
+void StreamTable::row(const std::vector<std::string>& cells) {
+  std::string line(static_cast<std::size_t>(indent_), ' ');
+  for (std::size_t i = 0; i < columns_.size(); ++i) {
+    const std::string cell = i < cells.size() ? cells[i] : "";
+    const std::size_t width = i < widths_.size() ? widths_[i] : 0;
+    const std::size_t w = display_width(cell);
+    const std::size_t pad = w < width ? width - w : 0;
+    const bool last = i + 1 == columns_.size();
+    if (columns_[i].align == Table::Align::Right) {
+      line += std::string(pad, ' ') + cell;
+    } else {
+      line += cell;
+      if (!last) line += std::string(pad, ' ');
+    }
+    if (!last) line += "  ";
+  }
+  while (!line.empty() && line.back() == ' ') line.pop_back();
+  out_ << line << '\n';
+}
+
 }  // namespace cw::report

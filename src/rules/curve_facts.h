@@ -26,6 +26,9 @@ struct CurveFacts {
   const Instrument* instrument = nullptr;  ///< with its service history
   std::vector<const Lot*> lots;            ///< the calibration's lots, with withdrawals
   std::vector<Check> checks;               ///< checks against this curve, in time order
+  /// Checks against every curve of the same method, instrument and analyte, in time order (the
+  /// check standard's trend); loaded when the method's trend_rules can make a curve stale.
+  std::vector<Check> group_checks;
 
   /// The method version the curve was made under.
   const MethodVersion& version() const;

@@ -33,5 +33,6 @@ std::optional<Finding> check_overdue_rule(const RuleInput& in);
 std::optional<Finding> lot_expired_rule(const RuleInput& in);
 std::optional<Finding> lot_withdrawn_rule(const RuleInput& in);
 std::optional<Finding> instrument_serviced_rule(const RuleInput& in);
+std::optional<Finding> trend_violation_rule(const RuleInput& in);
 
 }  // namespace cw::rules

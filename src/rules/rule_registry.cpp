@@ -25,6 +25,8 @@ const std::vector<RuleEntry>& stale_rules() {
       {Reason::LotWithdrawn, lot_withdrawn_rule, "a lot used by the calibration was withdrawn"},
       {Reason::InstrumentServiced, instrument_serviced_rule,
        "the instrument was taken out of service after the curve was acquired"},
+      {Reason::TrendViolation, trend_violation_rule,
+       "a Westgard rule named by the method's trend_rules was violated at a check on the curve"},
   };
   return rules;
 }

@@ -53,6 +53,9 @@ class CurveReader {
   virtual std::vector<Curve> curves(const std::vector<CurveId>& ids, bool with_points) = 0;
   /// Checks of the curves, each curve's in time order.
   virtual std::vector<Check> checks_of(const std::vector<CurveId>& ids) = 0;
+  /// Checks (and blanks) of every curve of a method, instrument and analyte, in time order.
+  virtual std::vector<Check> checks_of_group(MethodId method, InstrumentId instrument,
+                                             const std::string& analyte) = 0;
 
   /// Ids of curves matching `f`, oldest first.
   virtual std::vector<CurveId> list(const CurveFilter& f) = 0;
@@ -87,9 +90,13 @@ class CurveReader {
   virtual std::optional<Result> result(ResultId id) = 0;
   /// Results of the curves, in time order.
   virtual std::vector<Result> results_of(const std::vector<CurveId>& ids) = 0;
-  /// Reported results of a curve in (after, until], in time order.
+  /// Reported results of a curve in (after, until], in time order (as recorded: results a
+  /// status event later made rerun-required included).
   virtual std::vector<Result> reported_between(CurveId id, std::optional<Instant> after,
                                                Instant until) = 0;
+  /// How many results of a curve were recorded as reported in (after, until].
+  virtual std::int64_t count_reported_between(CurveId id, std::optional<Instant> after,
+                                              Instant until) = 0;
 };
 
 /// Appends curve facts; every row joins the unit's current audit entry.

@@ -29,7 +29,7 @@ class RegistryReader {
   /// How many facts other than lab settings the store holds (0 on a freshly initialised store).
   virtual std::int64_t facts_beyond_settings() = 0;
 
-  /// With their service history.
+  /// With their service history and saved column mappings.
   virtual std::optional<Instrument> instrument(std::string_view code) = 0;
   virtual std::vector<Instrument> instruments() = 0;
   virtual std::vector<Instrument> instruments(const std::vector<InstrumentId>& ids) = 0;
@@ -54,6 +54,7 @@ class RegistryWriter {
                                       const std::optional<std::string>& name,
                                       Instant registered_at) = 0;
   virtual void add_service_event(InstrumentId id, const ServiceEvent& e) = 0;
+  virtual void add_saved_columns(InstrumentId id, const SavedColumns& c) = 0;
   virtual MethodId add_method(const std::string& code, Instant registered_at) = 0;
   virtual MethodVersionId add_method_version(MethodId method, const MethodVersion& v) = 0;
   virtual LotId add_lot(const Lot& lot) = 0;

@@ -158,7 +158,35 @@ constexpr Column kResults[] = {{"id", T::Integer},
                                {"computed_concentration", T::Real, true, true},
                                {"uncertainty", T::Json, true, true}};
 
-const std::array<TableForm, 17> kForms = {{
+constexpr Column kInstrumentColumnMaps[] = {{"id", T::Integer},       {"instrument_id", T::Integer},
+                                            {"columns", T::Json},     {"reason", T::Text, true},
+                                            {"saved_by", T::Text},    {"occurred_at", T::Instant},
+                                            {"audit_seq", T::Integer}};
+constexpr Column kRuns[] = {{"id", T::Integer},
+                            {"method_version_id", T::Integer},
+                            {"instrument_id", T::Integer},
+                            {"acquired_at", T::Instant},
+                            {"analyst", T::Text},
+                            {"file_name", T::Text},
+                            {"file_sha256", T::Text},
+                            {"row_count", T::Integer},
+                            {"columns", T::Json},
+                            {"again_reason", T::Text, true},
+                            {"audit_seq", T::Integer}};
+constexpr Column kRunResults[] = {{"id", T::Integer},
+                                  {"run_id", T::Integer},
+                                  {"position", T::Integer},
+                                  {"result_id", T::Integer},
+                                  {"audit_seq", T::Integer}};
+constexpr Column kRunChecks[] = {{"id", T::Integer},       {"run_id", T::Integer},
+                                 {"position", T::Integer}, {"check_id", T::Integer},
+                                 {"label", T::Text, true}, {"audit_seq", T::Integer}};
+constexpr Column kResultStatusEvents[] = {
+    {"id", T::Integer},           {"result_id", T::Integer},   {"status", T::Text},
+    {"reason", T::Text},          {"detail", T::Text},         {"check_id", T::Integer, true},
+    {"run_id", T::Integer, true}, {"occurred_at", T::Instant}, {"audit_seq", T::Integer}};
+
+const std::array<TableForm, 22> kForms = {{
     {FactTable::LabSettings, "lab_settings", kLabSettings},
     {FactTable::Instruments, "instruments", kInstruments},
     {FactTable::InstrumentServiceEvents, "instrument_service_events", kServiceEvents},
@@ -176,6 +204,11 @@ const std::array<TableForm, 17> kForms = {{
     {FactTable::Refusals, "refusals", kRefusals},
     {FactTable::Checks, "checks", kChecks},
     {FactTable::Results, "results", kResults},
+    {FactTable::InstrumentColumnMaps, "instrument_column_maps", kInstrumentColumnMaps},
+    {FactTable::Runs, "runs", kRuns},
+    {FactTable::RunResults, "run_results", kRunResults},
+    {FactTable::RunChecks, "run_checks", kRunChecks},
+    {FactTable::ResultStatusEvents, "result_status_events", kResultStatusEvents},
 }};
 
 }  // namespace

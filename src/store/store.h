@@ -20,6 +20,7 @@
 #include "store/audit_trail.h"
 #include "store/curves.h"
 #include "store/registry.h"
+#include "store/runs.h"
 
 namespace cw::store {
 
@@ -51,6 +52,7 @@ class ReadUnit {
   virtual ~ReadUnit() = default;
   virtual RegistryReader& registry() = 0;
   virtual CurveReader& curves() = 0;
+  virtual RunReader& runs() = 0;
   virtual AuditReader& audit() = 0;
 };
 
@@ -60,6 +62,7 @@ class WriteUnit : public ReadUnit {
  public:
   virtual RegistryWriter& registry_writer() = 0;
   virtual CurveWriter& curve_writer() = 0;
+  virtual RunWriter& run_writer() = 0;
   /// Writes the audit entry holding every row appended since the previous entry.
   virtual void append_entry(const EntryHeader& header) = 0;
   /// Commits; every appended row must belong to an entry.

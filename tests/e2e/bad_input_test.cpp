@@ -54,6 +54,13 @@ const char* const kPoints =
     "sulfate,4,10,0.4996\n"
     "sulfate,5,20,1.0003\n";
 
+/// A run file that imports against the populated store (checks of 5 mg/L nitrate read 100 %).
+const char* const kRun =
+    "position,kind,sample,analyte,response,nominal\n"
+    "1,check,CCV,nitrate,0.5,5\n"
+    "2,sample,W-1,nitrate,0.3,\n"
+    "3,check,CCV,nitrate,0.5,5\n";
+
 /// The points file with line `n` (1 = header) replaced.
 std::string points_with(size_t n, const std::string& line) {
   return with_line(kPoints, n, line);
@@ -65,6 +72,7 @@ std::string points_with(size_t n, const std::string& line) {
 void populate(Sandbox& box) {
   box.write_file("anion.toml", cw::test::method_toml());
   box.write_file("good.csv", kPoints);
+  box.write_file("good-run.csv", kRun);
   for (const auto& args : std::vector<std::vector<std::string>>{
            {"init", "--lab", "Water lab", "--tz", "Europe/Berlin"},
            {"instrument", "add", "IC-02"},
@@ -134,6 +142,18 @@ std::vector<std::string> check(std::vector<std::string> extra) {
 std::vector<std::string> curve_log(const std::string& points) {
   return {"curve", "log",   "--method", "ANION-IC", "--instrument",
           "IC-02", "--lot", "CRM-1",    "--points", points};
+}
+
+/// The run file with line `n` (1 = header) replaced.
+std::string run_with(size_t n, const std::string& line) {
+  return with_line(kRun, n, line);
+}
+
+std::vector<std::string> run_import(const std::string& file, std::vector<std::string> extra = {}) {
+  std::vector<std::string> args = {"run",      "import",       file,   "--method",
+                                   "ANION-IC", "--instrument", "IC-02"};
+  args.insert(args.end(), extra.begin(), extra.end());
+  return args;
 }
 
 std::vector<std::string> withdraw_because(const std::string& reason) {
@@ -688,6 +708,186 @@ std::vector<BadCase> cases() {
        2,
        "needs --reason TEXT",
        "bad-usage"},
+
+      // ------------------------------------------------------------------------- run files
+      file_case("run file: position not a whole number", run_import("pos.csv"),
+                "'position' '2.5' is not a whole number", "pos.csv", 3,
+                file("pos.csv", run_with(3, "2.5,sample,W-1,nitrate,0.3,"))),
+      file_case("run file: positions out of order", run_import("order.csv"),
+                "'position' 1 does not come after position 1 (line 2)", "order.csv", 3,
+                file("order.csv", run_with(3, "1,sample,W-1,nitrate,0.3,"))),
+      file_case("run file: unknown kind", run_import("kind.csv"),
+                "'kind' 'standard' is not a kind of row", "kind.csv", 2,
+                file("kind.csv", run_with(2, "1,standard,CCV,nitrate,0.5,5"))),
+      file_case("run file: empty kind", run_import("nokind.csv"), "'kind' is empty", "nokind.csv",
+                3, file("nokind.csv", run_with(3, "2,,W-1,nitrate,0.3,"))),
+      file_case("run file: unknown analyte with an escape sequence", run_import("ghost.csv"),
+                "contains the control or formatting character U+001B", "ghost.csv", 3,
+                file("ghost.csv", run_with(3, "2,sample,W-1,nit\x1b[2Jrate,0.3,"))),
+      file_case("run file: unknown analyte", run_import("analyte.csv"),
+                "unknown analyte 'chloride' for method 'ANION-IC'", "analyte.csv", 3,
+                file("analyte.csv", run_with(3, "2,sample,W-1,chloride,0.3,"))),
+      file_case("run file: empty sample id", run_import("sample.csv"), "'sample' is empty",
+                "sample.csv", 3, file("sample.csv", run_with(3, "2,sample,,nitrate,0.3,"))),
+      file_case(
+          "run file: sample id over 200 characters", run_import("long.csv"),
+          "'sample' is 201 characters long", "long.csv", 3,
+          file("long.csv", run_with(3, "2,sample," + std::string(201, 's') + ",nitrate,0.3,"))),
+      file_case("run file: hexadecimal response", run_import("hex.csv"),
+                "'response' '0x1A' is not a plain decimal number", "hex.csv", 3,
+                file("hex.csv", run_with(3, "2,sample,W-1,nitrate,0x1A,"))),
+      file_case("run file: overflowing response", run_import("huge.csv"),
+                "'response' '1e999' is out of range", "huge.csv", 3,
+                file("huge.csv", run_with(3, "2,sample,W-1,nitrate,1e999,"))),
+      file_case("run file: nominal on a sample row", run_import("nominal.csv"),
+                "'nominal' is given on a sample row", "nominal.csv", 3,
+                file("nominal.csv", run_with(3, "2,sample,W-1,nitrate,0.3,5"))),
+      file_case("run file: check without a nominal", run_import("nonom.csv"),
+                "a check standard needs its nominal concentration", "nonom.csv", 2,
+                file("nonom.csv", run_with(2, "1,check,CCV,nitrate,0.5,"))),
+      file_case("run file: blank with a nominal", run_import("blank.csv"),
+                "a blank has nominal 0, got 5", "blank.csv", 2,
+                file("blank.csv", run_with(2, "1,blank,CCB,nitrate,0.001,5"))),
+      file_case("run file: zero dilution", run_import("dil.csv"), "'dilution' must be above 0",
+                "dil.csv", 3,
+                file("dil.csv",
+                     "position,kind,sample,analyte,response,dilution,nominal\n"
+                     "1,check,CCV,nitrate,0.5,,5\n2,sample,W-1,nitrate,0.3,0,\n")),
+      file_case("run file: dilution on a check", run_import("dilcheck.csv"),
+                "'dilution' is given on a check row", "dilcheck.csv", 2,
+                file("dilcheck.csv",
+                     "position,kind,sample,analyte,response,dilution,nominal\n"
+                     "1,check,CCV,nitrate,0.5,2,5\n")),
+      file_case("run file: internal-standard response without an internal standard",
+                run_import("is.csv"), "has no internal standard; 'is_response' does not apply",
+                "is.csv", 2,
+                file("is.csv",
+                     "position,kind,sample,analyte,response,is_response\n"
+                     "1,sample,W-1,nitrate,0.3,2\n")),
+      file_case("run file: not UTF-8", run_import("latin1.csv"), "is not UTF-8 text", "latin1.csv",
+                3, file("latin1.csv", run_with(3, "2,sample,W-\xe4,nitrate,0.3,"))),
+      file_case("run file: a named pipe", run_import("pipe.csv"),
+                "run file 'pipe.csv': is a named pipe (FIFO)", "pipe.csv", std::nullopt,
+                fifo("pipe.csv"), 1.0),
+      file_case(
+          "run file: a directory", run_import("folder"), "is a directory", "folder", std::nullopt,
+          [](Sandbox& box) { std::filesystem::create_directory(box.path("folder")); }, 1.0),
+      file_case("run file: missing", run_import("nowhere.csv"),
+                "run file 'nowhere.csv': no such file", "nowhere.csv", std::nullopt, nullptr),
+      file_case("run file: empty", run_import("empty.csv"), "'empty.csv' is empty", "empty.csv", 1,
+                file("empty.csv", "")),
+      file_case("run file: a header without rows", run_import("header.csv"),
+                "has a header but no rows", "header.csv", 2,
+                file("header.csv", "position,kind,sample,analyte,response,nominal\n")),
+      file_case("run file: unknown column", run_import("unknown.csv"), "unknown column 'Area'",
+                "unknown.csv", 1,
+                file("unknown.csv", run_with(1, "position,kind,sample,analyte,Area,nominal"))),
+      file_case(
+          "run file: missing column", run_import("missing.csv"), "missing column 'response'",
+          "missing.csv", 1,
+          file("missing.csv", "position,kind,sample,analyte,nominal\n1,check,CCV,nitrate,5\n")),
+      file_case("run file: unterminated quote", run_import("quote.csv"),
+                "a quoted field starting on this line is never closed", "quote.csv", 3,
+                file("quote.csv", run_with(3, "2,sample,\"W-1,nitrate,0.3,"))),
+      file_case("run file: a row with too few fields", run_import("short.csv"),
+                "has 3 fields, the header has 6", "short.csv", 3,
+                file("short.csv", run_with(3, "2,sample,W-1"))),
+      file_case("run file: a recovery that overflows, found while deciding (rolled back)",
+                run_import("overflow.csv"),
+                "the recovery from 'response' and 'nominal' is not a finite number", "overflow.csv",
+                4, file("overflow.csv", run_with(4, "3,check,CCV,nitrate,0.5,1e-307"))),
+      file_case("run file: a concentration that overflows with its dilution (rolled back)",
+                run_import("product.csv"), "is not a finite number (it overflows)", "product.csv",
+                3,
+                file("product.csv",
+                     "position,kind,sample,analyte,response,dilution,nominal\n"
+                     "1,check,CCV,nitrate,0.5,,5\n2,sample,W-1,nitrate,0.3,1e308,\n"
+                     "3,check,CCV,nitrate,0.5,,5\n")),
+      file_case("--columns: a mapped header missing from the file",
+                run_import("mapped.csv", {"--columns", "response=Area"}),
+                "no column 'Area' (--columns maps it to 'response')", "mapped.csv", 1,
+                file("mapped.csv", run_with(1, "position,kind,sample,analyte,Signal,nominal"))),
+      option_case("--columns: an unknown column name",
+                  run_import("good-run.csv", {"--columns", "level=Lvl"}),
+                  "--columns names the unknown column 'level'", "--columns"),
+      option_case("--columns: an entry without '='",
+                  run_import("good-run.csv", {"--columns", "position"}),
+                  "--columns entry 'position' has no '='", "--columns"),
+      option_case("--columns: empty", run_import("good-run.csv", {"--columns", ""}),
+                  "--columns is empty", "--columns"),
+      option_case("--columns: a header with a control character",
+                  run_import("good-run.csv", {"--columns",
+                                              "response=Ar\x07"
+                                              "ea"}),
+                  "contains the control or formatting character U+0007", "--columns"),
+      option_case("--columns: one header for two columns",
+                  run_import("good-run.csv", {"--columns", "response=Area,nominal=AREA"}),
+                  "--columns maps the header 'AREA' to two columns", "--columns"),
+      {"--again without --reason", run_import("good-run.csv", {"--again"}), 2,
+       "--again needs --reason TEXT", "bad-usage"},
+      {"--reason without --again", run_import("good-run.csv", {"--reason", "why"}), 2,
+       "--reason goes with --again", "bad-usage"},
+      {"--again on a file never imported",
+       run_import("good-run.csv", {"--again", "--reason", "again"}), 2, "was never imported",
+       "bad-usage"},
+      {"run import with an unknown instrument",
+       {"run", "import", "good-run.csv", "--method", "ANION-IC", "--instrument", "IC-99"},
+       2,
+       "no instrument 'IC-99'",
+       "not-found"},
+      option_case("run import dated a year ahead",
+                  run_import("good-run.csv", {"--at", "2027-03-02T09:00:00Z"}),
+                  "lies more than 5 minutes after now", "--at"),
+
+      // --------------------------------------------------------------------- listings, trend
+      option_case("run show of id 0", {"run", "show", "0"}, "id '0' is out of range", "id"),
+      {"run show of an unknown run", {"run", "show", "99"}, 2, "no run 99", "not-found"},
+      option_case("result list with an unknown status", {"result", "list", "--status", "valid"},
+                  "--status 'valid' is not a result status", "--status", "bad-usage"),
+      option_case("result list since a time without a zone",
+                  {"result", "list", "--since", "2026-03-01 10:00"}, "--since", "--since"),
+      option_case("result list of run 0", {"result", "list", "--run", "0"},
+                  "--run '0' is out of range", "--run"),
+      {"result list of an unknown run",
+       {"result", "list", "--run", "7"},
+       2,
+       "no run 7",
+       "not-found"},
+      option_case("result show of a text id", {"result", "show", "last"},
+                  "id 'last' is not a whole number", "id"),
+      option_case("check list of a curve that is text", {"check", "list", "--curve", "x"},
+                  "--curve 'x' is not a whole number", "--curve"),
+      option_case("trend with --last 0",
+                  {"trend", "--method", "ANION-IC", "--instrument", "IC-02", "--analyte", "nitrate",
+                   "--last", "0"},
+                  "--last '0' is out of range", "--last"),
+      {"trend of an unknown analyte",
+       {"trend", "--method", "ANION-IC", "--instrument", "IC-02", "--analyte", "chloride"},
+       2,
+       "method 'ANION-IC' has no analyte 'chloride'",
+       "bad-input"},
+      {"trend of an unknown method",
+       {"trend", "--method", "NOPE", "--instrument", "IC-02", "--analyte", "nitrate"},
+       2,
+       "no method 'NOPE'",
+       "not-found"},
+      {"instrument columns with --set and --clear",
+       {"instrument", "columns", "IC-02", "--set", "response=Area", "--clear"},
+       2,
+       "give --set or --clear, not both",
+       "bad-usage"},
+      option_case("instrument columns with an unknown name",
+                  {"instrument", "columns", "IC-02", "--set", "colour=Farbe"},
+                  "--set names the unknown column 'colour'", "--set"),
+      {"instrument columns --clear with nothing saved",
+       {"instrument", "columns", "IC-02", "--clear"},
+       2,
+       "instrument 'IC-02' has no saved columns to clear",
+       "bad-input"},
+      option_case("curve log --columns with a run-file column",
+                  {"curve", "log", "--method", "ANION-IC", "--instrument", "IC-02", "--lot",
+                   "CRM-1", "--points", "good.csv", "--columns", "position=Seq"},
+                  "--columns names the unknown column 'position'", "--columns"),
 
       // ------------------------------------------------------------------------------ stores
       option_case("empty --db", {"--db", "", "instrument", "list"}, "--db is empty", "--db",

@@ -123,6 +123,14 @@ TEST_CASE("e2e csv: every listing's CSV reads back as its JSON rows", "[e2e]") {
                "Probe \"7\", Brunnen Ä"});
   run_ok(box, {"quantify", "--curve", "1", "--response", "0.0001", "--sample", "-12"});
   run_ok(box, {"check", "log", "--curve", "1", "--nominal", "10", "--response", "1.0"});
+  box.now = "2026-03-02T11:00:00Z";
+  box.write_file("run.csv",
+                 "position,kind,sample,analyte,response,nominal\n"
+                 "1,check,CS \"open\",nitrate,1.002,10\n"
+                 "2,sample,\"Well 4, deep\",nitrate,0.3127,\n"
+                 "3,sample,=1+1,nitrate,0.0001,\n"
+                 "4,check,,nitrate,0.998,10\n");
+  run_ok(box, {"run", "import", "run.csv", "--method", "ANION-IC", "--instrument", "IC-02"});
 
   const std::map<std::string, std::vector<std::string>> args{
       {"instrument list", {"instrument", "list"}},
@@ -133,6 +141,10 @@ TEST_CASE("e2e csv: every listing's CSV reads back as its JSON rows", "[e2e]") {
       {"status", {"status"}},
       {"trace curve", {"trace", "curve", "1"}},
       {"trace lot", {"trace", "lot", "CRM-1"}},
+      {"run list", {"run", "list"}},
+      {"result list", {"result", "list"}},
+      {"check list", {"check", "list"}},
+      {"trend", {"trend", "--method", "ANION-IC", "--instrument", "IC-02", "--analyte", "nitrate"}},
       {"audit log", {"audit", "log"}},
   };
   REQUIRE(args.size() == cw::report::csv_listings().size());

@@ -24,9 +24,18 @@ std::string MethodSpec::toml() const {
   t += std::string("review_required = ") + (review_required ? "true" : "false") + "\n";
   if (limits) t += "limits = \"" + *limits + "\"\n";
   if (report_limit) t += "report_limit = \"" + *report_limit + "\"\n";
-  t += "\n[check]\ntolerance_pct = " + tolerance_pct + "\nsamples_per_check = 10\n";
+  t += "\n[check]\ntolerance_pct = " + tolerance_pct + "\n";
+  if (samples_per_check) t += "samples_per_check = " + *samples_per_check + "\n";
   if (check_every) t += "check_every = \"" + *check_every + "\"\n";
   if (blank_limit) t += "blank_limit = " + *blank_limit + "\n";
+  if (!trend_rules.empty()) {
+    t += "trend_rules = [";
+    for (std::size_t i = 0; i < trend_rules.size(); ++i)
+      t += (i ? ", " : "") + std::string("\"") + trend_rules[i] + "\"";
+    t += "]\n";
+  }
+  if (trend_mean) t += "trend_mean = " + *trend_mean + "\n";
+  if (trend_sd) t += "trend_sd = " + *trend_sd + "\n";
   if (dilution_pct) t += "\n[uncertainty]\ndilution_pct = " + *dilution_pct + "\n";
   return t;
 }

@@ -47,6 +47,10 @@ struct MethodSpec {
   std::optional<std::string> limits;        ///< [calibration] limits: ich-q2 | din-32645
   std::optional<std::string> report_limit;  ///< [calibration] report_limit
   std::optional<std::string> dilution_pct;  ///< [uncertainty] dilution_pct
+  std::optional<std::string> samples_per_check = "10";
+  std::vector<std::string> trend_rules;   ///< e.g. {"2-2s", "1-3s"}
+  std::optional<std::string> trend_mean;  ///< with trend_sd: established control limits
+  std::optional<std::string> trend_sd;
 
   std::string toml() const;
 };

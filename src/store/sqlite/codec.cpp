@@ -73,6 +73,10 @@ json method_definition_to_json(const MethodDefinition& d) {
       {"trend_rules", d.check.trend_rules},
       {"blank_limit", optional_to_json(d.check.blank_limit)},
   };
+  // Added with trending targets; definitions stored before them do not have the keys (and are
+  // never rewritten: the stored text is what their audit entries hash).
+  if (d.check.trend_mean) k["trend_mean"] = *d.check.trend_mean;
+  if (d.check.trend_sd) k["trend_sd"] = *d.check.trend_sd;
   return {
       {"code", d.code},
       {"title", d.title},
@@ -124,6 +128,8 @@ MethodDefinition method_definition_from_json(const json& j) {
   }
   d.check.trend_rules = k.at("trend_rules").get<std::vector<std::string>>();
   d.check.blank_limit = optional_from<double>(k, "blank_limit");
+  d.check.trend_mean = optional_from<double>(k, "trend_mean");
+  d.check.trend_sd = optional_from<double>(k, "trend_sd");
   return d;
 }
 
@@ -333,6 +339,23 @@ nlohmann::json parse_stored_json(const std::string& text, const std::string& whe
   } catch (const nlohmann::json::exception&) {
     damaged(path, where + " holds text that is not JSON");
   }
+}
+
+nlohmann::json column_mapping_to_json(const ColumnMapping& m) {
+  nlohmann::json j = nlohmann::json::object();
+  for (const auto& [name, header] : m) j[name] = header;
+  return j;
+}
+
+ColumnMapping column_mapping_from_json(const nlohmann::json& j, const std::string& where,
+                                       const std::string& path) {
+  if (!j.is_object()) damaged(path, where + " is not a JSON object");
+  ColumnMapping m;
+  for (const auto& [name, header] : j.items()) {
+    if (!header.is_string()) damaged(path, where + " maps '" + name + "' to something not text");
+    m.emplace_back(name, header.get<std::string>());
+  }
+  return m;
 }
 
 void throw_unknown_token(const std::string& text, const std::string& where,

@@ -7,6 +7,7 @@
 #include <nlohmann/json.hpp>
 
 #include "domain/method.h"
+#include "domain/run.h"
 #include "fitting/acceptance.h"
 #include "fitting/fit.h"
 
@@ -26,6 +27,12 @@ fitting::FitResult fit_from_json(const nlohmann::json& j);
 
 nlohmann::json acceptance_to_json(const fitting::Acceptance& a);
 fitting::Acceptance acceptance_from_json(const nlohmann::json& j);
+
+/// A column mapping as a JSON object {name: header}; read back, anything else is a damaged
+/// store (StoreError naming `where`).
+nlohmann::json column_mapping_to_json(const ColumnMapping& m);
+ColumnMapping column_mapping_from_json(const nlohmann::json& j, const std::string& where,
+                                       const std::string& path);
 
 [[noreturn]] void throw_unknown_token(const std::string& text, const std::string& where,
                                       const std::string& path);

@@ -26,36 +26,53 @@ std::vector<CurveId> curve_ids(SQLite::Statement& s) {
 
 }  // namespace
 
-WriteState& SqliteCurves::writing() {
-  if (w_ == nullptr) throw std::logic_error("a fact was appended through a read unit");
-  return *w_;
-}
-
-Check SqliteCurves::check_of(SQLite::Statement& s) {
+Check read_check(SQLite::Statement& s, int first, bool with_run, const std::string& path) {
+  const auto col = [&](int i) { return s.getColumn(first + i); };
   Check k;
-  k.id = CheckId{s.getColumn(0).getInt64()};
-  k.curve_id = CurveId{s.getColumn(1).getInt64()};
-  k.kind = stored_enum(parse_check_kind, s.getColumn(2).getString(), "checks.kind", db_.path);
-  k.nominal = s.getColumn(3).getDouble();
-  k.response = s.getColumn(4).getDouble();
-  k.is_response = opt_real(s.getColumn(5));
-  k.measured = opt_real(s.getColumn(6));
-  k.recovery_pct = opt_real(s.getColumn(7));
-  k.limit_low = opt_real(s.getColumn(8));
-  k.limit_high = opt_real(s.getColumn(9));
-  k.passed = s.getColumn(10).getInt64() != 0;
-  k.analyst = s.getColumn(11).getString();
-  k.occurred_at = stored_instant(s.getColumn(12).getString(), "checks.occurred_at", db_.path);
+  k.id = CheckId{col(0).getInt64()};
+  k.curve_id = CurveId{col(1).getInt64()};
+  k.kind = stored_enum(parse_check_kind, col(2).getString(), "checks.kind", path);
+  k.nominal = col(3).getDouble();
+  k.response = col(4).getDouble();
+  k.is_response = opt_real(col(5));
+  k.measured = opt_real(col(6));
+  k.recovery_pct = opt_real(col(7));
+  k.limit_low = opt_real(col(8));
+  k.limit_high = opt_real(col(9));
+  k.passed = col(10).getInt64() != 0;
+  k.analyst = col(11).getString();
+  k.occurred_at = stored_instant(col(12).getString(), "checks.occurred_at", path);
+  if (with_run) {
+    if (auto run = opt_int(col(13))) k.run_id = RunId{*run};
+  }
   return k;
 }
 
-Result SqliteCurves::result_of(SQLite::Statement& s) {
+ResultStatusEvent read_status_event(SQLite::Statement& s, int first, const std::string& path) {
+  const auto col = [&](int i) { return s.getColumn(first + i); };
+  ResultStatusEvent e;
+  e.id = StatusEventId{col(0).getInt64()};
+  e.result_id = ResultId{col(1).getInt64()};
+  e.status =
+      stored_enum(parse_result_status, col(2).getString(), "result_status_events.status", path);
+  e.reason =
+      stored_enum(parse_rerun_reason, col(3).getString(), "result_status_events.reason", path);
+  e.detail = col(4).getString();
+  if (auto v = opt_int(col(5))) e.check_id = CheckId{*v};
+  if (auto v = opt_int(col(6))) e.run_id = RunId{*v};
+  e.occurred_at = stored_instant(col(7).getString(), "result_status_events.occurred_at", path);
+  return e;
+}
+
+Result read_result(SQLite::Statement& s, const std::string& path) {
   Result r;
   r.id = ResultId{s.getColumn(0).getInt64()};
   r.sample = s.getColumn(1).getString();
   r.analyte = s.getColumn(2).getString();
-  r.status =
-      stored_enum(parse_result_status, s.getColumn(3).getString(), "results.status", db_.path);
+  r.status = stored_enum(parse_result_status, s.getColumn(3).getString(), "results.status", path);
+  if (r.status == ResultStatus::RerunRequired) {
+    throw_unknown_token(s.getColumn(3).getString(), "results.status", path);
+  }
   if (auto v = opt_int(s.getColumn(4))) r.curve_id = CurveId{*v};
   if (auto v = opt_int(s.getColumn(5))) r.method_id = MethodId{*v};
   if (auto v = opt_int(s.getColumn(6))) r.instrument_id = InstrumentId{*v};
@@ -68,44 +85,43 @@ Result SqliteCurves::result_of(SQLite::Statement& s) {
   r.concentration = opt_real(s.getColumn(13));
   r.ci_low = opt_real(s.getColumn(14));
   r.ci_high = opt_real(s.getColumn(15));
-  r.flags =
-      stored_enum_list(parse_result_flag, s.getColumn(16).getString(), "results.flags", db_.path);
+  r.flags = stored_enum_list(parse_result_flag, s.getColumn(16).getString(), "results.flags", path);
   // The reasons list and the detailed findings hold the same reasons; the findings carry their
   // facts and are what is read back.
   const json details =
-      parse_stored_json(s.getColumn(18).getString(), "results.reason_details", db_.path);
-  if (!details.is_array()) damaged(db_.path, "results.reason_details is not a list");
+      parse_stored_json(s.getColumn(18).getString(), "results.reason_details", path);
+  if (!details.is_array()) damaged(path, "results.reason_details is not a list");
   for (const auto& d : details) {
     if (!d.is_object() || !d.contains("reason") || !d["reason"].is_string() ||
         !d.contains("message") || !d["message"].is_string() || !d.contains("since")) {
-      damaged(db_.path, "results.reason_details of result " + std::to_string(r.id.value) +
-                            " is not a list of findings");
+      damaged(path, "results.reason_details of result " + std::to_string(r.id.value) +
+                        " is not a list of findings");
     }
-    Finding f{stored_enum(parse_reason, d["reason"].get<std::string>(), "results.reason_details",
-                          db_.path),
-              std::nullopt, d["message"].get<std::string>()};
+    Finding f{
+        stored_enum(parse_reason, d["reason"].get<std::string>(), "results.reason_details", path),
+        std::nullopt, d["message"].get<std::string>()};
     if (!d["since"].is_null()) {
-      if (!d["since"].is_string()) damaged(db_.path, "results.reason_details has a bad time");
-      f.since = stored_instant(d["since"].get<std::string>(), "results.reason_details", db_.path);
+      if (!d["since"].is_string()) damaged(path, "results.reason_details has a bad time");
+      f.since = stored_instant(d["since"].get<std::string>(), "results.reason_details", path);
     }
     r.reasons.push_back(std::move(f));
   }
   const auto tokens =
-      stored_enum_list(parse_reason, s.getColumn(17).getString(), "results.reasons", db_.path);
+      stored_enum_list(parse_reason, s.getColumn(17).getString(), "results.reasons", path);
   if (tokens.size() != r.reasons.size()) {
-    damaged(db_.path, "results.reasons and reason_details of result " + std::to_string(r.id.value) +
-                          " disagree");
+    damaged(path, "results.reasons and reason_details of result " + std::to_string(r.id.value) +
+                      " disagree");
   }
   r.analyst = s.getColumn(19).getString();
-  r.occurred_at = stored_instant(s.getColumn(20).getString(), "results.occurred_at", db_.path);
+  r.occurred_at = stored_instant(s.getColumn(20).getString(), "results.occurred_at", path);
   if (auto censored = opt_text(s.getColumn(21))) {
-    if (*censored != "<") damaged(db_.path, "results.censored holds '" + *censored + "'");
+    if (*censored != "<") damaged(path, "results.censored holds '" + *censored + "'");
     r.censored = true;
   }
   r.reporting_limit = opt_real(s.getColumn(22));
   r.computed_concentration = opt_real(s.getColumn(23));
   if (auto text = opt_text(s.getColumn(24))) {
-    const json u = parse_stored_json(*text, "results.uncertainty", db_.path);
+    const json u = parse_stored_json(*text, "results.uncertainty", path);
     try {
       ResultUncertainty budget;
       for (const auto& c : u.at("components")) {
@@ -117,11 +133,37 @@ Result SqliteCurves::result_of(SQLite::Statement& s) {
       budget.k = u.at("k").get<double>();
       r.uncertainty = std::move(budget);
     } catch (const json::exception&) {
-      damaged(db_.path, "results.uncertainty of result " + std::to_string(r.id.value) +
-                            " is not an uncertainty budget");
+      damaged(path, "results.uncertainty of result " + std::to_string(r.id.value) +
+                        " is not an uncertainty budget");
     }
   }
+  if (auto run = opt_int(s.getColumn(25))) {
+    r.run_id = RunId{*run};
+    r.run_position = static_cast<long>(s.getColumn(26).getInt64());
+  }
+  if (!s.getColumn(27).isNull()) {
+    // The latest status event: id, status, reason, detail, check_id, run_id, occurred_at (the
+    // result id is this result's).
+    ResultStatusEvent e;
+    e.id = StatusEventId{s.getColumn(27).getInt64()};
+    e.result_id = r.id;
+    e.status = stored_enum(parse_result_status, s.getColumn(28).getString(),
+                           "result_status_events.status", path);
+    e.reason = stored_enum(parse_rerun_reason, s.getColumn(29).getString(),
+                           "result_status_events.reason", path);
+    e.detail = s.getColumn(30).getString();
+    if (auto v = opt_int(s.getColumn(31))) e.check_id = CheckId{*v};
+    if (auto v = opt_int(s.getColumn(32))) e.run_id = RunId{*v};
+    e.occurred_at =
+        stored_instant(s.getColumn(33).getString(), "result_status_events.occurred_at", path);
+    r.latest_event = std::move(e);
+  }
   return r;
+}
+
+WriteState& SqliteCurves::writing() {
+  if (w_ == nullptr) throw std::logic_error("a fact was appended through a read unit");
+  return *w_;
 }
 
 std::optional<Calibration> SqliteCurves::calibration(CalibrationId id) {
@@ -245,6 +287,20 @@ std::vector<Curve> SqliteCurves::curves(const std::vector<CurveId>& ids, bool wi
           {s.getColumn(1).getString(), s.getColumn(2).getString(),
            stored_instant(s.getColumn(3).getString(), "curve_retirements.occurred_at", db_.path)});
     }
+    s.reset();
+    return out;
+  });
+}
+
+std::vector<Check> SqliteCurves::checks_of_group(MethodId method, InstrumentId instrument,
+                                                 const std::string& analyte) {
+  return guarded(db_, [&] {
+    auto& s = db_.statement(sql::kChecksOfGroup);
+    bind_int(s, ":method", method.value);
+    bind_int(s, ":instrument", instrument.value);
+    bind_text(s, ":analyte", analyte);
+    std::vector<Check> out;
+    while (s.executeStep()) out.push_back(check_of(s));
     s.reset();
     return out;
   });
@@ -442,6 +498,24 @@ std::vector<Result> SqliteCurves::reported_between(CurveId id, std::optional<Ins
   });
 }
 
+std::int64_t SqliteCurves::count_reported_between(CurveId id, std::optional<Instant> after,
+                                                  Instant until) {
+  return guarded(db_, [&] {
+    auto& s = db_.statement(sql::kCountReportedBetween);
+    bind_int(s, ":id", id.value);
+    if (after) {
+      bind_instant(s, ":after", *after);
+    } else {
+      bind_text(s, ":after", "");  // every stored time sorts after the empty text
+    }
+    bind_instant(s, ":until", until);
+    s.executeStep();
+    const std::int64_t n = s.getColumn(0).getInt64();
+    s.reset();
+    return n;
+  });
+}
+
 CalibrationId SqliteCurves::add_calibration(const Calibration& c) {
   WriteState& w = writing();
   return guarded(db_, [&] {
@@ -584,6 +658,9 @@ CheckId SqliteCurves::add_check(const Check& k) {
 
 ResultId SqliteCurves::add_result(const Result& r) {
   WriteState& w = writing();
+  if (r.status == ResultStatus::RerunRequired) {
+    throw std::logic_error("a result is recorded reported or refused; rerun-required is an event");
+  }
   return guarded(db_, [&] {
     auto& s = db_.statement(sql::kInsertResult);
     bind_text(s, ":sample", r.sample);

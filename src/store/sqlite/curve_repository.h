@@ -10,6 +10,17 @@
 
 namespace cw::store::sqlite {
 
+/// A check from the columns of `s` starting at `first`: id, curve_id, kind, nominal, response,
+/// is_response, measured, recovery_pct, limit_low, limit_high, passed, analyst, occurred_at
+/// (and run_id after them with `with_run`).
+Check read_check(SQLite::Statement& s, int first, bool with_run, const std::string& path);
+/// A result from the columns of the result statements of sql.h (membership and latest status
+/// event included).
+Result read_result(SQLite::Statement& s, const std::string& path);
+/// A status event from id, result_id, status, reason, detail, check_id, run_id, occurred_at
+/// starting at column `first`.
+ResultStatusEvent read_status_event(SQLite::Statement& s, int first, const std::string& path);
+
 class SqliteCurves final : public CurveReader, public CurveWriter {
  public:
   /// `w` and `actor` are those of a write unit, nullptr in a read unit.
@@ -19,6 +30,8 @@ class SqliteCurves final : public CurveReader, public CurveWriter {
   std::vector<Calibration> calibrations(const std::vector<CalibrationId>& ids) override;
   std::vector<Curve> curves(const std::vector<CurveId>& ids, bool with_points) override;
   std::vector<Check> checks_of(const std::vector<CurveId>& ids) override;
+  std::vector<Check> checks_of_group(MethodId method, InstrumentId instrument,
+                                     const std::string& analyte) override;
   std::vector<CurveId> list(const CurveFilter& f) override;
   std::vector<CurveId> of_calibration(CalibrationId id) override;
   std::vector<CurveId> live_in_group(MethodId method, InstrumentId instrument,
@@ -39,6 +52,8 @@ class SqliteCurves final : public CurveReader, public CurveWriter {
   std::vector<Result> results_of(const std::vector<CurveId>& ids) override;
   std::vector<Result> reported_between(CurveId id, std::optional<Instant> after,
                                        Instant until) override;
+  std::int64_t count_reported_between(CurveId id, std::optional<Instant> after,
+                                      Instant until) override;
 
   CalibrationId add_calibration(const Calibration& c) override;
   CurveId add_curve(const Curve& c) override;
@@ -50,8 +65,8 @@ class SqliteCurves final : public CurveReader, public CurveWriter {
 
  private:
   WriteState& writing();
-  Check check_of(SQLite::Statement& s);
-  Result result_of(SQLite::Statement& s);
+  Check check_of(SQLite::Statement& s) { return read_check(s, 0, true, db_.path); }
+  Result result_of(SQLite::Statement& s) { return read_result(s, db_.path); }
 
   Database& db_;
   WriteState* w_;

@@ -103,6 +103,20 @@ std::vector<Instrument> SqliteRegistry::complete(std::vector<Instrument> list) {
     by_id.at(InstrumentId{s.getColumn(0).getInt64()})->service.push_back(std::move(e));
   }
   s.reset();
+  auto& c = db_.statement(sql::kColumnMapsOf);
+  bind_ids(c, ":ids", ids_of(list));
+  while (c.executeStep()) {
+    SavedColumns saved;
+    saved.columns = column_mapping_from_json(
+        parse_stored_json(c.getColumn(1).getString(), "instrument_column_maps.columns", db_.path),
+        "instrument_column_maps.columns", db_.path);
+    saved.reason = opt_text(c.getColumn(2));
+    saved.saved_by = c.getColumn(3).getString();
+    saved.occurred_at =
+        stored_instant(c.getColumn(4).getString(), "instrument_column_maps.occurred_at", db_.path);
+    by_id.at(InstrumentId{c.getColumn(0).getInt64()})->columns.push_back(std::move(saved));
+  }
+  c.reset();
   return list;
 }
 
@@ -279,6 +293,21 @@ void SqliteRegistry::add_service_event(InstrumentId id, const ServiceEvent& e) {
     bind_int(s, ":seq", w.seq);
     s.exec();
     w.add_row(FactTable::InstrumentServiceEvents, db_.db->getLastInsertRowid());
+  });
+}
+
+void SqliteRegistry::add_saved_columns(InstrumentId id, const SavedColumns& c) {
+  WriteState& w = writing();
+  guarded(db_, [&] {
+    auto& s = db_.statement(sql::kInsertColumnMap);
+    bind_int(s, ":instrument", id.value);
+    bind_text(s, ":columns", column_mapping_to_json(c.columns).dump());
+    bind_opt_text(s, ":reason", c.reason);
+    bind_text(s, ":by", c.saved_by);
+    bind_instant(s, ":at", c.occurred_at);
+    bind_int(s, ":seq", w.seq);
+    s.exec();
+    w.add_row(FactTable::InstrumentColumnMaps, db_.db->getLastInsertRowid());
   });
 }
 

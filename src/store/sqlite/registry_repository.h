@@ -29,6 +29,7 @@ class SqliteRegistry final : public RegistryReader, public RegistryWriter {
   InstrumentId add_instrument(const std::string& code, const std::optional<std::string>& name,
                               Instant registered_at) override;
   void add_service_event(InstrumentId id, const ServiceEvent& e) override;
+  void add_saved_columns(InstrumentId id, const SavedColumns& c) override;
   MethodId add_method(const std::string& code, Instant registered_at) override;
   MethodVersionId add_method_version(MethodId method, const MethodVersion& v) override;
   LotId add_lot(const Lot& lot) override;

@@ -175,16 +175,33 @@ inline constexpr const char* kInsertRetirement =
 
 // ---- checks, results, refusals
 inline constexpr const char* kChecksOf =
-    "SELECT id, curve_id, kind, nominal, response, is_response, measured, recovery_pct, "
-    "limit_low, limit_high, passed, analyst, occurred_at FROM checks "
-    "WHERE curve_id IN (SELECT value FROM json_each(:ids)) ORDER BY curve_id, occurred_at, id";
+    "SELECT k.id, k.curve_id, k.kind, k.nominal, k.response, k.is_response, k.measured, "
+    "k.recovery_pct, k.limit_low, k.limit_high, k.passed, k.analyst, k.occurred_at, m.run_id "
+    "FROM checks k LEFT JOIN run_checks m ON m.check_id = k.id "
+    "WHERE k.curve_id IN (SELECT value FROM json_each(:ids)) "
+    "ORDER BY k.curve_id, k.occurred_at, k.id";
 inline constexpr const char* kCheckById =
-    "SELECT id, curve_id, kind, nominal, response, is_response, measured, recovery_pct, "
-    "limit_low, limit_high, passed, analyst, occurred_at FROM checks WHERE id = :id";
+    "SELECT k.id, k.curve_id, k.kind, k.nominal, k.response, k.is_response, k.measured, "
+    "k.recovery_pct, k.limit_low, k.limit_high, k.passed, k.analyst, k.occurred_at, m.run_id "
+    "FROM checks k LEFT JOIN run_checks m ON m.check_id = k.id WHERE k.id = :id";
+inline constexpr const char* kChecksOfGroup =
+    "SELECT k.id, k.curve_id, k.kind, k.nominal, k.response, k.is_response, k.measured, "
+    "k.recovery_pct, k.limit_low, k.limit_high, k.passed, k.analyst, k.occurred_at, m.run_id "
+    "FROM curves c JOIN checks k ON k.curve_id = c.id "
+    "LEFT JOIN run_checks m ON m.check_id = k.id "
+    "WHERE c.method_id = :method AND c.instrument_id = :instrument AND c.analyte = :analyte "
+    "ORDER BY k.occurred_at, k.id";
+inline constexpr const char* kChecksFiltered =
+    "SELECT k.id, k.curve_id, k.kind, k.nominal, k.response, k.is_response, k.measured, "
+    "k.recovery_pct, k.limit_low, k.limit_high, k.passed, k.analyst, k.occurred_at, m.run_id "
+    "FROM checks k LEFT JOIN run_checks m ON m.check_id = k.id "
+    "WHERE (:curve IS NULL OR k.curve_id = :curve) AND (:since IS NULL OR k.occurred_at >= :since) "
+    "AND k.occurred_at <= :until ORDER BY k.occurred_at, k.id";
 inline constexpr const char* kRecentFailedChecks =
     "SELECT k.id, k.curve_id, k.kind, k.nominal, k.response, k.is_response, k.measured, "
-    "k.recovery_pct, k.limit_low, k.limit_high, k.passed, k.analyst, k.occurred_at "
-    "FROM checks k JOIN curves c ON c.id = k.curve_id WHERE c.instrument_id = :instrument "
+    "k.recovery_pct, k.limit_low, k.limit_high, k.passed, k.analyst, k.occurred_at, m.run_id "
+    "FROM checks k JOIN curves c ON c.id = k.curve_id "
+    "LEFT JOIN run_checks m ON m.check_id = k.id WHERE c.instrument_id = :instrument "
     "AND k.passed = 0 AND k.occurred_at <= :by ORDER BY k.occurred_at DESC, k.id DESC "
     "LIMIT :limit";
 inline constexpr const char* kInsertCheck =
@@ -192,24 +209,64 @@ inline constexpr const char* kInsertCheck =
     "limit_low, limit_high, passed, analyst, occurred_at, audit_seq) VALUES (:curve, :kind, "
     ":nominal, :response, :is, :measured, :recovery, :low, :high, :passed, :analyst, :at, :seq)";
 
+// Results carry their run membership (m) and their latest status event (e); columns 21 on.
 inline constexpr const char* kResultById =
-    "SELECT id, sample, analyte, status, curve_id, method_id, instrument_id, response, "
-    "is_response, replicates, dilution, x0, sd_x0, concentration, ci_low, ci_high, flags, "
-    "reasons, reason_details, analyst, occurred_at, censored, reporting_limit, "
-    "computed_concentration, uncertainty FROM results WHERE id = :id";
+    "SELECT r.id, r.sample, r.analyte, r.status, r.curve_id, r.method_id, r.instrument_id, "
+    "r.response, r.is_response, r.replicates, r.dilution, r.x0, r.sd_x0, r.concentration, "
+    "r.ci_low, r.ci_high, r.flags, r.reasons, r.reason_details, r.analyst, r.occurred_at, "
+    "r.censored, r.reporting_limit, r.computed_concentration, r.uncertainty, m.run_id, m.position, "
+    "e.id, e.status, e.reason, e.detail, e.check_id, e.run_id, "
+    "e.occurred_at FROM results r LEFT JOIN run_results m ON m.result_id = r.id "
+    "LEFT JOIN result_status_events e ON e.id = "
+    "(SELECT max(x.id) FROM result_status_events x WHERE x.result_id = r.id) "
+    "WHERE r.id = :id";
 inline constexpr const char* kResultsOf =
-    "SELECT id, sample, analyte, status, curve_id, method_id, instrument_id, response, "
-    "is_response, replicates, dilution, x0, sd_x0, concentration, ci_low, ci_high, flags, "
-    "reasons, reason_details, analyst, occurred_at, censored, reporting_limit, "
-    "computed_concentration, uncertainty FROM results "
-    "WHERE curve_id IN (SELECT value FROM json_each(:ids)) ORDER BY occurred_at, id";
+    "SELECT r.id, r.sample, r.analyte, r.status, r.curve_id, r.method_id, r.instrument_id, "
+    "r.response, r.is_response, r.replicates, r.dilution, r.x0, r.sd_x0, r.concentration, "
+    "r.ci_low, r.ci_high, r.flags, r.reasons, r.reason_details, r.analyst, r.occurred_at, "
+    "r.censored, r.reporting_limit, r.computed_concentration, r.uncertainty, m.run_id, m.position, "
+    "e.id, e.status, e.reason, e.detail, e.check_id, e.run_id, "
+    "e.occurred_at FROM results r LEFT JOIN run_results m ON m.result_id = r.id "
+    "LEFT JOIN result_status_events e ON e.id = "
+    "(SELECT max(x.id) FROM result_status_events x WHERE x.result_id = r.id) "
+    "WHERE r.curve_id IN (SELECT value FROM json_each(:ids)) ORDER BY r.occurred_at, r.id";
 inline constexpr const char* kReportedBetween =
-    "SELECT id, sample, analyte, status, curve_id, method_id, instrument_id, response, "
-    "is_response, replicates, dilution, x0, sd_x0, concentration, ci_low, ci_high, flags, "
-    "reasons, reason_details, analyst, occurred_at, censored, reporting_limit, "
-    "computed_concentration, uncertainty FROM results WHERE curve_id = :id AND "
-    "status = 'reported' AND occurred_at > :after AND occurred_at <= :until "
-    "ORDER BY occurred_at, id";
+    "SELECT r.id, r.sample, r.analyte, r.status, r.curve_id, r.method_id, r.instrument_id, "
+    "r.response, r.is_response, r.replicates, r.dilution, r.x0, r.sd_x0, r.concentration, "
+    "r.ci_low, r.ci_high, r.flags, r.reasons, r.reason_details, r.analyst, r.occurred_at, "
+    "r.censored, r.reporting_limit, r.computed_concentration, r.uncertainty, m.run_id, m.position, "
+    "e.id, e.status, e.reason, e.detail, e.check_id, e.run_id, "
+    "e.occurred_at FROM results r LEFT JOIN run_results m ON m.result_id = r.id "
+    "LEFT JOIN result_status_events e ON e.id = "
+    "(SELECT max(x.id) FROM result_status_events x WHERE x.result_id = r.id) "
+    "WHERE r.curve_id = :id AND r.status = 'reported' AND r.occurred_at > :after "
+    "AND r.occurred_at <= :until ORDER BY r.occurred_at, r.id";
+inline constexpr const char* kCountReportedBetween =
+    "SELECT count(*) FROM results WHERE curve_id = :id AND status = 'reported' AND "
+    "occurred_at > :after AND occurred_at <= :until";
+inline constexpr const char* kResultsFiltered =
+    "SELECT r.id, r.sample, r.analyte, r.status, r.curve_id, r.method_id, r.instrument_id, "
+    "r.response, r.is_response, r.replicates, r.dilution, r.x0, r.sd_x0, r.concentration, "
+    "r.ci_low, r.ci_high, r.flags, r.reasons, r.reason_details, r.analyst, r.occurred_at, "
+    "r.censored, r.reporting_limit, r.computed_concentration, r.uncertainty, m.run_id, m.position, "
+    "e.id, e.status, e.reason, e.detail, e.check_id, e.run_id, "
+    "e.occurred_at FROM results r LEFT JOIN run_results m ON m.result_id = r.id "
+    "LEFT JOIN result_status_events e ON e.id = "
+    "(SELECT max(x.id) FROM result_status_events x WHERE x.result_id = r.id) "
+    "WHERE (:sample IS NULL OR r.sample = :sample) AND "
+    "(:since IS NULL OR r.occurred_at >= :since) AND r.occurred_at <= :until AND "
+    "(:run IS NULL OR m.run_id = :run) AND "
+    "(:status IS NULL OR coalesce(e.status, r.status) = :status) ORDER BY r.occurred_at, r.id";
+inline constexpr const char* kResultsOfRun =
+    "SELECT r.id, r.sample, r.analyte, r.status, r.curve_id, r.method_id, r.instrument_id, "
+    "r.response, r.is_response, r.replicates, r.dilution, r.x0, r.sd_x0, r.concentration, "
+    "r.ci_low, r.ci_high, r.flags, r.reasons, r.reason_details, r.analyst, r.occurred_at, "
+    "r.censored, r.reporting_limit, r.computed_concentration, r.uncertainty, m.run_id, m.position, "
+    "e.id, e.status, e.reason, e.detail, e.check_id, e.run_id, "
+    "e.occurred_at FROM results r JOIN run_results m ON m.result_id = r.id "
+    "LEFT JOIN result_status_events e ON e.id = "
+    "(SELECT max(x.id) FROM result_status_events x WHERE x.result_id = r.id) "
+    "WHERE m.run_id = :run ORDER BY m.position";
 inline constexpr const char* kInsertResult =
     "INSERT INTO results (sample, analyte, status, curve_id, method_id, instrument_id, response, "
     "is_response, replicates, dilution, x0, sd_x0, concentration, ci_low, ci_high, flags, "
@@ -220,6 +277,63 @@ inline constexpr const char* kInsertResult =
 inline constexpr const char* kInsertRefusal =
     "INSERT INTO refusals (action, entity_kind, entity_id, actor, reasons, message, occurred_at, "
     "audit_seq) VALUES (:action, :kind, :id, :actor, :reasons, :message, :at, :seq)";
+
+// ---- runs, status events, saved column mappings
+inline constexpr const char* kRunById =
+    "SELECT r.id, v.method_id, r.method_version_id, r.instrument_id, r.acquired_at, r.analyst, "
+    "r.file_name, r.file_sha256, r.row_count, r.columns, r.again_reason FROM runs r "
+    "JOIN method_versions v ON v.id = r.method_version_id WHERE r.id = :id";
+inline constexpr const char* kRunsUntil =
+    "SELECT r.id, v.method_id, r.method_version_id, r.instrument_id, r.acquired_at, r.analyst, "
+    "r.file_name, r.file_sha256, r.row_count, r.columns, r.again_reason FROM runs r "
+    "JOIN method_versions v ON v.id = r.method_version_id WHERE r.acquired_at <= :until "
+    "ORDER BY r.acquired_at, r.id";
+inline constexpr const char* kRunsWithSha256 =
+    "SELECT r.id, v.method_id, r.method_version_id, r.instrument_id, r.acquired_at, r.analyst, "
+    "r.file_name, r.file_sha256, r.row_count, r.columns, r.again_reason FROM runs r "
+    "JOIN method_versions v ON v.id = r.method_version_id WHERE r.file_sha256 = :sha "
+    "ORDER BY r.id";
+inline constexpr const char* kChecksOfRun =
+    "SELECT m.position, m.label, c.analyte, k.id, k.curve_id, k.kind, k.nominal, k.response, "
+    "k.is_response, k.measured, k.recovery_pct, k.limit_low, k.limit_high, k.passed, k.analyst, "
+    "k.occurred_at FROM run_checks m JOIN checks k ON k.id = m.check_id "
+    "JOIN curves c ON c.id = k.curve_id WHERE m.run_id = :run ORDER BY m.position";
+inline constexpr const char* kRunResultCounts =
+    "SELECT analyte, count(*), sum(current = 'reported'), sum(current = 'reported' AND below), "
+    "sum(current = 'refused'), sum(current = 'rerun-required') FROM ("
+    "  SELECT r.analyte AS analyte, coalesce((SELECT x.status FROM result_status_events x "
+    "    WHERE x.result_id = r.id ORDER BY x.id DESC LIMIT 1), r.status) AS current, "
+    "    EXISTS (SELECT 1 FROM json_each(r.flags) WHERE value = 'below-range') AS below "
+    "  FROM run_results m JOIN results r ON r.id = m.result_id WHERE m.run_id = :run) "
+    "GROUP BY analyte ORDER BY analyte";
+inline constexpr const char* kRunCheckCounts =
+    "SELECT c.analyte, k.kind, k.passed, count(*) FROM run_checks m "
+    "JOIN checks k ON k.id = m.check_id JOIN curves c ON c.id = k.curve_id "
+    "WHERE m.run_id = :run GROUP BY 1, 2, 3 ORDER BY 1, 2, 3";
+inline constexpr const char* kStatusEventsOf =
+    "SELECT id, result_id, status, reason, detail, check_id, run_id, occurred_at "
+    "FROM result_status_events WHERE result_id = :id ORDER BY id";
+inline constexpr const char* kInsertRun =
+    "INSERT INTO runs (method_version_id, instrument_id, acquired_at, analyst, file_name, "
+    "file_sha256, row_count, columns, again_reason, audit_seq) VALUES (:mv, :instrument, :at, "
+    ":analyst, :file, :sha, :rows, :columns, :again, :seq)";
+inline constexpr const char* kInsertRunResult =
+    "INSERT INTO run_results (run_id, position, result_id, audit_seq) "
+    "VALUES (:run, :position, :result, :seq)";
+inline constexpr const char* kInsertRunCheck =
+    "INSERT INTO run_checks (run_id, position, check_id, label, audit_seq) "
+    "VALUES (:run, :position, :check, :label, :seq)";
+inline constexpr const char* kInsertStatusEvent =
+    "INSERT INTO result_status_events (result_id, status, reason, detail, check_id, run_id, "
+    "occurred_at, audit_seq) VALUES (:result, :status, :reason, :detail, :check, :run, :at, "
+    ":seq)";
+inline constexpr const char* kColumnMapsOf =
+    "SELECT instrument_id, columns, reason, saved_by, occurred_at FROM instrument_column_maps "
+    "WHERE instrument_id IN (SELECT value FROM json_each(:ids)) "
+    "ORDER BY instrument_id, occurred_at, id";
+inline constexpr const char* kInsertColumnMap =
+    "INSERT INTO instrument_column_maps (instrument_id, columns, reason, saved_by, occurred_at, "
+    "audit_seq) VALUES (:instrument, :columns, :reason, :by, :at, :seq)";
 
 // ---- audit trail
 inline constexpr const char* kAuditHead =

@@ -10,6 +10,7 @@
 #include "store/sqlite/audit_repository.h"
 #include "store/sqlite/curve_repository.h"
 #include "store/sqlite/registry_repository.h"
+#include "store/sqlite/run_repository.h"
 
 namespace cw::store::sqlite {
 namespace {
@@ -17,7 +18,11 @@ namespace {
 class SqliteReadUnit final : public ReadUnit {
  public:
   explicit SqliteReadUnit(Database& db)
-      : db_(db), registry_(db, nullptr), curves_(db, nullptr, nullptr), audit_(db) {
+      : db_(db),
+        registry_(db, nullptr),
+        curves_(db, nullptr, nullptr),
+        runs_(db, nullptr),
+        audit_(db) {
     guarded(db_, [&] {
       db_.release_statements();
       db_.db->exec("BEGIN DEFERRED");
@@ -33,19 +38,26 @@ class SqliteReadUnit final : public ReadUnit {
   }
   RegistryReader& registry() override { return registry_; }
   CurveReader& curves() override { return curves_; }
+  RunReader& runs() override { return runs_; }
   AuditReader& audit() override { return audit_; }
 
  private:
   Database& db_;
   SqliteRegistry registry_;
   SqliteCurves curves_;
+  SqliteRuns runs_;
   SqliteAudit audit_;
 };
 
 class SqliteWriteUnit final : public WriteUnit {
  public:
   SqliteWriteUnit(Database& db, const Actor& actor)
-      : db_(db), actor_(actor), registry_(db, &state_), curves_(db, &state_, &actor_), audit_(db) {
+      : db_(db),
+        actor_(actor),
+        registry_(db, &state_),
+        curves_(db, &state_, &actor_),
+        runs_(db, &state_),
+        audit_(db) {
     if (actor_.clock == nullptr) throw std::logic_error("a write unit needs a clock");
     guarded(db_, [&] {
       db_.release_statements();
@@ -66,9 +78,11 @@ class SqliteWriteUnit final : public WriteUnit {
   }
   RegistryReader& registry() override { return registry_; }
   CurveReader& curves() override { return curves_; }
+  RunReader& runs() override { return runs_; }
   AuditReader& audit() override { return audit_; }
   RegistryWriter& registry_writer() override { return registry_; }
   CurveWriter& curve_writer() override { return curves_; }
+  RunWriter& run_writer() override { return runs_; }
   void append_entry(const EntryHeader& header) override { audit_.append(state_, actor_, header); }
   void commit() override {
     if (!state_.rows.empty()) throw std::logic_error("rows written without an audit entry");
@@ -86,6 +100,7 @@ class SqliteWriteUnit final : public WriteUnit {
   WriteState state_;
   SqliteRegistry registry_;
   SqliteCurves curves_;
+  SqliteRuns runs_;
   SqliteAudit audit_;
   bool open_ = false;
 };

@@ -408,3 +408,18 @@ TEST_CASE("method_file: files that cannot be read are named", "[import]") {
   }
   std::filesystem::remove(latin1);
 }
+
+TEST_CASE("method_file: trend targets are read together or refused", "[import]") {
+  const auto d =
+      cw::import::parse_method_text(kFile, inserted(21, "trend_mean = 100.5") + "trend_sd = 2.5\n")
+          .definition;
+  CHECK(d.check.trend_mean == 100.5);
+  CHECK(d.check.trend_sd == 2.5);
+  const Failure alone = failure_of(inserted(21, "trend_mean = 100"));
+  CHECK(alone.thrown);
+  CHECK(alone.message == "key 'check.trend_mean' needs 'check.trend_sd' as well");
+  CHECK(alone.where.line == 22);
+  const Failure zero = failure_of(inserted(21, "trend_mean = 100") + "trend_sd = 0\n");
+  CHECK(zero.thrown);
+  CHECK_THAT(zero.message, Catch::Contains("'check.trend_sd' must be a standard deviation"));
+}

@@ -25,6 +25,9 @@ using cw::store_test::read_bytes;
 using cw::store_test::TempDir;
 using cw::store_test::write_bytes;
 
+/// The number of the newest migration this build knows (user_version of a fresh store).
+const int kLatest = cw::store::sqlite::embedded_migrations().back().version;
+
 OpenOptions options(const std::filesystem::path& p, bool create) {
   OpenOptions o;
   o.location = p.string();
@@ -65,7 +68,7 @@ std::vector<std::string> table_names(RawDb& raw) {
 
 TEST_CASE("store: the migrations compiled in are the files of migrations/, in order", "[store]") {
   const auto m = cw::store::sqlite::embedded_migrations();
-  REQUIRE(m.size() == 5);
+  REQUIRE(m.size() == 6);
   CHECK(m[0].version == 1);
   CHECK(m[0].name == "0001_create_audit_and_registries");
   CHECK(m[1].version == 2);
@@ -76,6 +79,8 @@ TEST_CASE("store: the migrations compiled in are the files of migrations/, in or
   CHECK(m[3].name == "0004_forbid_updates_and_deletes");
   CHECK(m[4].version == 5);
   CHECK(m[4].name == "0005_add_censoring_and_uncertainty");
+  CHECK(m[5].version == 6);
+  CHECK(m[5].name == "0006_record_runs_and_status_events");
   CHECK_THAT(m[0].sql, Catch::Contains("CREATE TABLE audit_log"));
 }
 
@@ -87,38 +92,56 @@ TEST_CASE("store: a fresh store records every migration, user_version and applic
   {
     auto c = cw::store::Store::open(options(path, true));
     CHECK(c->was_created());
-    CHECK(c->schema_version() == 5);
+    CHECK(c->schema_version() == kLatest);
   }
   RawDb raw(path);
   const auto rows =
       raw.rows("SELECT version, name, sha256, applied_at FROM schema_migrations ORDER BY version");
-  REQUIRE(rows.size() == 5);
+  REQUIRE(rows.size() == migrations.size());
   for (size_t i = 0; i < rows.size(); ++i) {
     INFO("migration " << i + 1);
-    CHECK(rows[i][0] == std::to_string(i + 1));
+    CHECK(rows[i][0] == std::to_string(migrations[i].version));
     CHECK(rows[i][1] == migrations[i].name);
     // The recorded checksum is SHA-256 of the applied SQL, recomputed here with OpenSSL.
     CHECK(rows[i][2] == cw::store_test::evp_sha256_hex(migrations[i].sql));
     CHECK(rows[i][3].size() == 20);  // YYYY-MM-DDTHH:MM:SSZ
     CHECK(rows[i][3].back() == 'Z');
   }
-  CHECK(raw.integer("PRAGMA user_version") == 5);
+  CHECK(raw.integer("PRAGMA user_version") == kLatest);
   CHECK(raw.integer("PRAGMA application_id") == 0x43575244);
   CHECK(raw.text("PRAGMA journal_mode") == "wal");
-  CHECK(table_names(raw) ==
-        std::vector<std::string>{"audit_log", "calibration_lots", "calibrations", "checks",
-                                 "curve_points", "curve_retirements", "curve_reviews", "curves",
-                                 "instrument_service_events", "instruments", "lab_settings",
-                                 "lot_values", "lot_withdrawals", "lots", "method_versions",
-                                 "methods", "refusals", "results", "schema_migrations"});
-  // Two append-only triggers (no update, no delete) for each of the 19 tables.
-  CHECK(raw.integer("SELECT count(*) FROM sqlite_master WHERE type = 'trigger'") == 38);
+  CHECK(table_names(raw) == std::vector<std::string>{"audit_log",
+                                                     "calibration_lots",
+                                                     "calibrations",
+                                                     "checks",
+                                                     "curve_points",
+                                                     "curve_retirements",
+                                                     "curve_reviews",
+                                                     "curves",
+                                                     "instrument_column_maps",
+                                                     "instrument_service_events",
+                                                     "instruments",
+                                                     "lab_settings",
+                                                     "lot_values",
+                                                     "lot_withdrawals",
+                                                     "lots",
+                                                     "method_versions",
+                                                     "methods",
+                                                     "refusals",
+                                                     "result_status_events",
+                                                     "results",
+                                                     "run_checks",
+                                                     "run_results",
+                                                     "runs",
+                                                     "schema_migrations"});
+  // Two append-only triggers (no update, no delete) for each of the 24 tables.
+  CHECK(raw.integer("SELECT count(*) FROM sqlite_master WHERE type = 'trigger'") == 48);
 
   // The same facts in the file header, read as bytes.
   const std::string header = read_bytes(path).substr(0, 100);
   CHECK(header.substr(0, 16) == std::string("SQLite format 3\0", 16));
   CHECK(header.substr(68, 4) == "CWRD");  // application_id 0x43575244
-  CHECK(header.substr(60, 4) == std::string("\0\0\0\x05", 4));
+  CHECK(header.substr(60, 4) == std::string("\0\0\0\x06", 4));
   CHECK(header[18] == 2);  // WAL
   CHECK(header[19] == 2);
 }
@@ -140,12 +163,12 @@ TEST_CASE("store: re-opening applies nothing", "[store]") {
     INFO("create = " << create);
     auto c = cw::store::Store::open(options(path, create));
     CHECK_FALSE(c->was_created());
-    CHECK(c->schema_version() == 5);
+    CHECK(c->schema_version() == kLatest);
   }
   RawDb raw(path);
   CHECK(raw.rows("SELECT * FROM schema_migrations ORDER BY version") == before);
   CHECK(raw.integer("SELECT count(*) FROM sqlite_master") == objects_before);
-  CHECK(raw.integer("PRAGMA user_version") == 5);
+  CHECK(raw.integer("PRAGMA user_version") == kLatest);
   CHECK(read_bytes(path) == bytes_before);
 }
 
@@ -195,7 +218,7 @@ TEST_CASE("store: a first migration that fails leaves a bare, unclaimed file", "
   }
   // So init can try again.
   auto c = cw::store::Store::open(options(path, true));
-  CHECK(c->schema_version() == 5);
+  CHECK(c->schema_version() == kLatest);
 }
 
 TEST_CASE("store: a store written by a newer version is refused and left byte-identical",
@@ -213,11 +236,12 @@ TEST_CASE("store: a store written by a newer version is refused and left byte-id
     const std::string message = open_error(options(path, create));
     CHECK_THAT(message, Catch::Contains("newer version of curvewarden"));
     CHECK_THAT(message, Catch::Contains("schema 99"));
-    CHECK_THAT(message, Catch::Contains("knows up to 5"));
+    CHECK_THAT(message, Catch::Contains("knows up to " + std::to_string(kLatest)));
     CHECK(read_bytes(path) == before);
   }
   RawDb raw(path);
-  CHECK(raw.integer("SELECT count(*) FROM schema_migrations") == 5);
+  CHECK(raw.integer("SELECT count(*) FROM schema_migrations") ==
+        static_cast<std::int64_t>(cw::store::sqlite::embedded_migrations().size()));
 }
 
 TEST_CASE("store: a file that is not SQLite is refused and left unchanged", "[store]") {
@@ -273,5 +297,5 @@ TEST_CASE("store: a missing or empty file is not a store unless init creates it"
   CHECK(read_bytes(empty).empty());
   auto c = cw::store::Store::open(options(empty, true));
   CHECK(c->was_created());
-  CHECK(c->schema_version() == 5);
+  CHECK(c->schema_version() == kLatest);
 }
