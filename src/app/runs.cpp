@@ -390,19 +390,45 @@ std::vector<RunView> list_runs(Session& s) {
   return out;
 }
 
-void show_run(Session& s, RunId id, RunVisitor& visitor) {
-  auto unit = s.read();
-  const auto run = unit->runs().run(id);
+namespace {
+
+/// Shows run `id` from `unit` to `visitor`; returns the run.
+Run visit_run(store::ReadUnit& unit, FactSet& facts, RunId id, RunVisitor& visitor) {
+  const auto run = unit.runs().run(id);
   if (!run) {
     throw NotFoundError("no run " + std::to_string(id.value),
                         "list runs with 'curvewarden run list'");
   }
-  FactSet facts(*unit, s.zone());
-  const RunView view = make_run_view(*unit, facts, *run);
+  const RunView view = make_run_view(unit, facts, *run);
   visitor.begin(view);
-  unit->runs().each_run_result(id, [&](const store::RunResultRow& row) { visitor.result(row); });
-  unit->runs().each_run_check(id, [&](const store::RunCheckRow& row) { visitor.check(row); });
+  unit.runs().each_run_result(id, [&](const store::RunResultRow& row) { visitor.result(row); });
+  unit.runs().each_run_check(id, [&](const store::RunCheckRow& row) { visitor.check(row); });
   visitor.end(view);
+  return *run;
+}
+
+}  // namespace
+
+void show_run(Session& s, RunId id, RunVisitor& visitor) {
+  auto unit = s.read();
+  FactSet facts(*unit, s.zone());
+  visit_run(*unit, facts, id, visitor);
+}
+
+RunReportContext show_run_for_report(Session& s, RunId id, RunVisitor& visitor) {
+  auto unit = s.read();
+  FactSet facts(*unit, s.zone());
+  const Run run = visit_run(*unit, facts, id, visitor);
+  RunReportContext c;
+  if (const auto settings = unit->registry().settings()) c.lab_name = settings->lab_name;
+  const Method& m = facts.method(run.method_id);
+  for (const auto& v : m.versions) {
+    if (v.id == run.method_version_id) c.method_title = v.definition.title;
+  }
+  c.instrument_name = facts.instrument(run.instrument_id).name;
+  c.entries = unit->audit().list({std::nullopt, std::string("run"), std::to_string(id.value)});
+  c.head = unit->audit().head();
+  return c;
 }
 
 void list_results(Session& s, const ResultListRequest& r,

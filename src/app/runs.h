@@ -12,9 +12,11 @@
 #include <vector>
 
 #include "app/session.h"
+#include "audit/audit_entry.h"
 #include "domain/check.h"
 #include "domain/curve_state.h"
 #include "domain/run.h"
+#include "store/audit_trail.h"
 #include "store/runs.h"
 
 namespace cw::app {
@@ -99,6 +101,18 @@ class RunVisitor {
 /// Shows a run from one read snapshot: begin, every sample row (position order), every check and
 /// blank row (position order), end. NotFoundError for an unknown id.
 void show_run(Session& s, RunId id, RunVisitor& visitor);
+
+/// What a printed run report shows besides the rows: the lab, the names behind the codes, the
+/// run's own audit entries (its import and any refusal) and the head of the trail.
+struct RunReportContext {
+  std::string lab_name;
+  std::string method_title;
+  std::optional<std::string> instrument_name;
+  std::vector<audit::AuditEntry> entries;
+  std::optional<store::ChainHead> head;
+};
+/// show_run() and the report's context, from the same snapshot.
+RunReportContext show_run_for_report(Session& s, RunId id, RunVisitor& visitor);
 
 // ---- listings
 struct ResultListRequest {

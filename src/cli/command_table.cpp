@@ -311,6 +311,14 @@ const std::vector<CommandSpec>& command_table() {
          OptionKind::Value, true}},
        false,
        h::report_curve},
+      {"report run",
+       "The report of an imported run: every sample with its released value, uncertainty, flags "
+       "and reasons, every check and blank, the bracketing outcome per analyte, the audit entries",
+       {positional("id", "Run id"),
+        {"--out", "FILE.pdf", "Write the report to this PDF file (replaced if it exists)",
+         OptionKind::Value, true}},
+       false,
+       h::report_run},
 
       {"audit", "Read and verify the audit trail", {}, false, nullptr},
       {"audit log",

@@ -41,6 +41,7 @@ int trace_lot(Invocation& in);
 
 // printable reports (handlers_report.cpp)
 int report_curve(Invocation& in);
+int report_run(Invocation& in);
 
 // runs, listings, trend (handlers_runs.cpp)
 int run_import(Invocation& in);

@@ -1,11 +1,14 @@
 // SPDX-License-Identifier: Apache-2.0
 // Handlers of the printable reports.
 #include "app/reports.h"
+#include "app/runs.h"
 #include "cli/handlers.h"
 #include "core/error.h"
 #include "plot/curve_report.h"
+#include "plot/run_report.h"
 #include "report/curve_report_view.h"
 #include "report/json.h"
+#include "report/run_report_view.h"
 
 namespace cw::cli::handlers {
 
@@ -50,6 +53,31 @@ int report_curve(Invocation& in) {
   } else {
     in.out() << "Report of curve " << id.value << " (" << facts.view.curve.analyte << ", "
              << to_string(facts.view.status.state) << ") written to " << out << ": " << pages
+             << (pages == 1 ? " page" : " pages") << ".\n";
+  }
+  return 0;
+}
+
+int report_run(Invocation& in) {
+  const RunId id = in.run_id("id");
+  const std::string out = pdf_path(in);
+  auto s = in.open_session();
+  report::RunReportBuilder builder(s.zone());
+  const auto context = app::show_run_for_report(s, id, builder);
+  const plot::RunReport r = builder.finish(context, origin_of(s));
+  const int pages = plot::render_run_report(r, out);
+  if (in.json()) {
+    in.emit({{"run_id", id.value},
+             {"file", out},
+             {"pages", pages},
+             {"samples", r.samples.size()},
+             {"checks", r.checks.size()},
+             {"audit_head", context.head ? report::Json({{"seq", context.head->seq},
+                                                         {"hash", context.head->hash}})
+                                         : report::Json(nullptr)}});
+  } else {
+    in.out() << "Report of run " << id.value << " (" << r.samples.size() << " sample row(s), "
+             << r.checks.size() << " check and blank row(s)) written to " << out << ": " << pages
              << (pages == 1 ? " page" : " pages") << ".\n";
   }
   return 0;

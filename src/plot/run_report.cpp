@@ -99,12 +99,13 @@ void add_samples(Document& d, const RunReport& r) {
   d.blocks.push_back(Heading{"4  Samples"});
   d.blocks.push_back(Paragraph{
       "Released is what the result says: a value, \"< limit\" for a result below the reporting "
-      "limit, or \"refused\". U is the expanded uncertainty. Refused results and samples to "
-      "re-run are in bold.",
+      "limit, or \"refused\". U is the expanded uncertainty (k = 2 unless shown). Reasons are "
+      "named by their token; `curvewarden result show ID` gives each in full. Refused results "
+      "and samples to re-run are in bold.",
       Paragraph::Style::Note});
   Table t;
-  t.columns = {{"Pos.", true},          {"Result ID", true}, {"Sample", false, true}, {"Analyte"},
-               {"Released", true},      {"U", true},         {"Flags", false, true},  {"Status"},
+  t.columns = {{"Pos.", true},          {"Result", true}, {"Sample", false, true}, {"Analyte"},
+               {"Released", true},      {"U", true},      {"Flags", false, true},  {"Status"},
                {"Reasons", false, true}};
   for (const ReportSampleRow& s : r.samples) {
     Table::Row row{{std::to_string(s.position), s.result_id, s.sample, s.analyte, s.value,

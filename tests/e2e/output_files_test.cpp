@@ -219,3 +219,69 @@ TEST_CASE("e2e output files: report curve refuses a bad path or curve and writes
   CHECK(cw::test::table_row_counts(box.db()) == counts);
   CHECK(box.run({"audit", "verify"}).exit_code == 0);
 }
+
+TEST_CASE("e2e output files: report run writes every row of a 500-row run", "[e2e]") {
+  Sandbox box;
+  populate(box, 5, 1);
+  box.user = "m.reviewer";
+  run_ok(box, {"curve", "review", "1", "--approve", "--reason", "ok"});
+  box.user = "alice";
+  box.now = "2026-03-02T10:00:00Z";
+  // 500 rows: a check standard before every 8 samples; one check in the middle fails (its
+  // bracket must be re-run); a few samples read below the lowest calibrator (censored).
+  std::string csv = "position,kind,sample,analyte,response,nominal\n";
+  int samples = 0, checks = 0;
+  for (int pos = 1; pos <= 500; ++pos) {
+    if (pos % 9 == 1 || pos == 500) {
+      const bool failing = pos == 244;  // 244 % 9 == 1
+      csv += std::to_string(pos) + ",check,CS,nitrate," + (failing ? "0.80" : "1.0") + ",10\n";
+      ++checks;
+    } else {
+      const bool low = pos % 50 == 7;
+      csv += std::to_string(pos) + ",sample,Brunnen-Ö " + std::to_string(pos) + ",nitrate," +
+             (low ? "0.05" : std::to_string(0.2 + 0.003 * (pos % 100))) + ",\n";
+      ++samples;
+    }
+  }
+  box.write_file("run.csv", csv);
+  const RunResult imported =
+      box.run({"run", "import", "run.csv", "--method", "ANION-IC", "--instrument", "IC-02"});
+  INFO(imported.describe());
+  REQUIRE(imported.exit_code == 3);  // the failing check leaves results to re-run
+
+  const RunResult r = box.run({"report", "run", "1", "--out", "run.pdf", "--json"});
+  INFO(r.describe());
+  REQUIRE(r.exit_code == 0);
+  CHECK(r.json()["samples"] == samples);
+  CHECK(r.json()["checks"] == checks);
+  const std::string pdf = box.path("run.pdf").string();
+  const std::string info = command_output("pdfinfo '" + pdf + "'");
+  std::smatch pages;
+  REQUIRE(std::regex_search(info, pages, std::regex("Pages:\\s+(\\d+)")));
+  const int n = std::stoi(pages[1]);
+  CHECK(r.json()["pages"] == n);
+  CHECK(n > 5);
+
+  const std::string text = command_output("pdftotext -layout '" + pdf + "' -");
+  const RunResult shown = box.run({"run", "show", "1", "--json"});
+  REQUIRE(shown.exit_code == 0);
+  const auto doc = shown.json();
+  CHECK_THAT(text, Catch::Contains(doc["file_sha256"].get<std::string>()));
+  // Every sample row is in the report, by its sample id.
+  for (const auto& row : doc["results"]) {
+    CHECK_THAT(text, Catch::Contains(row["sample"].get<std::string>()));
+  }
+  CHECK_THAT(text, Catch::Contains("RE-RUN"));
+  CHECK_THAT(text, Catch::Contains("FAIL"));
+  CHECK_THAT(text, Catch::Contains("< 2.5 mg/L"));  // censored at the lowest calibrator
+  CHECK(count(text, "page 1 of " + std::to_string(n)) == 1);
+  CHECK(count(text, "Supports and never replaces") == static_cast<std::size_t>(n));
+
+  run_ok(box, {"report", "run", "1", "--out", "again.pdf"});
+  CHECK(cw::test::read_file(box.path("again.pdf")) == cw::test::read_file(box.path("run.pdf")));
+  const auto counts = cw::test::table_row_counts(box.db());
+  CHECK(box.run({"report", "run", "2", "--out", "none.pdf"}).exit_code == 2);
+  CHECK_FALSE(std::filesystem::exists(box.path("none.pdf")));
+  CHECK(box.run({"report", "run", "1", "--out", "run.svg"}).exit_code == 2);
+  CHECK(cw::test::table_row_counts(box.db()) == counts);
+}
