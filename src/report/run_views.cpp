@@ -225,6 +225,7 @@ void RunJsonWriter::end(const app::RunView& run) {
 
 void RunTextWriter::begin(const app::RunView& v) {
   unit_ = v.unit;
+  for (const auto& a : v.summary) analyte_width_ = std::max(analyte_width_, a.analyte.size());
   out_ << "Run " << v.run.id.value << ": method " << v.method_code << " v" << v.method_version
        << ", instrument " << v.instrument_code << ", imported "
        << zone_.format_local(v.run.acquired_at) << " by " << v.run.analyst << "\n";
@@ -247,7 +248,7 @@ void RunTextWriter::result(const store::RunResultRow& row) {
                  {"result", Table::Align::Right},
                  {"status"},
                  {"value"}},
-                {6, 16, 10, 7, 14, 0}, 2)
+                {6, 16, analyte_width_, 7, 14, 0}, 2)
         .header();
     results_started_ = true;
   }
@@ -264,7 +265,7 @@ void RunTextWriter::result(const store::RunResultRow& row) {
                {"result", Table::Align::Right},
                {"status"},
                {"value"}},
-              {6, 16, 10, 7, 14, 0}, 2)
+              {6, 16, analyte_width_, 7, 14, 0}, 2)
       .row({std::to_string(row.position), r.sample, r.analyte, std::to_string(r.id.value),
             std::string(to_string(r.current_status())), value});
 }
@@ -273,7 +274,7 @@ void RunTextWriter::check(const store::RunCheckRow& row) {
   const std::vector<Table::Column> columns = {
       {"pos", Table::Align::Right},   {"kind"}, {"label"}, {"analyte"},
       {"check", Table::Align::Right}, {""},     {"value"}};
-  const std::vector<std::size_t> widths = {6, 5, 12, 10, 6, 6, 0};
+  const std::vector<std::size_t> widths = {6, 5, 12, analyte_width_, 6, 6, 0};
   if (!checks_started_) {
     out_ << "Checks and blanks:\n";
     StreamTable(out_, columns, widths, 2).header();

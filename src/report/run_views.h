@@ -57,6 +57,7 @@ class RunTextWriter final : public app::RunVisitor {
   std::ostream& out_;
   const LabZone& zone_;
   std::string unit_;
+  std::size_t analyte_width_ = 10;  ///< the longest analyte name of the run (rows are streamed)
   bool results_started_ = false;
   bool checks_started_ = false;
 };
