@@ -120,7 +120,7 @@ TEST_CASE("censoring: no view or export shows a censored result as a number", "[
   CHECK(lot.at("results")[0].at("censored") == "<");
 }
 
-TEST_CASE("censoring: a method may report down to its LOQ; the release limit moves with it",
+TEST_CASE("censoring: a method may report down to its LOQ, and the release limit moves with it",
           "[scenario]") {
   Lab lab;
   lab.add_instrument("IC-01");

@@ -79,7 +79,7 @@ TEST_CASE("check log: a failure makes the results it lists rerun-required, once"
   CHECK(rl.lab.sql("SELECT count(*) FROM result_status_events") == "2");
 }
 
-TEST_CASE("listings: runs, results and checks with their filters; trace result of a run",
+TEST_CASE("listings: runs, results and checks with their filters, and trace result of a run",
           "[scenario][run]") {
   RunLab rl;
   const std::string csv = std::string(kRunHeader) +  //

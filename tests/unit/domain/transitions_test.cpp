@@ -33,7 +33,7 @@ TEST_CASE("transitions: review decides only a curve that waits for it", "[domain
 }
 
 TEST_CASE(
-    "transitions: self-review is refused whatever the state; a rejected curve is never "
+    "transitions: self-review is refused whatever the state, and a rejected curve is never "
     "reviewed",
     "[domain]") {
   for (CurveState s : cw::kAllCurveStates) {
