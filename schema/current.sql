@@ -59,6 +59,9 @@ CREATE INDEX curves_by_expiry ON curves (expires_at);
 -- index curves_by_group
 CREATE INDEX curves_by_group ON curves (method_id, instrument_id, analyte, acquired_at);
 
+-- index curves_by_group_expiry
+CREATE INDEX curves_by_group_expiry ON curves (method_id, instrument_id, analyte, expires_at);
+
 -- index curves_by_instrument
 CREATE INDEX curves_by_instrument ON curves (instrument_id, expires_at);
 
@@ -652,4 +655,4 @@ BEGIN SELECT RAISE(ABORT, 'schema_migrations is append-only: rows cannot be dele
 CREATE TRIGGER schema_migrations_no_update BEFORE UPDATE ON schema_migrations
 BEGIN SELECT RAISE(ABORT, 'schema_migrations is append-only: rows cannot be changed'); END;
 
-PRAGMA user_version = 6;
+PRAGMA user_version = 8;

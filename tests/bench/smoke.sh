@@ -37,7 +37,8 @@ c=$(verify "$dir/c.db")
 "$cw" --db "$dir/a.db" status >"$dir/status.txt" || fail "status failed"
 "$cw" --db "$dir/a.db" --json expiring --within "30 days" >/dev/null || fail "expiring failed"
 . "$dir/store.env"
-"$cw" --db "$dir/a.db" --json curve show "$BENCH_CURVE" | grep -q '"state": *"active"' ||
+shown=$("$cw" --db "$dir/a.db" --json curve show "$BENCH_CURVE") || fail "curve show failed"
+echo "$shown" | grep -q '"state": *"active"' ||
   fail "the anchor curve $BENCH_CURVE is not active at the end of the history"
 [ -s "$dir/points-30x12x3.csv" ] && [ -s "$dir/run-100000.csv" ] || fail "no benchmark files"
 echo "smoke: ok ($curves curves, $entries entries)"

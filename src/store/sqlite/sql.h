@@ -109,8 +109,10 @@ inline constexpr const char* kCurveIdsFiltered =
     "(:analyte IS NULL OR analyte = :analyte) AND acquired_at <= :by ORDER BY acquired_at, id";
 inline constexpr const char* kCurvesOfCalibration =
     "SELECT id FROM curves WHERE calibration_id = :id ORDER BY id";
+// The group's index by expiry: only its live curves are read, whatever its history.
 inline constexpr const char* kLiveInGroup =
-    "SELECT id FROM curves WHERE method_id = :method AND instrument_id = :instrument AND "
+    "SELECT id FROM curves INDEXED BY curves_by_group_expiry "
+    "WHERE method_id = :method AND instrument_id = :instrument AND "
     "analyte = :analyte AND acquired_at >= :after AND acquired_at <= :by AND expires_at > :by "
     "ORDER BY acquired_at DESC, id DESC";
 inline constexpr const char* kLatestInGroup =
