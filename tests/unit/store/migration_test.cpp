@@ -68,7 +68,7 @@ std::vector<std::string> table_names(RawDb& raw) {
 
 TEST_CASE("store: the migrations compiled in are the files of migrations/, in order", "[store]") {
   const auto m = cw::store::sqlite::embedded_migrations();
-  // 0007 is taken by the users-and-signatures branch; 0008 indexes curves by group and expiry.
+  // 0007 is taken by the users-and-signatures branch; 0008 adds indexes for status.
   REQUIRE(m.size() == 7);
   CHECK(m[0].version == 1);
   CHECK(m[0].name == "0001_create_audit_and_registries");
@@ -83,7 +83,7 @@ TEST_CASE("store: the migrations compiled in are the files of migrations/, in or
   CHECK(m[5].version == 6);
   CHECK(m[5].name == "0006_record_runs_and_status_events");
   CHECK(m[6].version == 8);
-  CHECK(m[6].name == "0008_index_curves_by_group_expiry");
+  CHECK(m[6].name == "0008_index_curves_for_status");
   CHECK_THAT(m[0].sql, Catch::Contains("CREATE TABLE audit_log"));
 }
 

@@ -42,6 +42,12 @@ TEST_CASE("store: every per-curve and per-group lookup searches an index", "[sto
       {"points of curves", sql::kPointsOf, "sqlite_autoindex_curve_points", "curve_points"},
       {"service events of instruments", sql::kServiceEventsOf,
        "instrument_service_events_by_instrument", "instrument_service_events"},
+      {"settled curves of an instrument", sql::kSettledGroups,
+       "COVERING INDEX curves_by_instrument_settled", "curves"},
+      {"method and analyte pairs of an instrument", sql::kMethodAnalytes,
+       "COVERING INDEX curves_by_instrument_group", "curves"},
+      {"recent failed checks of an instrument", sql::kRecentFailedChecks, "checks_failed_by_time",
+       "checks"},
   };
   for (const auto& e : expected) {
     INFO(e.name);
