@@ -82,8 +82,9 @@ int main(int argc, char** argv) {
       write_file(files + "/store.env",
                  "BENCH_NOW=" + cw::format_utc(o.end) + "\nBENCH_METHOD=" + r.wide_method +
                      "\nBENCH_INSTRUMENT=" + r.wide_instrument + "\nBENCH_LOT=" + r.wide_lot +
-                     "\nBENCH_CURVE=" + std::to_string(r.active_curve) + "\nBENCH_ANALYTE=" +
-                     r.active_analyte + "\nBENCH_CURVES=" + std::to_string(r.curves) +
+                     "\nBENCH_CURVE=" + std::to_string(r.active_curve) + "\nBENCH_CHECK_RESPONSE=" +
+                     std::to_string(r.check_response) + "\nBENCH_ANALYTE=" + r.active_analyte +
+                     "\nBENCH_CURVES=" + std::to_string(r.curves) +
                      "\nBENCH_ENTRIES=" + std::to_string(r.entries) + "\n");
     }
   } catch (const cw::Error& e) {

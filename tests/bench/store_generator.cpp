@@ -458,6 +458,8 @@ class Generator {
       report_.wide_lot = lot.code;
       report_.active_curve = accepted.front().value;
       report_.active_analyte = run.fitted.front().analyte;
+      const auto& fit = run.fitted.front().fit;
+      report_.check_response = fit.slope * 10.0 + fit.intercept;
     }
     if (version.definition.calibration.review_required && !accepted.empty()) {
       Pending review = Pending::of(Pending::Kind::Review, at + 2h, order_++);

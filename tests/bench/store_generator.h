@@ -37,6 +37,7 @@ struct GeneratorReport {
   std::string wide_lot;           ///< a lot certifying its analytes, usable at `end`
   std::int64_t active_curve = 0;  ///< a curve of the wide method active at `end`
   std::string active_analyte;     ///< its analyte
+  double check_response = 0;      ///< the response of a passing check at nominal 10 on it
 };
 
 /// Builds the store. Throws the library's errors (a StoreError when the file exists).
