@@ -4,6 +4,7 @@
 //
 //   curvewarden-bench-store --out lab.db --curves 100000 [--seed 1] [--end 2026-12-01T12:00:00Z]
 //                           [--files DIR]
+//   curvewarden-bench-store --files DIR [--seed 1]     (the input files only)
 #include <chrono>
 #include <cstdlib>
 #include <exception>
@@ -64,10 +65,18 @@ int main(int argc, char** argv) {
       usage(e.what());
     }
   }
-  if (o.location.empty()) usage("--out is required");
+  if (o.location.empty() && files.empty()) usage("--out or --files is required");
   if (o.curves < 1) usage("--curves must be at least 1");
   if (!quiet) o.progress = [](const std::string& line) { std::cerr << "  " << line << "\n"; };
   try {
+    if (!files.empty()) {
+      // The input files depend on the seed only: --files without --out rewrites them for a
+      // store generated before.
+      write_file(files + "/points-30x12x3.csv", cw::bench::wide_points_file(12, 3, o.seed));
+      write_file(files + "/run-100000.csv", cw::bench::wide_run_file(100000, 20, o.seed));
+      write_file(files + "/run-310.csv", cw::bench::wide_run_file(310, 2, o.seed));
+    }
+    if (o.location.empty()) return 0;
     const auto started = std::chrono::steady_clock::now();
     const cw::bench::GeneratorReport r = cw::bench::generate_store(o);
     const double seconds =
@@ -77,8 +86,6 @@ int main(int argc, char** argv) {
               << "\nruns " << r.runs << "\nchecks " << r.checks << "\nresults " << r.results
               << "\nentries " << r.entries << "\nseconds " << seconds << "\n";
     if (!files.empty()) {
-      write_file(files + "/points-30x12x3.csv", cw::bench::wide_points_file(12, 3, o.seed));
-      write_file(files + "/run-100000.csv", cw::bench::wide_run_file(100000, 20, o.seed));
       write_file(files + "/store.env",
                  "BENCH_NOW=" + cw::format_utc(o.end) + "\nBENCH_METHOD=" + r.wide_method +
                      "\nBENCH_INSTRUMENT=" + r.wide_instrument + "\nBENCH_LOT=" + r.wide_lot +
@@ -87,9 +94,6 @@ int main(int argc, char** argv) {
                      "\nBENCH_CURVES=" + std::to_string(r.curves) +
                      "\nBENCH_ENTRIES=" + std::to_string(r.entries) + "\n");
     }
-  } catch (const cw::Error& e) {
-    std::cerr << "curvewarden-bench-store: error: " << e.what() << "\n";
-    return 1;
   } catch (const std::exception& e) {
     std::cerr << "curvewarden-bench-store: error: " << e.what() << "\n";
     return 1;

@@ -142,10 +142,15 @@ for n in $sizes; do
 
   if [ "$n" = "$smallest" ] || [ "$n" = "$largest" ]; then
     : >"$work/$n.import"
+    sha=$(sha256sum "$dir/run-100000.csv" | cut -d' ' -f1)
     for ((r = 0; r < import_repeat; r++)); do
+      # The same file again needs --again (refused on a file never imported).
+      again=()
+      if [ "$(sqlite3 -readonly "$db" "SELECT count(*) FROM runs WHERE file_sha256 = '$sha'")" != 0 ]; then
+        again=(--again --reason "benchmark repetition $r")
+      fi
       time_once "$work/$n.import" "$cw" "${c[@]}" run import "$dir/run-100000.csv" \
-        --method "$BENCH_METHOD" --instrument "$BENCH_INSTRUMENT" --again \
-        --reason "benchmark repetition $r"
+        --method "$BENCH_METHOD" --instrument "$BENCH_INSTRUMENT" "${again[@]}"
     done
     record "run import 100000 rows" "$n" "$work/$n.import"
   fi
@@ -187,8 +192,8 @@ while IFS=$'\t' read -r name n med rss base base_med exits; do
       [ "$name" = "curve log 30x12x3" ] && target="$target; < 100 ms"
       [[ "$name" == "curve list"* ]] && target="(no target)"
       if [ "$n" = "$largest" ] && [ "$n" != "$smallest" ] && [[ "$name" != "curve list"* ]]; then
-        mark=$(awk -v r="$ratio" -v m="$med" -v log="$name" \
-          'BEGIN{ok = r <= 1.2; if (log ~ /curve log/) ok = ok && m < 100; print (ok ? "pass" : "miss")}')
+        mark=$(awk -v r="$ratio" -v m="$med" -v what="$name" \
+          'BEGIN{ok = r <= 1.2; if (what ~ /curve log/) ok = ok && m < 100; print (ok ? "pass" : "miss")}')
       fi ;;
     "run import"*)
       target="≤ 64 MiB peak; throughput: below" ;;

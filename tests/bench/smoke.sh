@@ -41,4 +41,13 @@ shown=$("$cw" --db "$dir/a.db" --json curve show "$BENCH_CURVE") || fail "curve 
 echo "$shown" | grep -q '"state": *"active"' ||
   fail "the anchor curve $BENCH_CURVE is not active at the end of the history"
 [ -s "$dir/points-30x12x3.csv" ] && [ -s "$dir/run-100000.csv" ] || fail "no benchmark files"
+# The run files are made for the wide method's curves: a short one imports with every check
+# passing and every sample reported.
+"$cw" --db "$dir/a.db" --json run import "$dir/run-310.csv" --method "$BENCH_METHOD" \
+  --instrument "$BENCH_INSTRUMENT" >"$dir/run.json" ||
+  fail "the generated run file did not import cleanly: $(cat "$dir/run.json")"
+grep -q '"refused": *[1-9]' "$dir/run.json" && fail "samples refused: $(cat "$dir/run.json")"
+"$cw" --db "$dir/a.db" --json curve log --method "$BENCH_METHOD" --instrument "$BENCH_INSTRUMENT" \
+  --lot "$BENCH_LOT" --points "$dir/points-30x12x3.csv" >/dev/null ||
+  fail "the generated points file was not accepted"
 echo "smoke: ok ($curves curves, $entries entries)"

@@ -248,6 +248,7 @@ class Generator {
       m.review_required = i == 1 || rng_.chance(0.6);
       m.check_daily = i != 1 && rng_.chance(0.3);
       m.revised = i != 1 && rng_.chance(0.1);
+      // (wide_slope_base() replays the draws of the first method: keep the two in step.)
       m.slope_base = 0.02 + rng_.uniform();
       methods_.push_back(std::move(m));
     }
@@ -623,20 +624,30 @@ GeneratorReport generate_store(const GeneratorOptions& options) {
   return Generator(options).run();
 }
 
+double wide_slope_base(std::uint64_t seed) {
+  // The wide method is planned first: its draws are the first analyte, the number of
+  // instruments, then the slope (plan_methods()).
+  Random rng(seed);
+  rng.below(kAnalyteCount);
+  rng.below(3);
+  return 0.02 + rng.uniform();
+}
+
 std::string wide_points_file(int levels, int replicates, std::uint64_t seed) {
   Random rng(seed);
-  return points_text(wide_analytes(), levels, replicates, 0.5, 0.01, rng);
+  return points_text(wide_analytes(), levels, replicates, wide_slope_base(seed), 0.01, rng);
 }
 
 std::string wide_run_file(long rows, int samples_per_check, std::uint64_t seed) {
   Random rng(seed);
+  const double slope_base = wide_slope_base(seed);
   const auto analytes = wide_analytes();
   std::string t = "position,kind,sample,analyte,response,nominal\n";
   t.reserve(static_cast<std::size_t>(rows) * 40);
   long position = 0;
   const auto add = [&](const std::string& kind, const std::string& sample, std::size_t a, double x,
                        bool nominal) {
-    const double slope = 0.5 * (0.5 + 0.1 * static_cast<double>(a % 10));
+    const double slope = slope_base * (0.5 + 0.1 * static_cast<double>(a % 10));
     const double y = (slope * x + 0.002 * slope) * (1.0 + 0.01 * rng.normal());
     t += std::to_string(++position) + "," + kind + "," + sample + "," + analytes[a] + "," +
          number(y) + "," + (nominal ? number(x) : "") + "\n";

@@ -43,6 +43,10 @@ struct GeneratorReport {
 /// Builds the store. Throws the library's errors (a StoreError when the file exists).
 GeneratorReport generate_store(const GeneratorOptions& options);
 
+/// The slope scale of the wide method's analytes in the store generated from `seed` (its
+/// calibrations' responses are this × (0.5 + 0.1·(index mod 10)) per unit of concentration).
+double wide_slope_base(std::uint64_t seed);
+
 /// A points file (CSV) for the wide method: `levels` levels × `replicates` replicates of each
 /// of its 30 analytes, drawn from `seed`.
 std::string wide_points_file(int levels, int replicates, std::uint64_t seed);
