@@ -32,6 +32,9 @@ CREATE INDEX checks_by_curve ON checks (curve_id, occurred_at);
 -- index checks_by_time
 CREATE INDEX checks_by_time ON checks (occurred_at);
 
+-- index checks_failed_by_time
+CREATE INDEX checks_failed_by_time ON checks (occurred_at) WHERE passed = 0;
+
 -- index curve_points_by_audit_seq
 CREATE INDEX curve_points_by_audit_seq ON curve_points (audit_seq);
 
@@ -59,8 +62,18 @@ CREATE INDEX curves_by_expiry ON curves (expires_at);
 -- index curves_by_group
 CREATE INDEX curves_by_group ON curves (method_id, instrument_id, analyte, acquired_at);
 
+-- index curves_by_group_expiry
+CREATE INDEX curves_by_group_expiry ON curves (method_id, instrument_id, analyte, expires_at);
+
 -- index curves_by_instrument
 CREATE INDEX curves_by_instrument ON curves (instrument_id, expires_at);
+
+-- index curves_by_instrument_group
+CREATE INDEX curves_by_instrument_group ON curves (instrument_id, method_id, analyte);
+
+-- index curves_by_instrument_settled
+CREATE INDEX curves_by_instrument_settled
+  ON curves (instrument_id, expires_at, verdict, calibration_id);
 
 -- index instrument_column_maps_by_audit_seq
 CREATE INDEX instrument_column_maps_by_audit_seq ON instrument_column_maps (audit_seq);
@@ -652,4 +665,4 @@ BEGIN SELECT RAISE(ABORT, 'schema_migrations is append-only: rows cannot be dele
 CREATE TRIGGER schema_migrations_no_update BEFORE UPDATE ON schema_migrations
 BEGIN SELECT RAISE(ABORT, 'schema_migrations is append-only: rows cannot be changed'); END;
 
-PRAGMA user_version = 6;
+PRAGMA user_version = 8;

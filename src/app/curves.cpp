@@ -220,6 +220,12 @@ std::string failed_list(const Curve& c) {
 
 }  // namespace
 
+FittedPoints fit_points_text(const std::string& file, const std::string& text,
+                             const MethodVersion& version) {
+  FittedCalibration fitted = fit_calibration(file, text, version, std::nullopt);
+  return {fitted.points.file_name, fitted.points.sha256, std::move(fitted.curves)};
+}
+
 void require_acquired(Instant at, const Curve& c, const LabZone& zone) {
   if (at < c.acquired_at) {
     throw ValidationError("--at " + zone.format_local(at) + " is before curve " +

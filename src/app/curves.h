@@ -32,6 +32,19 @@ struct CurveLogOutcome {
   bool any_rejected = false;
 };
 
+/// A points file fitted and judged for one method version, not yet stored.
+struct FittedPoints {
+  std::string file_name;
+  std::string sha256;         ///< of the file's text
+  std::vector<Curve> curves;  ///< one per analyte, in the method's order
+};
+
+/// Parses `text` (the points file `file`) against `version` and fits and judges one curve per
+/// analyte exactly as `curve log` does before storing them (for tools that build stores in
+/// bulk). Throws ValidationError naming the file.
+FittedPoints fit_points_text(const std::string& file, const std::string& text,
+                             const MethodVersion& version);
+
 /// Reads and fits the points file outside the write lock, then in one transaction checks the
 /// method version in force at the acquisition time (--at), the instrument and the lots again,
 /// and stores the calibration with one curve per analyte (rejected curves too).

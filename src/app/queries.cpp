@@ -15,15 +15,13 @@ namespace cw::app {
 namespace {
 
 std::vector<ExpiringCurve> active_expiring(store::ReadUnit& unit, FactSet& facts,
-                                           const LabZone& zone, Instant now, Instant to,
-                                           std::optional<InstrumentId> instrument) {
+                                           const LabZone& zone, Instant now, Instant to) {
   std::vector<CurveId> candidates;
   for (CurveId id : unit.curves().expiring_between(now, to)) candidates.push_back(id);
   facts.load(candidates);
   std::vector<CurveId> ids;
   for (CurveId id : candidates) {
     const Curve& c = facts.curve(id);
-    if (instrument && c.instrument_id != *instrument) continue;
     if (c.expires_at <= now || c.acquired_at > now) continue;
     ids.push_back(id);
   }
@@ -55,8 +53,7 @@ ExpiringOutcome expiring(Session& s, const ExpiringRequest& r) {
   }
   auto unit = s.read();
   FactSet facts(*unit, s.zone());
-  out.curves =
-      active_expiring(*unit, facts, s.zone(), std::max(now, out.from), out.to, std::nullopt);
+  out.curves = active_expiring(*unit, facts, s.zone(), std::max(now, out.from), out.to);
   return out;
 }
 
@@ -65,6 +62,9 @@ std::vector<InstrumentStatus> status_board(Session& s) {
   const Instant week = add_duration(now, Duration{7, Duration::Unit::Days}, s.zone());
   auto unit = s.read();
   FactSet facts(*unit, s.zone());
+  // The week's expiring curves of the whole lab, found once and shared out by instrument.
+  const std::vector<ExpiringCurve> expiring_week =
+      active_expiring(*unit, facts, s.zone(), now, week);
   std::vector<InstrumentStatus> out;
   for (const auto& instrument : unit->registry().instruments()) {
     InstrumentStatus st;
@@ -79,7 +79,9 @@ std::vector<InstrumentStatus> status_board(Session& s) {
     }
     const auto live = unit->curves().live_of_instrument(instrument.id, now);
     for (const auto& [id, status] : facts.statuses(live, now)) st.counts[status.state] += 1;
-    st.expiring_soon = active_expiring(*unit, facts, s.zone(), now, week, instrument.id);
+    for (const auto& e : expiring_week) {
+      if (e.curve.curve.instrument_id == instrument.id) st.expiring_soon.push_back(e);
+    }
     for (const auto& [method_id, analyte] : unit->curves().method_analytes(instrument.id)) {
       const Method& method = facts.method(method_id);
       const MethodVersion* v = method.version_at(now);

@@ -55,14 +55,14 @@ TEST_CASE("e2e registry: init, instrument, method, revision, lot and withdrawal"
   CHECK(j["changed"] == true);
   CHECK(j["lab"] == "Water lab");
   CHECK(j["time_zone"] == "Europe/Berlin");
-  CHECK(j["schema_version"] == 6);
+  CHECK(j["schema_version"] == 8);
   // CURVEWARDEN_NOW is "now" for the migration record too.
   CHECK(cw::test::query_text(box.db(),
                              "SELECT group_concat(DISTINCT applied_at) FROM "
                              "schema_migrations") == "2026-03-02T08:00:00Z");
   Counts counts = cw::test::table_row_counts(box.db());
   CHECK(changes({}, counts) ==
-        Counts{{"audit_log", 1}, {"lab_settings", 1}, {"schema_migrations", 6}});
+        Counts{{"audit_log", 1}, {"lab_settings", 1}, {"schema_migrations", 7}});
 
   // 2. instrument add
   box.now = "2026-03-02T09:00:00Z";
@@ -229,13 +229,13 @@ TEST_CASE("e2e registry: init is idempotent", "[e2e]") {
     CHECK(j["changed"] == false);
     CHECK(j["lab"] == "Water lab");
     CHECK(j["time_zone"] == "America/New_York");
-    CHECK(j["schema_version"] == 6);
+    CHECK(j["schema_version"] == 8);
     CHECK(cw::test::table_row_counts(box.db()) == counts);
     CHECK(cw::test::read_file(box.db()) == bytes);
   }
   r = box.run({"init"});
   CHECK(r.out == "Store " + box.db().string() +
-                     " is up to date (schema 6): Water lab, time zone America/New_York.\n");
+                     " is up to date (schema 8): Water lab, time zone America/New_York.\n");
 
   // A new lab name is a change that needs a reason, recorded as a rename with it.
   r = box.run({"init", "--lab", "Water and soil lab", "--json"});

@@ -37,28 +37,41 @@ std::string describe(const audit::AuditEntry& e) {
          e.entity_id + ", recorded " + e.recorded_at + ")";
 }
 
-/// Streams one fact table in id order, one canonical row at a time.
+/// Streams one fact table in id order, one canonical row (as JSON text) at a time.
 class TableCursor {
  public:
   TableCursor(Database& db, const TableForm& form)
       : form_(form), path_(db.path), statement_(*db.db, select_of(form, " ORDER BY id")) {
+    for (std::size_t i = 0; i < form.columns.size(); ++i) {
+      if (form.columns[i].name == "id") id_column_ = static_cast<int>(i);
+      if (form.columns[i].name == "audit_seq") seq_column_ = static_cast<int>(i);
+    }
     advance();
   }
 
-  /// The row under the cursor (nullptr at the end) and its id and audit_seq.
-  const nlohmann::json* row() const { return done_ ? nullptr : &row_; }
-  std::int64_t id() const { return row_["id"].get<std::int64_t>(); }
-  std::int64_t audit_seq() const { return row_["audit_seq"].get<std::int64_t>(); }
+  bool done() const { return done_; }
+  /// The row under the cursor as canonical JSON text.
+  const std::string& text() const { return text_; }
+  std::int64_t id() const { return id_; }
+  std::int64_t audit_seq() const { return audit_seq_; }
   void advance() {
     done_ = !statement_.executeStep();
-    if (!done_) row_ = canonical_row(statement_, form_, path_);
+    if (done_) return;
+    id_ = statement_.getColumn(id_column_).getInt64();
+    audit_seq_ = statement_.getColumn(seq_column_).getInt64();
+    text_.clear();
+    append_canonical_row_text(text_, statement_, form_, path_);
   }
 
  private:
   const TableForm& form_;
   std::string path_;
   SQLite::Statement statement_;
-  nlohmann::json row_;
+  int id_column_ = 0;
+  int seq_column_ = 0;
+  std::string text_;
+  std::int64_t id_ = 0;
+  std::int64_t audit_seq_ = 0;
   bool done_ = false;
 };
 
@@ -120,6 +133,8 @@ VerifyReport SqliteAudit::verify() {
     for (FactTable t : tables) cursors.emplace(t, std::make_unique<TableCursor>(db_, form_of(t)));
 
     SQLite::Statement entries(*db_.db, sql::kAuditAll);
+    std::string actual_text;
+    std::vector<std::pair<FactTable, std::string>> actual_rows;
     std::string prev_hash = audit::kGenesisHash;
     std::int64_t expected_seq = 1;
     while (entries.executeStep()) {
@@ -137,11 +152,14 @@ VerifyReport SqliteAudit::verify() {
         return fail(e.seq,
                     describe(e) + " was changed after it was written (its hash does not match)");
       }
-      // The rows that name this entry, table by table, as they are stored now.
-      nlohmann::json actual = nlohmann::json::object();
+      // The rows that name this entry, table by table, as they are stored now, written as the
+      // payload's text (the canonical form, keys sorted, no spaces) and compared with it.
+      actual_text = "{";
+      actual_rows.clear();
       for (FactTable t : tables) {
         TableCursor& cursor = *cursors.at(t);
-        while (cursor.row() != nullptr && cursor.audit_seq() <= e.seq) {
+        bool first_row = true;
+        while (!cursor.done() && cursor.audit_seq() <= e.seq) {
           if (cursor.audit_seq() < e.seq) {
             // A row claiming an earlier entry that did not list it.
             return fail(cursor.audit_seq(), "row " + std::string(table_name(t)) + " id " +
@@ -149,11 +167,28 @@ VerifyReport SqliteAudit::verify() {
                                                 " has no audit entry (it was added behind the "
                                                 "tool's back)");
           }
-          actual[std::string(table_name(t))].push_back(*cursor.row());
+          if (first_row) {
+            if (actual_text.size() > 1) actual_text += ',';
+            actual_text += '"';
+            actual_text += table_name(t);
+            actual_text += "\":[";
+          } else {
+            actual_text += ',';
+          }
+          first_row = false;
+          actual_text += cursor.text();
+          actual_rows.emplace_back(t, cursor.text());
           cursor.advance();
         }
+        if (!first_row) actual_text += ']';
       }
-      if (actual.dump() != e.payload) {
+      actual_text += '}';
+      if (actual_text != e.payload) {
+        // Rebuild the rows as JSON to find what differs.
+        nlohmann::json actual = nlohmann::json::object();
+        for (const auto& [t, text] : actual_rows) {
+          actual[std::string(table_name(t))].push_back(nlohmann::json::parse(text));
+        }
         // Find what differs, in the words of the recorded payload.
         nlohmann::json recorded;
         try {
@@ -198,7 +233,7 @@ VerifyReport SqliteAudit::verify() {
     }
     for (FactTable t : tables) {
       const TableCursor& cursor = *cursors.at(t);
-      if (cursor.row() != nullptr) {
+      if (!cursor.done()) {
         return fail(cursor.audit_seq(), "row " + std::string(table_name(t)) + " id " +
                                             std::to_string(cursor.id()) +
                                             " has no audit entry (it was added behind the tool's "

@@ -154,14 +154,15 @@ std::unique_ptr<Database> Database::open(const std::string& path, bool create, i
 }
 
 SQLite::Statement& Database::statement(const char* sql) {
-  auto& slot = statements[sql];
-  if (!slot) {
-    slot = std::make_unique<SQLite::Statement>(*db, sql);
-  } else {
-    slot->reset();
-    slot->clearBindings();
+  if (auto found = statements.find(sql); found != statements.end()) {
+    found->second->reset();
+    found->second->clearBindings();
+    return *found->second;
   }
-  return *slot;
+  // Prepared before it is cached: a statement that fails to prepare (a damaged schema) leaves
+  // no empty slot behind for release_statements() to trip over.
+  auto prepared = std::make_unique<SQLite::Statement>(*db, sql);
+  return *statements.emplace(sql, std::move(prepared)).first->second;
 }
 
 void Database::release_statements() {

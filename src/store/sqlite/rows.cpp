@@ -3,7 +3,10 @@
 #include "store/sqlite/rows.h"
 
 #include <algorithm>
+#include <array>
+#include <cmath>
 #include <stdexcept>
+#include <string_view>
 
 namespace cw::store::sqlite {
 
@@ -38,6 +41,132 @@ nlohmann::json canonical_row(SQLite::Statement& s, const TableForm& form, const 
     }
   }
   return row;
+}
+
+namespace {
+
+/// The columns of a form in key order (nlohmann's objects sort their keys), computed once.
+const std::vector<std::size_t>& key_order(const TableForm& form) {
+  static std::map<FactTable, std::vector<std::size_t>> orders;
+  auto [it, inserted] = orders.try_emplace(form.table);
+  if (inserted) {
+    for (std::size_t i = 0; i < form.columns.size(); ++i) it->second.push_back(i);
+    std::sort(it->second.begin(), it->second.end(), [&](std::size_t a, std::size_t b) {
+      return form.columns[a].name < form.columns[b].name;
+    });
+  }
+  return it->second;
+}
+
+/// A string as nlohmann's dump writes it (ensure_ascii off): quotes, backslashes and control
+/// characters escaped. Text beyond ASCII goes through nlohmann itself (which also refuses
+/// invalid UTF-8, as the JSON objects did).
+void append_json_string(std::string& out, std::string_view text) {
+  static constexpr char kHex[] = "0123456789abcdef";
+  const bool ascii = std::all_of(text.begin(), text.end(),
+                                 [](char c) { return static_cast<unsigned char>(c) < 0x80; });
+  if (!ascii) {
+    out += nlohmann::json(std::string(text)).dump();
+    return;
+  }
+  out += '"';
+  for (const char c : text) {
+    switch (c) {
+      case '"':
+        out += "\\\"";
+        break;
+      case '\\':
+        out += "\\\\";
+        break;
+      case '\b':
+        out += "\\b";
+        break;
+      case '\f':
+        out += "\\f";
+        break;
+      case '\n':
+        out += "\\n";
+        break;
+      case '\r':
+        out += "\\r";
+        break;
+      case '\t':
+        out += "\\t";
+        break;
+      default:
+        if (static_cast<unsigned char>(c) <= 0x1F) {
+          out += "\\u00";
+          out += kHex[(static_cast<unsigned char>(c) >> 4) & 0xF];
+          out += kHex[static_cast<unsigned char>(c) & 0xF];
+        } else {
+          out += c;
+        }
+    }
+  }
+  out += '"';
+}
+
+}  // namespace
+
+void append_canonical_row_text(std::string& out, SQLite::Statement& s, const TableForm& form,
+                               const std::string& path) {
+  out += '{';
+  bool first = true;
+  for (const std::size_t i : key_order(form)) {
+    const Column& column = form.columns[i];
+    const SQLite::Column c = s.getColumn(static_cast<int>(i));
+    const auto wrong_kind = [&] {
+      damaged(path, std::string(form.name) + ": a value of the wrong kind in column " +
+                        std::string(column.name));
+    };
+    if (c.isNull()) {
+      if (column.added_later) continue;
+      if (!column.nullable) {
+        damaged(path, std::string(form.name) + ": NULL in the non-null column " +
+                          std::string(column.name));
+      }
+    } else if (!c.isInteger() && !c.isFloat() && !c.isText()) {
+      damaged(path, std::string(form.name) + "." + std::string(column.name) + " holds a blob");
+    }
+    if (!first) out += ',';
+    first = false;
+    out += '"';
+    out += column.name;
+    out += "\":";
+    if (c.isNull()) {
+      out += "null";
+      continue;
+    }
+    switch (column.type) {
+      case ColumnType::Integer:
+      case ColumnType::Boolean:
+        if (!c.isInteger()) wrong_kind();
+        out += std::to_string(c.getInt64());
+        break;
+      case ColumnType::Real: {
+        if (!c.isFloat()) wrong_kind();
+        const double v = c.getDouble();
+        if (!std::isfinite(v)) {
+          out += "null";
+        } else {
+          std::array<char, 64> buffer{};
+          const char* end =
+              nlohmann::detail::to_chars(buffer.data(), buffer.data() + buffer.size(), v);
+          out.append(buffer.data(), static_cast<std::size_t>(end - buffer.data()));
+        }
+        break;
+      }
+      case ColumnType::Text:
+      case ColumnType::Instant:
+      case ColumnType::Date:
+      case ColumnType::Json:
+        if (!c.isText()) wrong_kind();
+        append_json_string(out,
+                           std::string_view(c.getText(), static_cast<std::size_t>(c.getBytes())));
+        break;
+    }
+  }
+  out += '}';
 }
 
 std::string PayloadBuilder::payload(const std::vector<std::pair<FactTable, std::int64_t>>& rows) {

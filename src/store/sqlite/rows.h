@@ -26,6 +26,12 @@ std::string select_of(const TableForm& form, const std::string& tail);
 /// value does not fit its column.
 nlohmann::json canonical_row(SQLite::Statement& s, const TableForm& form, const std::string& path);
 
+/// Appends the current row of `s` (selected with select_of) as canonical JSON text: exactly
+/// canonical_row(...).dump(), written straight from the columns without building a JSON object
+/// (the hot path of `audit verify`). Same checks and errors as canonical_row.
+void append_canonical_row_text(std::string& out, SQLite::Statement& s, const TableForm& form,
+                               const std::string& path);
+
 /// The payload of an audit entry: {"table": [row, ...], ...}, tables sorted by name, rows by id,
 /// serialised compactly. This text is what the entry's hash covers.
 class PayloadBuilder {

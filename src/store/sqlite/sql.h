@@ -109,8 +109,10 @@ inline constexpr const char* kCurveIdsFiltered =
     "(:analyte IS NULL OR analyte = :analyte) AND acquired_at <= :by ORDER BY acquired_at, id";
 inline constexpr const char* kCurvesOfCalibration =
     "SELECT id FROM curves WHERE calibration_id = :id ORDER BY id";
+// The group's index by expiry: only its live curves are read, whatever its history.
 inline constexpr const char* kLiveInGroup =
-    "SELECT id FROM curves WHERE method_id = :method AND instrument_id = :instrument AND "
+    "SELECT id FROM curves INDEXED BY curves_by_group_expiry "
+    "WHERE method_id = :method AND instrument_id = :instrument AND "
     "analyte = :analyte AND acquired_at >= :after AND acquired_at <= :by AND expires_at > :by "
     "ORDER BY acquired_at DESC, id DESC";
 inline constexpr const char* kLatestInGroup =
@@ -126,23 +128,28 @@ inline constexpr const char* kCurvesExpiringBetween =
 inline constexpr const char* kLiveOfInstrument =
     "SELECT id FROM curves WHERE instrument_id = :instrument AND expires_at > :t AND "
     "acquired_at <= :t ORDER BY acquired_at, id";
+// Settled curves counted in two steps: per curve only index lookups (its reviews, its
+// retirements, its calibration's method version), grouped by method version; the version's
+// definition (JSON) is then read once per group, not once per curve.
 inline constexpr const char* kSettledGroups =
-    "SELECT c.verdict, "
-    "  EXISTS (SELECT 1 FROM curve_reviews r WHERE r.curve_id = c.id AND r.decision = 'reject' "
-    "          AND r.occurred_at <= :t) AS rejected_by_review, "
-    "  EXISTS (SELECT 1 FROM curve_retirements x WHERE x.curve_id = c.id "
-    "          AND x.occurred_at <= :t) AS retired, "
+    "SELECT g.verdict, g.review = 1 AS rejected_by_review, g.retired, "
     "  coalesce(v.definition ->> '$.calibration.review_required', 1) AS review_required, "
-    "  EXISTS (SELECT 1 FROM curve_reviews r WHERE r.curve_id = c.id "
-    "          AND r.occurred_at <= :t) AS reviewed, "
-    "  count(*) "
-    "FROM curves c JOIN calibrations k ON k.id = c.calibration_id "
-    "JOIN method_versions v ON v.id = k.method_version_id "
-    "WHERE c.instrument_id = :instrument AND c.expires_at <= :t "
+    "  g.review >= 0 AS reviewed, sum(g.n) "
+    "FROM (SELECT c.verdict, "
+    "        coalesce((SELECT max(r.decision = 'reject') FROM curve_reviews r "
+    "                  WHERE r.curve_id = c.id AND r.occurred_at <= :t), -1) AS review, "
+    "        EXISTS (SELECT 1 FROM curve_retirements x WHERE x.curve_id = c.id "
+    "                AND x.occurred_at <= :t) AS retired, "
+    "        k.method_version_id AS mv, count(*) AS n "
+    "      FROM curves c INDEXED BY curves_by_instrument_settled "
+    "      JOIN calibrations k ON k.id = c.calibration_id "
+    "      WHERE c.instrument_id = :instrument AND c.expires_at <= :t "
+    "      GROUP BY 1, 2, 3, 4) g "
+    "JOIN method_versions v ON v.id = g.mv "
     "GROUP BY 1, 2, 3, 4, 5";
 inline constexpr const char* kMethodAnalytes =
-    "SELECT DISTINCT method_id, analyte FROM curves WHERE instrument_id = :instrument "
-    "ORDER BY method_id, analyte";
+    "SELECT DISTINCT method_id, analyte FROM curves INDEXED BY curves_by_instrument_group "
+    "WHERE instrument_id = :instrument ORDER BY method_id, analyte";
 inline constexpr const char* kCurvesOfLot =
     "SELECT c.id FROM calibration_lots l JOIN curves c ON c.calibration_id = l.calibration_id "
     "WHERE l.lot_id = :lot ORDER BY c.acquired_at, c.id";
@@ -200,7 +207,7 @@ inline constexpr const char* kChecksFiltered =
 inline constexpr const char* kRecentFailedChecks =
     "SELECT k.id, k.curve_id, k.kind, k.nominal, k.response, k.is_response, k.measured, "
     "k.recovery_pct, k.limit_low, k.limit_high, k.passed, k.analyst, k.occurred_at, m.run_id "
-    "FROM checks k JOIN curves c ON c.id = k.curve_id "
+    "FROM checks k INDEXED BY checks_failed_by_time JOIN curves c ON c.id = k.curve_id "
     "LEFT JOIN run_checks m ON m.check_id = k.id WHERE c.instrument_id = :instrument "
     "AND k.passed = 0 AND k.occurred_at <= :by ORDER BY k.occurred_at DESC, k.id DESC "
     "LIMIT :limit";

@@ -68,7 +68,8 @@ std::vector<std::string> table_names(RawDb& raw) {
 
 TEST_CASE("store: the migrations compiled in are the files of migrations/, in order", "[store]") {
   const auto m = cw::store::sqlite::embedded_migrations();
-  REQUIRE(m.size() == 6);
+  // 0007 is taken by the users-and-signatures branch; 0008 adds indexes for status.
+  REQUIRE(m.size() == 7);
   CHECK(m[0].version == 1);
   CHECK(m[0].name == "0001_create_audit_and_registries");
   CHECK(m[1].version == 2);
@@ -81,6 +82,8 @@ TEST_CASE("store: the migrations compiled in are the files of migrations/, in or
   CHECK(m[4].name == "0005_add_censoring_and_uncertainty");
   CHECK(m[5].version == 6);
   CHECK(m[5].name == "0006_record_runs_and_status_events");
+  CHECK(m[6].version == 8);
+  CHECK(m[6].name == "0008_index_curves_for_status");
   CHECK_THAT(m[0].sql, Catch::Contains("CREATE TABLE audit_log"));
 }
 
@@ -141,7 +144,7 @@ TEST_CASE("store: a fresh store records every migration, user_version and applic
   const std::string header = read_bytes(path).substr(0, 100);
   CHECK(header.substr(0, 16) == std::string("SQLite format 3\0", 16));
   CHECK(header.substr(68, 4) == "CWRD");  // application_id 0x43575244
-  CHECK(header.substr(60, 4) == std::string("\0\0\0\x06", 4));
+  CHECK(header.substr(60, 4) == std::string("\0\0\0", 3) + static_cast<char>(kLatest));
   CHECK(header[18] == 2);  // WAL
   CHECK(header[19] == 2);
 }

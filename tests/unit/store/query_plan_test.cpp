@@ -28,7 +28,7 @@ TEST_CASE("store: every per-curve and per-group lookup searches an index", "[sto
   };
   const std::vector<Expectation> expected = {
       {"expiring", sql::kCurvesExpiringBetween, "curves_by_expiry", "curves"},
-      {"live in group", sql::kLiveInGroup, "curves_by_group", "curves"},
+      {"live in group", sql::kLiveInGroup, "curves_by_group_expiry", "curves"},
       {"latest in group", sql::kLatestInGroup, "curves_by_group", "curves"},
       {"live of instrument", sql::kLiveOfInstrument, "curves_by_instrument", "curves"},
       {"curves of a calibration", sql::kCurvesOfCalibration, "curves_by_calibration", "curves"},
@@ -42,6 +42,12 @@ TEST_CASE("store: every per-curve and per-group lookup searches an index", "[sto
       {"points of curves", sql::kPointsOf, "sqlite_autoindex_curve_points", "curve_points"},
       {"service events of instruments", sql::kServiceEventsOf,
        "instrument_service_events_by_instrument", "instrument_service_events"},
+      {"settled curves of an instrument", sql::kSettledGroups,
+       "COVERING INDEX curves_by_instrument_settled", "curves"},
+      {"method and analyte pairs of an instrument", sql::kMethodAnalytes,
+       "COVERING INDEX curves_by_instrument_group", "curves"},
+      {"recent failed checks of an instrument", sql::kRecentFailedChecks, "checks_failed_by_time",
+       "checks"},
   };
   for (const auto& e : expected) {
     INFO(e.name);
