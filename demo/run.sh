@@ -16,18 +16,31 @@ cmake --build "$build" -j "$(nproc)" --target curvewarden curvewarden-docs
 
 rm -rf "$out" && mkdir -p "$out"
 export CURVEWARDEN_DB="$out/demo.db"
-export CURVEWARDEN_USER="r.okafor"      # the bench analyst (fictional)
+export CURVEWARDEN_USER="r.okafor"      # the bench analyst and the lab's first admin (fictional)
 cw="$build/curvewarden"
 
 # Bold headings on a terminal only: a log or a pipe gets plain text.
 if [ -t 1 ]; then bold=$'\033[1m' plain=$'\033[0m'; else bold="" plain=""; fi
 step() { printf '\n%s== %s%s\n' "$bold" "$*" "$plain"; }
 show() { printf '$ curvewarden %s\n' "$*"; "$cw" "$@" || printf '(exit %d)\n' "$?"; }
+# Signed acts read the passphrase from descriptor 3 here (on a terminal they ask without echo):
+# signed_as() runs a command as USER with that user's demo passphrase.
+printf 'okafor: four calm rivers\n' >"$out/r.okafor.pass"
+printf 'lindqvist: seven late trains\n' >"$out/j.lindqvist.pass"
+signed_as() {
+  local user="$1"; shift
+  printf '$ curvewarden %s   (as %s, signed)\n' "$*" "$user"
+  CURVEWARDEN_USER="$user" "$cw" "$@" --passphrase-fd 3 3<"$out/$user.pass" || printf '(exit %d)\n' "$?"
+}
 at() { export CURVEWARDEN_NOW="$1"; }   # the demo fixes "now" so that it plays the same every time
 
 at 2026-11-30T07:30:00Z
-step "Set up the lab, an instrument, a method and two reference-material lots"
-show init --lab "Millbrook Water Laboratory" --tz Europe/Berlin
+step "Set up the lab and its users, an instrument, a method and two reference-material lots"
+signed_as r.okafor init --lab "Millbrook Water Laboratory" --tz Europe/Berlin --name "Rosa Okafor"
+printf '$ curvewarden user add j.lindqvist --name "Jonas Lindqvist" --role reviewer   (signed; then his first passphrase)\n'
+cat "$out/r.okafor.pass" "$out/j.lindqvist.pass" |
+  "$cw" user add j.lindqvist --name "Jonas Lindqvist" --role reviewer --passphrase-fd 0
+show user list
 show instrument add IC-02 --name "Ion chromatograph, bay 2"
 show method add "$data/anion-ic.toml"
 show lot add CRM-AN-0419 --material "Anion multi-element standard 1000 mg/L" --expires 2027-06-30 \
@@ -43,9 +56,9 @@ step "A calibration that fails the method's criteria is stored as rejected (exit
 show curve log --method ANION-IC --instrument IC-02 --lot CRM-AN-0419 --points "$data/ical-poor.csv"
 
 step "The analyst cannot approve her own curve; a second person can"
-show curve review 1 --approve --reason "own work"
-CURVEWARDEN_USER="j.lindqvist" show curve review 1 --approve --reason "fit, residuals and exclusions checked"
-CURVEWARDEN_USER="j.lindqvist" show curve review 2 --approve --reason "fit, residuals and exclusions checked"
+signed_as r.okafor curve review 1 --approve --reason "own work"
+signed_as j.lindqvist curve review 1 --approve --reason "fit, residuals and exclusions checked"
+signed_as j.lindqvist curve review 2 --approve --reason "fit, residuals and exclusions checked"
 show curve list
 
 at 2026-11-30T09:00:00Z
@@ -64,7 +77,7 @@ show quantify --method ANION-IC --instrument IC-02 --analyte nitrate --response 
 
 at 2026-12-01T07:00:00Z
 step "Tuesday: the method is revised; Monday's curves stop being valid"
-show method revise "$data/anion-ic-v2.toml" --reason "guard column changed (change control CC-2026-114)"
+signed_as r.okafor method revise "$data/anion-ic-v2.toml" --reason "guard column changed (change control CC-2026-114)"
 show quantify --curve 2 --response 1.0 --sample MW-1192
 step "Time travel: the same curve as it was on Monday afternoon"
 show curve show 2 --at 2026-11-30T14:00:00Z
@@ -72,8 +85,8 @@ show curve show 2 --at 2026-11-30T14:00:00Z
 at 2026-12-01T08:30:00Z
 step "Recalibrate under version 2 with the second-source lot, which expires on Thursday"
 show curve log --method ANION-IC --instrument IC-02 --lot CRM-AN-0388 --points "$data/ical-2026-12-01.csv"
-CURVEWARDEN_USER="j.lindqvist" show curve review 4 --approve --reason "fit and residuals checked"
-CURVEWARDEN_USER="j.lindqvist" show curve review 5 --approve --reason "fit and residuals checked"
+signed_as j.lindqvist curve review 4 --approve --reason "fit and residuals checked"
+signed_as j.lindqvist curve review 5 --approve --reason "fit and residuals checked"
 show check log --curve 4 --nominal 10 --response 0.998
 show check log --curve 5 --nominal 25 --response 0.751
 show quantify --method ANION-IC --instrument IC-02 --analyte nitrate --response 1.52 --sample MW-1190-R
@@ -93,7 +106,7 @@ show trace result 9
 show trend --method ANION-IC --instrument IC-02 --analyte nitrate
 
 step "A lot is withdrawn: which curves and results does it touch?"
-show lot withdraw CRM-AN-0419 --reason "supplier recall notice R-7731"
+signed_as r.okafor lot withdraw CRM-AN-0419 --reason "supplier recall notice R-7731"
 show trace lot CRM-AN-0419
 show trace lot CRM-AN-0419 --csv
 

@@ -42,6 +42,11 @@ TEST_CASE("store: every per-curve and per-group lookup searches an index", "[sto
       {"points of curves", sql::kPointsOf, "sqlite_autoindex_curve_points", "curve_points"},
       {"service events of instruments", sql::kServiceEventsOf,
        "instrument_service_events_by_instrument", "instrument_service_events"},
+      {"status events of users", sql::kUserEventsOf, "user_events_by_user", "user_events"},
+      {"a user's passphrase", sql::kPassphraseOf, "user_passphrases_by_user", "user_passphrases"},
+      {"a user's wrong passphrases", sql::kFailedSignaturesInARow, "signature_failures_by_user",
+       "signature_failures"},
+      {"signatures of records", sql::kSignaturesOf, "signatures_by_entity", "signatures"},
   };
   for (const auto& e : expected) {
     INFO(e.name);
