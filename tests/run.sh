@@ -40,6 +40,6 @@ for t in "${targets[@]}"; do
   work="$fuzz/corpus-$t"
   mkdir -p "$work"
   echo "fuzz_$t: ${seconds} s from tests/fuzz/corpus/$t"
-  UBSAN_OPTIONS=halt_on_error=1:print_stacktrace=1 "$fuzz/fuzz_$t" -max_total_time="$seconds" \
+  UBSAN_OPTIONS=halt_on_error=1:print_stacktrace=1 "$fuzz/tests/fuzz/fuzz_$t" -max_total_time="$seconds" \
     -max_len=65536 -timeout=10 -print_final_stats=1 "$work" "$root/tests/fuzz/corpus/$t"
 done
