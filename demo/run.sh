@@ -40,12 +40,26 @@ day() { printf '\n%s######## %s%s\n' "$bold" "$*" "$plain"; }
 echo_cmd() {
   printf '$ curvewarden'
   printf ' %q' "$@"
+  if [ -n "$pass_file" ]; then printf ' 3<%s' "$pass_file"; fi
   printf '\n'
+}
+# Signed acts (curve review, method revise, lot withdraw, instrument service, user changes) ask
+# for the signer's passphrase without echo on a terminal; here they read it from descriptor 3.
+pass_file=""
+run_cw() {
+  if [ -n "$pass_file" ]; then "$cw" "$@" 3<"$pass_file"; else "$cw" "$@"; fi
+}
+signed() { # USER show|brief ARGS...: the act signed by USER
+  local user=$1 how=$2
+  shift 2
+  pass_file="$user.pass"
+  "$how" "$@" --as "$user" --passphrase-fd 3
+  pass_file=""
 }
 # Runs a command and shows all it prints; a non-zero exit is shown, never fatal.
 show() {
   echo_cmd "$@"
-  "$cw" "$@" || printf '(exit %d)\n' "$?"
+  run_cw "$@" || printf '(exit %d)\n' "$?"
 }
 # Runs a routine command: its first line here, all of it in log/.
 nlog=0
@@ -55,7 +69,7 @@ brief() {
   log=$(printf 'log/%03d-%s.txt' "$nlog" "$1")
   echo_cmd "$@"
   local rc=0
-  "$cw" "$@" >"$log" 2>&1 || rc=$?
+  run_cw "$@" >"$log" 2>&1 || rc=$?
   printf '  %s' "$(head -n 1 "$log")"
   if [ "$rc" -ne 0 ]; then printf '  (exit %d)' "$rc"; fi
   printf '  [%s]\n' "$log"
@@ -77,7 +91,7 @@ curve_of() { # instrument analyte state → the newest curve id in that state
 review_all() { # the second person approves every curve of an instrument awaiting review
   local id
   for id in $(awaiting_review "$1"); do
-    brief curve review "$id" --approve --as j.lindqvist --reason "fit, residuals and exclusions checked"
+    signed j.lindqvist brief curve review "$id" --approve --reason "fit, residuals and exclusions checked"
   done
 }
 
@@ -123,12 +137,19 @@ daily_runs() { # YYYY-MM-DD seed "nitrate opening/closing" [extra run-import arg
   brief run import "data/run-GC-01-$date.csv" --method THM-GC --instrument GC-01
 }
 
+# The lab's two people (fictional) and their demo passphrases.
+printf 'okafor: four calm rivers\n' >r.okafor.pass
+printf 'lindqvist: seven late trains\n' >j.lindqvist.pass
 echo "Working in $out (the store is $out/demo.db). To paste a command: cd $out; export CURVEWARDEN_DB=demo.db CURVEWARDEN_USER=r.okafor"
 
 day "Week 1 — Monday 16 November 2026"
 at 2026-11-16T07:00:00Z
-step "Set up the lab: three instruments, three methods, four reference-material lots"
-show init --lab "Millbrook Water Laboratory" --tz Europe/Berlin
+step "Set up the lab and its users (Rosa Okafor, analyst and first admin; Jonas Lindqvist, reviewer),"
+printf '   three instruments, three methods, four reference-material lots\n'
+signed r.okafor show init --lab "Millbrook Water Laboratory" --tz Europe/Berlin --name "Rosa Okafor"
+printf '$ cat r.okafor.pass j.lindqvist.pass | curvewarden user add j.lindqvist --name "Jonas Lindqvist" --role reviewer --passphrase-fd 0\n'
+cat r.okafor.pass j.lindqvist.pass | "$cw" user add j.lindqvist --name "Jonas Lindqvist" --role reviewer --passphrase-fd 0
+show user list
 show instrument add IC-01 --name "Ion chromatograph, bay 1 (cations)"
 show instrument add IC-02 --name "Ion chromatograph, bay 2 (anions)"
 show instrument add GC-01 --name "Gas chromatograph with headspace sampler"
@@ -164,8 +185,8 @@ calibration ical-GC-01-2026-11-16b.csv "$thm_spec" 14 -v is_area=48000
 brief curve log --method THM-GC --instrument GC-01 --lot CRM-THM-0077 --points data/ical-GC-01-2026-11-16b.csv
 
 at 2026-11-16T09:00:00Z
-step "The analyst cannot approve her own curve (exit 3, recorded); a second person reviews"
-show curve review 1 --approve --reason "own work"
+step "The analyst cannot approve her own curve (exit 3, recorded); a second person reviews, signing"
+signed r.okafor show curve review 1 --approve --reason "own work"
 review_all IC-02
 review_all IC-01
 review_all GC-01
@@ -223,9 +244,9 @@ show curve list --instrument IC-02
 
 at 2026-11-27T10:00:00Z
 step "The instrument is serviced; its curves stop being valid; recalibrate and re-run the samples"
-show instrument service IC-02 --out --reason "nitrate check drift: suppressor replaced, eluent renewed (work order WO-5521)"
+signed r.okafor show instrument service IC-02 --out --reason "nitrate check drift: suppressor replaced, eluent renewed (work order WO-5521)"
 at 2026-11-27T11:30:00Z
-show instrument service IC-02 --back --reason "system suitability passed after service"
+signed r.okafor show instrument service IC-02 --back --reason "system suitability passed after service"
 at 2026-11-27T12:00:00Z
 calibration ical-IC-02-2026-11-27.csv "$anion_spec" 31
 brief curve log --method ANION-IC --instrument IC-02 --lot CRM-AN-0419 --points data/ical-IC-02-2026-11-27.csv
@@ -252,7 +273,7 @@ daily_runs 2026-11-30 301 "100.2/99.5"
 
 day "Tuesday 1 December: the anion method is revised"
 at 2026-12-01T07:00:00Z
-show method revise data/anion-ic-v2.toml --reason "guard column changed (change control CC-2026-114)"
+signed r.okafor show method revise data/anion-ic-v2.toml --reason "guard column changed (change control CC-2026-114)"
 step "Quantitation against version 1's curve is refused (exit 3), with the reason"
 show quantify --method ANION-IC --instrument IC-02 --analyte nitrate --response 0.742 --sample DW-1201-99
 at 2026-12-01T07:30:00Z
@@ -264,7 +285,7 @@ daily_runs 2026-12-01 311 "99.7/100.6"
 
 day "Wednesday 2 December: a lot is withdrawn"
 at 2026-12-02T07:00:00Z
-show lot withdraw CRM-AN-0419 --reason "supplier notice SN-2026-88: nitrate value under investigation"
+signed r.okafor show lot withdraw CRM-AN-0419 --reason "supplier notice SN-2026-88: nitrate value under investigation"
 step "Which curves and results did it touch?"
 brief trace lot CRM-AN-0419
 excerpt 2 14

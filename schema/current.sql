@@ -146,6 +146,36 @@ CREATE INDEX runs_by_audit_seq ON runs (audit_seq);
 -- index runs_by_sha256
 CREATE INDEX runs_by_sha256 ON runs (file_sha256);
 
+-- index signature_failures_by_audit_seq
+CREATE INDEX signature_failures_by_audit_seq ON signature_failures (audit_seq);
+
+-- index signature_failures_by_user
+CREATE INDEX signature_failures_by_user ON signature_failures (user_id, id);
+
+-- index signatures_by_audit_seq
+CREATE INDEX signatures_by_audit_seq ON signatures (audit_seq);
+
+-- index signatures_by_entity
+CREATE INDEX signatures_by_entity ON signatures (entity_kind, entity_id, id);
+
+-- index signatures_by_user
+CREATE INDEX signatures_by_user ON signatures (user_id, id);
+
+-- index user_events_by_audit_seq
+CREATE INDEX user_events_by_audit_seq ON user_events (audit_seq);
+
+-- index user_events_by_user
+CREATE INDEX user_events_by_user ON user_events (user_id, id);
+
+-- index user_passphrases_by_audit_seq
+CREATE INDEX user_passphrases_by_audit_seq ON user_passphrases (audit_seq);
+
+-- index user_passphrases_by_user
+CREATE INDEX user_passphrases_by_user ON user_passphrases (user_id, id);
+
+-- index users_by_audit_seq
+CREATE INDEX users_by_audit_seq ON users (audit_seq);
+
 -- table audit_log
 CREATE TABLE audit_log (
   seq              INTEGER PRIMARY KEY,           -- 1, 2, 3, ... without gaps
@@ -161,7 +191,7 @@ CREATE TABLE audit_log (
   payload          TEXT    NOT NULL,              -- canonical JSON of the rows written
   prev_hash        TEXT    NOT NULL CHECK (length(prev_hash) = 64),
   hash             TEXT    NOT NULL CHECK (length(hash) = 64)
-) STRICT;
+, os_login TEXT) STRICT;
 
 -- table calibration_lots
 CREATE TABLE calibration_lots (
@@ -473,6 +503,57 @@ CREATE TABLE schema_migrations (
   applied_at TEXT    NOT NULL
 ) STRICT;
 
+-- table signature_failures
+CREATE TABLE signature_failures (
+  id          INTEGER PRIMARY KEY AUTOINCREMENT,
+  user_id     INTEGER NOT NULL REFERENCES users (id),
+  action      TEXT    NOT NULL,
+  occurred_at TEXT    NOT NULL,
+  audit_seq   INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
+-- table signatures
+CREATE TABLE signatures (
+  id          INTEGER PRIMARY KEY AUTOINCREMENT,
+  user_id     INTEGER NOT NULL REFERENCES users (id),
+  name        TEXT    NOT NULL,                 -- the signer's full name when signing
+  meaning     TEXT    NOT NULL,                 -- 'approved', 'rejected', 'retired', ...
+  entity_kind TEXT    NOT NULL,
+  entity_id   TEXT    NOT NULL,
+  signed_at   TEXT    NOT NULL,                 -- UTC; shown in the lab's zone
+  audit_seq   INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
+-- table user_events
+CREATE TABLE user_events (
+  id          INTEGER PRIMARY KEY AUTOINCREMENT,
+  user_id     INTEGER NOT NULL REFERENCES users (id),
+  status      TEXT    NOT NULL CHECK (status IN ('enabled', 'disabled')),
+  role        TEXT    NOT NULL CHECK (role IN ('analyst', 'reviewer', 'quality', 'admin')),
+  reason      TEXT    NOT NULL,
+  by_user     TEXT    NOT NULL,                 -- the code of the user who made the change
+  occurred_at TEXT    NOT NULL,
+  audit_seq   INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
+-- table user_passphrases
+CREATE TABLE user_passphrases (
+  id          INTEGER PRIMARY KEY AUTOINCREMENT,
+  user_id     INTEGER NOT NULL REFERENCES users (id),
+  hash        TEXT    NOT NULL,                 -- Argon2id, libsodium's crypto_pwhash_str form
+  occurred_at TEXT    NOT NULL,
+  audit_seq   INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
+-- table users
+CREATE TABLE users (
+  id            INTEGER PRIMARY KEY AUTOINCREMENT,
+  code          TEXT    NOT NULL UNIQUE,        -- canonical: ASCII letters in lower case
+  name          TEXT    NOT NULL,               -- full name, shown with every signature
+  registered_at TEXT    NOT NULL,
+  audit_seq     INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
 -- trigger audit_log_no_delete
 CREATE TRIGGER audit_log_no_delete BEFORE DELETE ON audit_log
 BEGIN SELECT RAISE(ABORT, 'audit_log is append-only: rows cannot be deleted'); END;
@@ -664,5 +745,45 @@ BEGIN SELECT RAISE(ABORT, 'schema_migrations is append-only: rows cannot be dele
 -- trigger schema_migrations_no_update
 CREATE TRIGGER schema_migrations_no_update BEFORE UPDATE ON schema_migrations
 BEGIN SELECT RAISE(ABORT, 'schema_migrations is append-only: rows cannot be changed'); END;
+
+-- trigger signature_failures_no_delete
+CREATE TRIGGER signature_failures_no_delete BEFORE DELETE ON signature_failures
+BEGIN SELECT RAISE(ABORT, 'signature_failures is append-only: rows cannot be deleted'); END;
+
+-- trigger signature_failures_no_update
+CREATE TRIGGER signature_failures_no_update BEFORE UPDATE ON signature_failures
+BEGIN SELECT RAISE(ABORT, 'signature_failures is append-only: rows cannot be changed'); END;
+
+-- trigger signatures_no_delete
+CREATE TRIGGER signatures_no_delete BEFORE DELETE ON signatures
+BEGIN SELECT RAISE(ABORT, 'signatures is append-only: rows cannot be deleted'); END;
+
+-- trigger signatures_no_update
+CREATE TRIGGER signatures_no_update BEFORE UPDATE ON signatures
+BEGIN SELECT RAISE(ABORT, 'signatures is append-only: rows cannot be changed'); END;
+
+-- trigger user_events_no_delete
+CREATE TRIGGER user_events_no_delete BEFORE DELETE ON user_events
+BEGIN SELECT RAISE(ABORT, 'user_events is append-only: rows cannot be deleted'); END;
+
+-- trigger user_events_no_update
+CREATE TRIGGER user_events_no_update BEFORE UPDATE ON user_events
+BEGIN SELECT RAISE(ABORT, 'user_events is append-only: rows cannot be changed'); END;
+
+-- trigger user_passphrases_no_delete
+CREATE TRIGGER user_passphrases_no_delete BEFORE DELETE ON user_passphrases
+BEGIN SELECT RAISE(ABORT, 'user_passphrases is append-only: rows cannot be deleted'); END;
+
+-- trigger user_passphrases_no_update
+CREATE TRIGGER user_passphrases_no_update BEFORE UPDATE ON user_passphrases
+BEGIN SELECT RAISE(ABORT, 'user_passphrases is append-only: rows cannot be changed'); END;
+
+-- trigger users_no_delete
+CREATE TRIGGER users_no_delete BEFORE DELETE ON users
+BEGIN SELECT RAISE(ABORT, 'users is append-only: rows cannot be deleted'); END;
+
+-- trigger users_no_update
+CREATE TRIGGER users_no_update BEFORE UPDATE ON users
+BEGIN SELECT RAISE(ABORT, 'users is append-only: rows cannot be changed'); END;
 
 PRAGMA user_version = 8;

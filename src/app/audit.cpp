@@ -2,6 +2,11 @@
 // Audit trail use cases.
 #include "app/audit.h"
 
+#include <filesystem>
+
+#include "core/error.h"
+#include "store/backup.h"
+
 namespace cw::app {
 
 std::vector<audit::AuditEntry> audit_log(Session& s, const store::AuditFilter& filter) {
@@ -14,6 +19,30 @@ VerifyOutcome verify_audit(Session& s) {
   out.missing_guards = s.store().missing_guards();
   auto unit = s.read();
   out.chain = unit->audit().verify();
+  return out;
+}
+
+VerifyOutcome backup(Session& s, const std::string& destination) {
+  store::backup_store(s.location(), destination);
+  VerifyOutcome out;
+  {
+    store::OpenOptions o;
+    o.location = destination;
+    auto copy = store::Store::open(o);
+    out.missing_guards = copy->missing_guards();
+    out.chain = copy->read()->audit().verify();
+  }
+  if (!out.chain.ok || !out.missing_guards.empty()) {
+    std::error_code ec;
+    for (const char* suffix : {"", "-wal", "-shm"}) {
+      std::filesystem::remove(destination + suffix, ec);
+    }
+    throw StoreError(
+        "the copy of '" + s.location() + "' does not verify (" +
+            (out.chain.ok ? std::string("append-only guards missing") : out.chain.problem) +
+            "); it was removed",
+        "run 'curvewarden audit verify' on the store itself");
+  }
   return out;
 }
 

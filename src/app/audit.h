@@ -19,4 +19,9 @@ struct VerifyOutcome {
 /// Verifies the chain and checks the append-only guards.
 VerifyOutcome verify_audit(Session& s);
 
+/// Copies the session's store to the new file `destination` while others may write (one
+/// consistent snapshot), then opens the copy and verifies it as `audit verify` does; a copy that
+/// does not verify is removed and StoreError (exit 4) thrown. Returns the copy's verification.
+VerifyOutcome backup(Session& s, const std::string& destination);
+
 }  // namespace cw::app

@@ -24,6 +24,17 @@ std::vector<CurveView> make_views(FactSet& facts, const std::vector<CurveId>& id
   std::vector<CurveView> out;
   out.reserve(ids.size());
   for (CurveId id : ids) out.push_back(make_view(facts, id, states.at(id), at));
+  if (with_points) {
+    // Full views (curve show, log, review) carry the signatures: the manifestation of 21 CFR
+    // 11.50 goes wherever the signed record is shown.
+    for (Signature& g : facts.signatures_of(ids)) {
+      for (CurveView& v : out) {
+        if (std::to_string(v.curve.id.value) == g.entity_id && g.signed_at <= at) {
+          v.signatures.push_back(g);
+        }
+      }
+    }
+  }
   return out;
 }
 

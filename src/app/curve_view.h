@@ -10,6 +10,7 @@
 #include "domain/curve_state.h"
 #include "domain/lot.h"
 #include "domain/method.h"
+#include "domain/signature.h"
 
 namespace cw::app {
 
@@ -21,6 +22,7 @@ struct CurveView {
   std::vector<Lot> lots;
   CurveStatus status;
   Instant as_of;
+  std::vector<Signature> signatures;  ///< electronic signatures given to the curve, oldest first
 };
 
 /// The view of curve `id` with `status` (its state at `at`), from facts already loaded.

@@ -7,6 +7,8 @@
 
 #include "app/refusal.h"
 #include "app/registry.h"
+#include "app/signatures.h"
+#include "app/users.h"
 #include "core/error.h"
 #include "core/text.h"
 #include "domain/expiry.h"
@@ -249,6 +251,7 @@ CurveLogOutcome log_calibration(Session& s, const CurveLogRequest& r) {
 
   // 2. One transaction: the same checks on the current facts, then the facts and entries.
   auto unit = s.write();
+  authorize(s, *unit, Permission::Log, "curve.log", "method", r.method);
   const CalibrationBasis now = load_basis(*unit, r, at, s.zone());
   if (now.version_id != basis.version_id || now.mapping != basis.mapping) {
     // The method was revised (or the instrument's columns saved) in between: read and judge
@@ -344,13 +347,21 @@ CurveView show_curve(Session& s, CurveId id) {
 CurveView change_curve(Session& s, CurveId id, CurveAction action, const std::string& reason) {
   const Instant at = s.at();
   const std::string entity = std::to_string(id.value);
+  const std::string attempted = action == CurveAction::Retire ? "curve.retire" : "curve.review";
+  const std::string meaning = action == CurveAction::Approve  ? "approved"
+                              : action == CurveAction::Reject ? "rejected"
+                                                              : "retired";
+  std::string passphrase = ask_signature(s, meaning);
   auto unit = s.write();
+  const User user =
+      authorize(s, *unit, action == CurveAction::Retire ? Permission::Retire : Permission::Review,
+                attempted, "curve", entity);
   {
     FactSet facts(*unit, s.zone());
     const Curve& c = facts.curve(id);
     require_acquired(at, c, s.zone());
     const CurveStatus status = facts.status(id, at);
-    const bool self = c.analyst == s.actor().name;
+    const bool self = canonical_user_code(c.analyst) == canonical_user_code(s.actor().name);
     if (const auto refusal = transition_refusal(action, status.state, c.verdict, self)) {
       std::string message;
       switch (*refusal) {
@@ -380,10 +391,10 @@ CurveView change_curve(Session& s, CurveId id, CurveAction action, const std::st
           }
         }
       }
-      const std::string attempted = action == CurveAction::Retire ? "curve.retire" : "curve.review";
       refuse(*unit, attempted, "curve", entity, {*refusal}, message, at);
     }
   }
+  sign(s, *unit, user, passphrase, {attempted, meaning, "curve", entity});
   if (action == CurveAction::Retire) {
     unit->curve_writer().add_retirement(id, {s.actor().name, reason, at});
     unit->append_entry({"curve.retire", "curve", entity, reason, at});

@@ -227,4 +227,11 @@ std::map<CurveId, CurveStatus> FactSet::statuses(const std::vector<CurveId>& ids
   return out;
 }
 
+std::vector<Signature> FactSet::signatures_of(const std::vector<CurveId>& ids) {
+  std::vector<std::string> keys;
+  keys.reserve(ids.size());
+  for (CurveId id : ids) keys.push_back(std::to_string(id.value));
+  return unit_.registry().signatures_of("curve", keys);
+}
+
 }  // namespace cw::app

@@ -33,6 +33,8 @@ class FactSet {
   const Calibration& calibration(CalibrationId id);
   const MethodVersion& version_of(CurveId id) { return facts(id).version(); }
   std::vector<const Lot*> lots_of(CurveId id) { return facts(id).lots; }
+  /// The electronic signatures given to these curves, oldest first (one query).
+  std::vector<Signature> signatures_of(const std::vector<CurveId>& ids);
 
   /// The state at `at`, superseded included (the group's newer live curves are loaded).
   CurveStatus status(CurveId id, Instant at);

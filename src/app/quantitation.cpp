@@ -5,6 +5,7 @@
 #include "app/curves.h"
 #include "app/refusal.h"
 #include "app/registry.h"
+#include "app/users.h"
 #include "core/error.h"
 #include "core/text.h"
 #include "domain/bracketing.h"
@@ -43,6 +44,7 @@ CheckOutcome log_check(Session& s, const CheckRequest& r) {
   const Instant at = s.at();
   const std::string entity = std::to_string(r.curve.value);
   auto unit = s.write();
+  authorize(s, *unit, Permission::Log, "check.log", "curve", entity);
   CheckOutcome out;
   {
     FactSet facts(*unit, s.zone());
@@ -140,6 +142,7 @@ QuantifyOutcome quantify(Session& s, const QuantifyRequest& r) {
   result.occurred_at = at;
 
   auto unit = s.write();
+  authorize(s, *unit, Permission::Log, "quantify", "sample", result.sample);
   {
     FactSet facts(*unit, s.zone());
     std::optional<CurveId> chosen = r.target.curve;

@@ -3,6 +3,8 @@
 #include "app/registry.h"
 
 #include "app/refusal.h"
+#include "app/signatures.h"
+#include "app/users.h"
 #include "core/error.h"
 #include "core/text.h"
 #include "import/method_file.h"
@@ -45,7 +47,58 @@ Lot get_lot(store::ReadUnit& unit, const std::string& code) {
 InitOutcome init_store(Session& s, const InitRequest& request) {
   InitOutcome out;
   out.created = s.store().was_created();
-  auto unit = s.write();
+  const auto any_admin = [](store::ReadUnit& unit) {
+    for (const User& u : unit.registry().users()) {
+      if (u.enabled() && u.role() == Role::Admin) return true;
+    }
+    return false;
+  };
+  // The first admin's passphrase is asked before the write lock is taken.
+  std::optional<std::string> first_passphrase;
+  if (!any_admin(*s.read())) {
+    // The first admin's code becomes a user code: it obeys their syntax.
+    try {
+      check_code(s.actor().name, s.actor_source());
+    } catch (ValidationError& e) {
+      if (s.actor_source().rfind("--", 0) == 0) e.set_option(s.actor_source());
+      throw;
+    }
+    first_passphrase = ask_new_passphrase(s, s.actor().name);
+  }
+  auto unit = s.write_to_register_first_admin();
+  const bool has_admin = any_admin(*unit);
+  if (!has_admin && !first_passphrase) {
+    throw UsageError("the store's last admin was disabled while init ran", "run init again");
+  }
+  if (!has_admin) {
+    const std::string& code = s.actor().name;
+    const std::string name = request.admin_name.value_or(code);
+    std::optional<User> existing = unit->registry().user(code);
+    const UserId id =
+        existing ? existing->id : unit->registry_writer().add_user(code, name, s.at());
+    if (existing && existing->name != name && request.admin_name) {
+      throw ValidationError(
+          "user " + quote(code) + " is registered with the name " + quote(existing->name),
+          "give the registered name with --name, or another --admin code");
+    }
+    unit->registry_writer().add_user_event(
+        id, {UserStatus::Enabled, Role::Admin, "the store's first admin, registered at init", code,
+             s.at()});
+    unit->registry_writer().add_passphrase(id, *first_passphrase, s.at());
+    // On a new store the admin joins the lab.init entry below; otherwise it has its own.
+    if (unit->registry().settings()) {
+      unit->append_entry({existing ? "user.enable" : "user.add", "user", code,
+                          std::string("the store's first admin"), s.at()});
+    }
+    out.admin_registered = unit->registry().user(code);
+  } else {
+    const User acting = acting_user(s, *unit);
+    if (request.admin_name && *request.admin_name != acting.name) {
+      throw option_error("--name",
+                         "the store already has an admin; --name names the first admin only",
+                         "an admin registers other users with 'curvewarden user add'");
+    }
+  }
   const auto current = unit->registry().settings();
   store::LabSettings wanted;
   if (!current) {
@@ -58,6 +111,10 @@ InitOutcome init_store(Session& s, const InitRequest& request) {
     wanted = *current;
     const bool new_zone = request.zone && request.zone->name() != current->time_zone;
     const bool new_name = request.lab && *request.lab != current->lab_name;
+    if (new_zone || new_name) {
+      authorize(s, *unit, Permission::ManageUsers, new_name ? "lab.rename" : "lab.change-zone",
+                "lab", current->lab_name);
+    }
     if (new_zone && unit->registry().facts_beyond_settings() > 0) {
       refuse(*unit, "lab.change-zone", "lab", current->lab_name, {Reason::ZoneFixed},
              "the lab's time zone is " + current->time_zone + " and cannot change to " +
@@ -93,6 +150,7 @@ InitOutcome init_store(Session& s, const InitRequest& request) {
 Instrument add_instrument(Session& s, const std::string& code,
                           const std::optional<std::string>& name) {
   auto unit = s.write();
+  authorize(s, *unit, Permission::ServiceInstruments, "instrument.add", "instrument", code);
   if (unit->registry().instrument(code)) {
     throw ValidationError(
         "instrument " + quote(code) + " is already registered",
@@ -119,6 +177,7 @@ Instrument save_instrument_columns(Session& s, const std::string& code,
                                    const ColumnMapping& columns,
                                    const std::optional<std::string>& reason) {
   auto unit = s.write();
+  authorize(s, *unit, Permission::ServiceInstruments, "instrument.columns", "instrument", code);
   const Instrument instrument = get_instrument(*unit, code);
   if (s.at() < instrument.registered_at) {
     throw ValidationError("instrument " + quote(code) + " was registered only at " +
@@ -138,7 +197,12 @@ Instrument save_instrument_columns(Session& s, const std::string& code,
 }
 
 Instrument record_service(Session& s, const ServiceRequest& request) {
+  const std::string meaning =
+      request.direction == ServiceDirection::Out ? "taken out of service" : "returned to service";
+  std::string passphrase = ask_signature(s, meaning);
   auto unit = s.write();
+  const User user = authorize(s, *unit, Permission::ServiceInstruments, "instrument.service",
+                              "instrument", request.code);
   const Instrument instrument = get_instrument(*unit, request.code);
   const Instant at = s.at();
   if (at < instrument.registered_at) {
@@ -163,6 +227,7 @@ Instrument record_service(Session& s, const ServiceRequest& request) {
         "instrument " + quote(instrument.code) + " is in service, not out",
         "take it out with 'instrument service " + instrument.code + " --out --reason ...'");
   }
+  sign(s, *unit, user, passphrase, {"instrument.service", meaning, "instrument", instrument.code});
   unit->registry_writer().add_service_event(instrument.id, {request.direction, request.reason, at});
   unit->append_entry({request.direction == ServiceDirection::Out ? "instrument.service-out"
                                                                  : "instrument.service-back",
@@ -177,6 +242,7 @@ Instrument record_service(Session& s, const ServiceRequest& request) {
 MethodVersion add_method(Session& s, const std::string& file) {
   const import::MethodFile parsed = import::read_method_file(file);
   auto unit = s.write();
+  authorize(s, *unit, Permission::ReviseMethods, "method.add", "method", parsed.definition.code);
   if (auto existing = unit->registry().method(parsed.definition.code)) {
     throw ValidationError(
         SourceLocation{file, std::nullopt, std::nullopt, "code"},
@@ -202,7 +268,10 @@ MethodVersion add_method(Session& s, const std::string& file) {
 
 MethodVersion revise_method(Session& s, const std::string& file, const std::string& reason) {
   const import::MethodFile parsed = import::read_method_file(file);
+  std::string passphrase = ask_signature(s, "revised");
   auto unit = s.write();
+  const User user = authorize(s, *unit, Permission::ReviseMethods, "method.revise", "method",
+                              parsed.definition.code);
   auto existing = unit->registry().method(parsed.definition.code);
   if (!existing) {
     throw NotFoundError(
@@ -232,6 +301,7 @@ MethodVersion revise_method(Session& s, const std::string& file, const std::stri
   v.source_text = parsed.text;
   v.source_sha256 = parsed.sha256;
   v.reason = reason;
+  sign(s, *unit, user, passphrase, {"method.revise", "revised", "method", existing->code});
   unit->registry_writer().add_method_version(existing->id, v);
   unit->append_entry({"method.revise", "method", existing->code, reason, s.at()});
   MethodVersion added = get_method(*unit, existing->code).latest();
@@ -259,6 +329,7 @@ Lot add_lot(Session& s, Lot lot) {
   }
   lot.registered_at = s.at();
   auto unit = s.write();
+  authorize(s, *unit, Permission::Log, "lot.add", "lot", lot.code);
   if (unit->registry().lot(lot.code)) {
     throw ValidationError("lot " + quote(lot.code) + " is already registered",
                           "lot codes are unique; see 'curvewarden lot show " + lot.code + "'");
@@ -281,7 +352,9 @@ Lot show_lot(Session& s, const std::string& code) {
 }
 
 Lot withdraw_lot(Session& s, const std::string& code, const std::string& reason) {
+  std::string passphrase = ask_signature(s, "withdrawn");
   auto unit = s.write();
+  const User user = authorize(s, *unit, Permission::WithdrawLots, "lot.withdraw", "lot", code);
   const Lot lot = get_lot(*unit, code);
   if (lot.withdrawal) {
     throw ValidationError("lot " + quote(code) + " was already withdrawn on " +
@@ -291,6 +364,7 @@ Lot withdraw_lot(Session& s, const std::string& code, const std::string& reason)
     throw ValidationError("--at " + format_utc(s.at()) + " is before lot " + quote(code) +
                           " was registered (" + format_utc(lot.registered_at) + ")");
   }
+  sign(s, *unit, user, passphrase, {"lot.withdraw", "withdrawn", "lot", code});
   unit->registry_writer().add_lot_withdrawal(lot.id, {reason, s.at()});
   unit->append_entry({"lot.withdraw", "lot", code, reason, s.at()});
   Lot after = get_lot(*unit, code);

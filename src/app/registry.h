@@ -11,6 +11,7 @@
 #include "domain/instrument.h"
 #include "domain/lot.h"
 #include "domain/method.h"
+#include "domain/user.h"
 #include "store/registry.h"
 
 namespace cw::app {
@@ -25,16 +26,24 @@ struct InitRequest {
   std::optional<std::string> lab;
   std::optional<LabZone> zone;
   std::optional<std::string> reason;  ///< required to rename an existing lab
+  /// The first admin's full name (the acting user's code is the admin's code); default: the code.
+  std::optional<std::string> admin_name;
 };
 struct InitOutcome {
-  bool created = false;  ///< the store was created now
-  bool changed = false;  ///< lab name or zone recorded now
+  bool created = false;                  ///< the store was created now
+  bool changed = false;                  ///< lab name or zone recorded now
+  std::optional<User> admin_registered;  ///< the first admin, when registered or enabled now
+  std::string lab_key;                   ///< the lab key file (anchors)
+  bool lab_key_created = false;          ///< created now
   store::LabSettings settings;
   int schema_version = 0;
 };
 /// Creates the store or applies pending migrations, and records the lab's name and zone. The
 /// zone of a store that holds any fact besides its settings cannot change (refused and recorded);
-/// renaming the lab needs a reason and is an audited event.
+/// renaming the lab needs a reason and is an audited event. When the store has no enabled admin
+/// (a new store, or one whose users were all registered from an earlier trail), the acting user
+/// becomes its first admin; otherwise the acting user must be registered and enabled, and only an
+/// admin may rename the lab.
 InitOutcome init_store(Session& s, const InitRequest& request);
 
 // ---- instruments

@@ -10,6 +10,7 @@
 #include "app/quantitation.h"
 #include "app/refusal.h"
 #include "app/registry.h"
+#include "app/users.h"
 #include "core/error.h"
 #include "core/text.h"
 #include "domain/bracketing.h"
@@ -188,6 +189,7 @@ RunImportOutcome import_run(Session& s, const RunImportRequest& r) {
 
   // 2. One transaction: the same checks on the current facts, then every row decided in order.
   auto unit = s.write();
+  authorize(s, *unit, Permission::Log, "run.import", "method", r.method);
   RunBasis now = load_basis(*unit, r, at, s.zone());
   now.version = now.method.version_at(at);
   const MethodDefinition& definition = now.version->definition;

@@ -24,6 +24,7 @@ std::string canonical_header(const AuditEntry& e) {
   }
   header.push_back(e.clock_overridden);
   header.push_back(e.tool_version);
+  if (e.os_login) header.push_back(*e.os_login);
   return header.dump();
 }
 

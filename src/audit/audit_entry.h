@@ -4,7 +4,9 @@
 // Canonical form (what the hash covers), documented in DEVELOPERS.md:
 //   header  = compact JSON array
 //             [seq, recorded_at, occurred_at, actor, action, entity_kind, entity_id,
-//              reason-or-null, clock_overridden, tool_version]
+//              reason-or-null, clock_overridden, tool_version(, os_login)]
+//             (os_login, the operating-system login of the process, only in entries written
+//             since schema 7: earlier entries keep their ten-element header and their hash)
 //   hash    = hex(SHA-256(prev_hash + "\n" + header + "\n" + payload))
 // where payload is the stored canonical JSON text of the rows the entry wrote (an object
 // keyed by table name, each a list of rows ordered by id, keys sorted), and prev_hash of
@@ -30,7 +32,8 @@ struct AuditEntry {
   std::optional<std::string> reason;
   bool clock_overridden = false;
   std::string tool_version;
-  std::string payload;  ///< canonical JSON text
+  std::optional<std::string> os_login;  ///< nullopt in entries written before schema 7
+  std::string payload;                  ///< canonical JSON text
   std::string prev_hash;
   std::string hash;
 };

@@ -37,6 +37,9 @@ OptionSpec positional(std::string_view name, std::string_view help) {
 const OptionSpec kCsv = flag("--csv",
                              "Print the rows as CSV (RFC 4180, UTC times, full-precision numbers; "
                              "the README lists the columns)");
+const OptionSpec kKey = value("--key", "FILE",
+                              "The lab's Ed25519 key file (else $CURVEWARDEN_KEY, else the store "
+                              "file's path with .key added)");
 const OptionSpec kReason = value("--reason", "TEXT", "Why (required; up to 2000 characters)", true);
 
 }  // namespace
@@ -44,11 +47,17 @@ const OptionSpec kReason = value("--reason", "TEXT", "Why (required; up to 2000 
 const std::vector<OptionSpec>& global_options() {
   static const std::vector<OptionSpec> options = {
       value("--db", "PATH", "Store file (else $CURVEWARDEN_DB, else ./curvewarden.db)"),
-      value("--as", "NAME", "Person acting (else $CURVEWARDEN_USER, else the login name)"),
+      value("--as", "CODE",
+            "Registered user acting (else $CURVEWARDEN_USER, else the login name); commands "
+            "that record need an enabled user"),
       value("--at", "TIME",
             "When it happened / as of when (ISO-8601 with zone; default now; an event may not "
             "be dated more than 5 minutes ahead)"),
       flag("--json", "Print one JSON document on stdout"),
+      flag("--follow-symlink", "Open a store whose path is a symbolic link (refused otherwise)"),
+      value("--passphrase-fd", "N",
+            "Read passphrases of signed acts from this file descriptor, one per line (else they "
+            "are asked on the terminal, without echo)"),
   };
   return options;
 }
@@ -61,7 +70,14 @@ const std::vector<CommandSpec>& command_table() {
         value("--tz", "ZONE",
               "IANA time zone of the lab (default: the system zone); fixed once the store holds "
               "records"),
-        value("--reason", "TEXT", "Why the lab is renamed (required for a rename)")},
+        value("--reason", "TEXT", "Why the lab is renamed (required for a rename)"),
+        value("--admin", "CODE",
+              "Code of the store's first admin, registered now (default: the acting user); "
+              "only while the store has no enabled admin"),
+        value("--name", "TEXT", "Full name of the first admin (default: its code)"), kKey,
+        value("--group", "NAME",
+              "Create the store (and its -wal and -shm files) with mode 0660 for this group, for a "
+              "workstation shared by its members (default: 0600, the owner only)")},
        true,
        h::init},
 
@@ -320,6 +336,46 @@ const std::vector<CommandSpec>& command_table() {
        false,
        h::report_run},
 
+      {"user", "Registered users and their roles", {}, false, nullptr},
+      {"user add",
+       "Register a user (admin only); codes ignore case and are never reused",
+       {positional("code", "User code, e.g. r.okafor (letters, digits, . _ - /)"),
+        value("--name", "TEXT", "Full name, shown with every signature (required)", true),
+        value("--role", "ROLE",
+              "analyst (log), reviewer (also review and retire curves), quality (also methods, "
+              "lot withdrawal, instruments) or admin (everything, and users) (required)",
+              true)},
+       true,
+       h::user_add},
+      {"user list", "List users with their role and status", {kCsv}, false, h::user_list},
+      {"user show",
+       "Show a user: role, status, what the role allows, history",
+       {positional("code", "User code")},
+       false,
+       h::user_show},
+      {"user disable",
+       "Disable a user (admin only): it can no longer act; its records stay",
+       {positional("code", "User code"), kReason},
+       true,
+       h::user_disable},
+      {"user enable",
+       "Enable a user again, or change its role (admin only)",
+       {positional("code", "User code"),
+        value("--role", "ROLE", "New role: analyst, reviewer, quality or admin"), kReason},
+       true,
+       h::user_enable},
+      {"user unlock",
+       "End a user's lockout after repeated wrong passphrases (admin only, signed)",
+       {positional("code", "User code"), kReason},
+       true,
+       h::user_unlock},
+      {"user passphrase",
+       "Set your passphrase (the current one first), or as an admin another user's (signed); "
+       "only its Argon2id hash is kept",
+       {{"code", "", "User code (default: yourself)", OptionKind::Positional, false}},
+       true,
+       h::user_passphrase},
+
       {"audit", "Read and verify the audit trail", {}, false, nullptr},
       {"audit log",
        "List audit entries",
@@ -333,9 +389,27 @@ const std::vector<CommandSpec>& command_table() {
       {"audit verify",
        "Recompute the hash chain, check every fact row and the append-only guards (exit 5 if "
        "broken)",
-       {},
+       {repeated("--anchor", "FILE",
+                 "Also check that the trail still contains this signed checkpoint (repeat for "
+                 "several); exit 5 naming the first it does not"),
+        kKey},
        false,
        h::audit_verify},
+      {"audit anchor",
+       "Write a checkpoint of the trail (entry count, head hash, time) signed with the lab key, "
+       "to keep off this machine",
+       {{"--out", "FILE", "Write the checkpoint to this file (replaced if it exists)",
+         OptionKind::Value, true},
+        kKey},
+       false,
+       h::audit_anchor},
+
+      {"backup",
+       "Copy the store to a new file while others may write (one consistent snapshot), and verify "
+       "the copy before reporting success",
+       {positional("file", "The new file (never replaced; created with mode 0600)")},
+       false,
+       h::backup},
 
       {"help", "Show the help of a command: curvewarden help curve log", {}, false, nullptr},
   };

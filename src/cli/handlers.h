@@ -52,8 +52,19 @@ int result_show(Invocation& in);
 int check_list(Invocation& in);
 int trend(Invocation& in);
 
+// users (handlers_users.cpp)
+int user_add(Invocation& in);
+int user_list(Invocation& in);
+int user_show(Invocation& in);
+int user_disable(Invocation& in);
+int user_enable(Invocation& in);
+int user_unlock(Invocation& in);
+int user_passphrase(Invocation& in);
+
 // audit trail (handlers_audit.cpp)
 int audit_log(Invocation& in);
 int audit_verify(Invocation& in);
+int audit_anchor(Invocation& in);
+int backup(Invocation& in);
 
 }  // namespace cw::cli::handlers

@@ -1,12 +1,34 @@
 // SPDX-License-Identifier: Apache-2.0
 // Handlers of the audit commands.
+#include <unistd.h>
+
+#include <algorithm>
+#include <filesystem>
+#include <fstream>
+
+#include "app/anchors.h"
 #include "app/audit.h"
 #include "cli/handlers.h"
 #include "core/clean_text.h"
 #include "core/error.h"
+#include "import/input_file.h"
 #include "report/registry_views.h"
 
 namespace cw::cli::handlers {
+namespace {
+
+/// Writes `text` to `path` (replaced if it exists); ValidationError naming --out otherwise.
+void write_text_file(const std::string& path, const std::string& text) {
+  std::ofstream f(path, std::ios::binary | std::ios::trunc);
+  f << text;
+  f.close();
+  if (!f) {
+    throw option_error("--out", "cannot write '" + path + "'",
+                       "check that the folder exists and can be written");
+  }
+}
+
+}  // namespace
 
 int audit_log(Invocation& in) {
   store::AuditFilter filter;
@@ -26,12 +48,57 @@ int audit_log(Invocation& in) {
 }
 
 int audit_verify(Invocation& in) {
+  // Anchor files are read and parsed before the store is opened: bad input names the file.
+  std::vector<std::pair<std::string, std::string>> anchors;
+  for (const auto& file : in.values("--anchor")) {
+    anchors.emplace_back(file, import::read_text_file(file, 64 * 1024, "--anchor"));
+    app::parse_anchor(anchors.back().second, file);
+  }
+  const std::string key = in.key_path();
   auto s = in.open_session();
   const auto r = app::verify_audit(s);
+  std::vector<app::AnchorCheck> checks;
+  if (!anchors.empty()) {
+    // Without the lab key the anchors' own keys are used (and said so): a forged anchor with a
+    // key of its own would then pass the signature, never the comparison with the trail.
+    std::optional<std::string> key_path;
+    if (::access(key.c_str(), F_OK) == 0 || in.has("--key")) key_path = key;
+    checks = app::check_anchors(s, anchors, key_path);
+    if (!key_path) {
+      in.warn("no lab key at '" + key +
+              "': each anchor's signature was checked with the key it "
+              "names; compare that key with the lab's");
+    }
+  }
   if (in.json()) {
-    in.emit(report::verify_json(r));
+    report::Json doc = report::verify_json(r);
+    report::Json list = report::Json::array();
+    for (const auto& c : checks) {
+      list.push_back(
+          {{"file", c.file},
+           {"entries", c.anchor.entries},
+           {"head_hash", c.anchor.head_hash},
+           {"at", format_utc(c.anchor.at)},
+           {"signature_ok", c.signature_ok},
+           {"contained", c.contained},
+           {"problem", c.problem.empty() ? report::Json(nullptr) : report::Json(c.problem)}});
+    }
+    doc["anchors"] = list;
+    if (!checks.empty()) {
+      doc["ok"] = doc["ok"].get<bool>() && std::all_of(checks.begin(), checks.end(),
+                                                       [](const auto& c) { return c.contained; });
+    }
+    in.emit(doc);
   } else {
     report::print_verify(in.out(), r);
+    for (const auto& c : checks) {
+      if (c.contained) {
+        in.out() << "Checkpoint '" << c.file << "' (entry " << c.anchor.entries << ", "
+                 << s.zone().format_local(c.anchor.at) << ") is in the trail, signature valid.\n";
+      } else {
+        in.out() << "CHECKPOINT NOT IN THE TRAIL: " << c.problem << "\n";
+      }
+    }
   }
   if (!r.chain.ok) {
     return in.fail(
@@ -41,12 +108,69 @@ int audit_verify(Invocation& in) {
                          "restore the store from a backup and compare; the entry named is the "
                          "first that no longer holds"));
   }
+  for (const auto& c : checks) {
+    if (!c.contained) {
+      return in.fail(AuditBrokenError(c.problem,
+                                      "the store is not the one that was anchored: restore it "
+                                      "from a backup made before, and compare"));
+    }
+  }
   if (!r.missing_guards.empty()) {
     std::string list;
     for (const auto& g : r.missing_guards) list += (list.empty() ? "" : ", ") + g;
     return in.fail(StoreError("the store's append-only guards are missing: " + list,
                               "the store was altered outside curvewarden; restore it from a "
                               "backup"));
+  }
+  return 0;
+}
+
+int audit_anchor(Invocation& in) {
+  const auto out = in.optional_output_path("--out");
+  if (!out) throw UsageError("--out is required");
+  const std::string key = in.key_path();
+  auto s = in.open_session();
+  const app::Anchor a = app::make_anchor(s, key);
+  write_text_file(*out, app::anchor_text(a));
+  if (in.json()) {
+    in.emit(report::Json{{"file", *out},
+                         {"entries", a.entries},
+                         {"head_hash", a.head_hash},
+                         {"at", format_utc(a.at)},
+                         {"key", a.public_key},
+                         {"signature", a.signature}});
+  } else {
+    in.out() << "Wrote checkpoint " << *out << ": entry " << a.entries << ", head " << a.head_hash
+             << ", signed with the lab key.\n"
+             << "Keep it off this machine (print it, mail it, copy it to a second medium); "
+                "'curvewarden audit verify --anchor "
+             << *out << "' checks the trail still contains it.\n";
+  }
+  return 0;
+}
+
+int backup(Invocation& in) {
+  const auto destination = in.optional_output_path("file");
+  if (!destination) throw UsageError("give the file to copy the store to");
+  if (::access(destination->c_str(), F_OK) == 0) {
+    throw UsageError("'" + *destination + "' exists; a backup never replaces a file",
+                     "give the path of a new file");
+  }
+  const std::string folder = std::filesystem::path(*destination).parent_path().string();
+  if (!folder.empty() && !std::filesystem::is_directory(folder)) {
+    throw UsageError("there is no folder '" + folder + "' for the backup '" + *destination + "'",
+                     "create the folder first");
+  }
+  auto s = in.open_session();
+  const auto r = app::backup(s, *destination);
+  if (in.json()) {
+    report::Json doc = report::verify_json(r);
+    doc["file"] = *destination;
+    in.emit(doc);
+  } else {
+    in.out() << "Copied " << s.location() << " to " << *destination
+             << " and verified the copy: " << r.chain.entries << " entries, head hash "
+             << r.chain.head_hash << ".\n";
   }
   return 0;
 }

@@ -1,7 +1,10 @@
 // SPDX-License-Identifier: Apache-2.0
 // Handlers of init, instrument, method and lot commands.
+#include <grp.h>
+
 #include <set>
 
+#include "app/anchors.h"
 #include "app/registry.h"
 #include "cli/handlers.h"
 #include "core/clean_text.h"
@@ -9,6 +12,7 @@
 #include "core/text.h"
 #include "import/column_map.h"
 #include "report/registry_views.h"
+#include "store/store_file.h"
 
 namespace cw::cli::handlers {
 
@@ -17,8 +21,23 @@ int init(Invocation& in) {
   r.lab = in.optional_text("--lab", kMaxNameChars);
   r.zone = in.optional_zone("--tz");
   r.reason = in.optional_text("--reason", kMaxReasonChars);
+  r.admin_name = in.optional_text("--name", kMaxNameChars);
+  const std::string key = in.key_path();
+  std::optional<gid_t> group;
+  if (auto name = in.optional_text("--group", kMaxLabelChars)) {
+    const ::group* g = ::getgrnam(name->c_str());
+    if (g == nullptr) {
+      throw option_error("--group", "--group '" + *name + "' is not a group of this system",
+                         "see /etc/group or the 'id' command");
+    }
+    group = g->gr_gid;
+  }
+  const std::string where = in.location();
+  if (where.rfind("postgres", 0) != 0) store::create_store_file(where, group);
   auto s = in.open_session(/*create=*/true);
-  const auto outcome = app::init_store(s, r);
+  auto outcome = app::init_store(s, r);
+  outcome.lab_key = key;
+  outcome.lab_key_created = app::ensure_lab_key(key);
   if (in.json()) {
     in.emit(report::init_json(outcome, s.location()));
   } else {

@@ -9,11 +9,14 @@
 #include <algorithm>
 #include <cstdlib>
 
+#include "cli/passphrase_input.h"
 #include "core/clean_text.h"
 #include "core/clock.h"
 #include "core/number.h"
 #include "core/text.h"
+#include "domain/user.h"
 #include "import/column_map.h"
+#include "store/store_file.h"
 
 namespace cw::cli {
 namespace {
@@ -282,27 +285,16 @@ std::string Invocation::location() const {
 }
 
 app::Session Invocation::open_session(bool create) const {
+  const std::string where = location();
+  if (store::is_symlink(where) && !has("--follow-symlink")) {
+    throw option_error("--db", "the store path '" + where + "' is a symbolic link",
+                       "give the real path of the store, or --follow-symlink if the link is "
+                       "meant");
+  }
   // Everything the user typed or set is checked before the store is touched.
   std::shared_ptr<const Clock> clock = naming(
       "CURVEWARDEN_NOW", [] { return std::shared_ptr<const Clock>(clock_from_environment()); });
-  std::string actor;
-  if (const std::string* as = single("--as")) {
-    actor = naming("--as", [&] { return clean_text(*as, "--as", kMaxNameChars); });
-  } else if (const char* env = std::getenv("CURVEWARDEN_USER"); env != nullptr && *env != '\0') {
-    actor = naming("CURVEWARDEN_USER",
-                   [&] { return clean_text(env, "CURVEWARDEN_USER", kMaxNameChars); });
-  } else {
-    std::string login;
-    if (const passwd* pw = getpwuid(geteuid()); pw != nullptr && pw->pw_name != nullptr) {
-      login = pw->pw_name;
-    } else if (const char* user = std::getenv("USER"); user != nullptr) {
-      login = user;
-    }
-    if (login.empty()) {
-      throw UsageError("cannot tell who is acting", "give --as NAME or set CURVEWARDEN_USER");
-    }
-    actor = naming("--as", [&] { return clean_text(login, "the login name", kMaxNameChars); });
-  }
+  const Identity who = identity();
   const std::optional<Instant> at = optional_instant("--at");
   if (at && command_.records_event && *at > clock->now() + kFutureTolerance) {
     ValidationError e("--at " + format_utc(*at) + " lies more than 5 minutes after now (" +
@@ -312,7 +304,64 @@ app::Session Invocation::open_session(bool create) const {
     e.set_option("--at");
     throw e;
   }
-  return app::Session::open({location(), actor, at, clock, create});
+  // Passphrases are read only when a command signs, and then from one reader: consecutive
+  // passphrases are consecutive lines of --passphrase-fd.
+  std::optional<int> fd;
+  if (auto n = optional_whole("--passphrase-fd", 0, 1 << 20)) fd = static_cast<int>(*n);
+  auto input = std::make_shared<PassphraseInput>(fd);
+  app::PassphraseSource source = [input](const std::string& prompt, bool is_new) {
+    return input->read(prompt, is_new);
+  };
+  return app::Session::open(
+      {location(), who.code, who.source, os_login(), at, clock, create, std::move(source)});
+}
+
+std::string Invocation::key_path() const {
+  if (has("--key")) return path("--key");
+  if (const char* env = std::getenv("CURVEWARDEN_KEY"); env != nullptr && *env != '\0') {
+    return env;
+  }
+  return location() + ".key";
+}
+
+Invocation::Identity Invocation::identity() const {
+  // A user code is compared in its canonical form (user codes ignore case); its syntax is
+  // checked when the user is registered, here only as text.
+  const auto canonical = [](const std::string& raw, const std::string& source) {
+    return canonical_user_code(
+        naming(source, [&] { return clean_text(raw, source, kMaxNameChars); }));
+  };
+  if (const std::string* admin = single("--admin")) {
+    // init --admin CODE: the first admin acts (and is registered by this init).
+    const std::string code = naming("--admin", [&] {
+      const std::string c = trim(*admin);
+      check_code(c, "--admin");
+      return canonical_user_code(c);
+    });
+    if (const std::string* as = single("--as"); as != nullptr && canonical(*as, "--as") != code) {
+      throw option_error("--as", "--as and --admin name different users",
+                         "init acts as the admin it registers: give only --admin");
+    }
+    return {code, "--admin"};
+  }
+  if (const std::string* as = single("--as")) return {canonical(*as, "--as"), "--as"};
+  if (const char* env = std::getenv("CURVEWARDEN_USER"); env != nullptr && *env != '\0') {
+    return {canonical(env, "CURVEWARDEN_USER"), "CURVEWARDEN_USER"};
+  }
+  const std::string login = os_login();
+  if (login.rfind("uid ", 0) == 0) {
+    throw UsageError("cannot tell who is acting", "give --as NAME or set CURVEWARDEN_USER");
+  }
+  return {canonical(login, "the login name"), "the login name"};
+}
+
+std::string Invocation::os_login() {
+  if (const passwd* pw = getpwuid(geteuid());
+      pw != nullptr && pw->pw_name != nullptr && *pw->pw_name != '\0') {
+    return pw->pw_name;
+  }
+  // No passwd entry (a container's bare uid): the number is what the system knows.
+  return "uid " + std::to_string(geteuid());
 }
 
 }  // namespace cw::cli

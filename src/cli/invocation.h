@@ -95,6 +95,18 @@ class Invocation {
   app::Session open_session(bool create = false) const;
   /// The store location as resolved (--db, $CURVEWARDEN_DB, ./curvewarden.db).
   std::string location() const;
+  /// The lab key file: --key, else $CURVEWARDEN_KEY, else the store's path with ".key" added.
+  std::string key_path() const;
+  /// Who acts: the canonical user code from --as, else $CURVEWARDEN_USER, else the login name,
+  /// and which of them it came from (for messages).
+  struct Identity {
+    std::string code;
+    std::string source;
+  };
+  Identity identity() const;
+  /// The operating-system login of the process (recorded in every audit entry): the passwd name
+  /// of the effective uid, else "uid N".
+  static std::string os_login();
 
   // ---- output: text goes to out() as it is written; JSON is collected and printed once by
   //      the runner, with an "error" member added when the command ends in a failure

@@ -36,6 +36,9 @@ constexpr std::pair<Reason, std::string_view> kReasons[] = {
     {Reason::NotRetirable, "not-retirable"},
     {Reason::ZoneFixed, "zone-fixed"},
     {Reason::AlreadyImported, "already-imported"},
+    {Reason::NotPermitted, "not-permitted"},
+    {Reason::WrongPassphrase, "wrong-passphrase"},
+    {Reason::UserLocked, "user-locked"},
 };
 
 }  // namespace

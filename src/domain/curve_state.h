@@ -52,13 +52,17 @@ enum class Reason {
   ZoneFixed,  ///< the lab's zone cannot change once the store holds records
   // Why a run import is refused.
   AlreadyImported,  ///< the same file (same SHA-256) was imported before
+  // Why a person's act is refused whatever the record.
+  NotPermitted,     ///< the acting user's role does not allow the command
+  WrongPassphrase,  ///< a signature was given with a passphrase that does not match
+  UserLocked,       ///< the user is locked after repeated wrong passphrases
 };
 
 /// "expired", "method-revised", "check-failed", "check-overdue", "lot-expired",
 /// "lot-withdrawn", "instrument-serviced", "superseded", "trend-violation", "rejected",
 /// "awaiting-review", "retired", "not-yet-acquired", "no-active-curve", "above-range",
 /// "no-solution", "check-due", "self-review", "not-awaiting-review", "not-retirable",
-/// "zone-fixed", "already-imported".
+/// "zone-fixed", "already-imported", "not-permitted", "wrong-passphrase", "user-locked".
 std::string_view to_string(Reason r);
 std::optional<Reason> parse_reason(std::string_view text);
 /// True for the reasons that make an active curve stale.

@@ -115,7 +115,11 @@ const std::vector<CsvListing>& csv_listings() {
       {"audit log",
        "entries",
        {"seq", "recorded_at", "occurred_at", "actor", "action", "entity_kind", "entity_id",
-        "reason", "back_dated", "clock_overridden", "tool_version", "values", "prev_hash", "hash"}},
+        "reason", "back_dated", "clock_overridden", "tool_version", "values", "prev_hash", "hash",
+        "os_login"}},
+      {"user list",
+       "users",
+       {"code", "name", "role", "status", "permissions", "registered_at", "changed_at"}},
   };
   return listings;
 }

@@ -194,6 +194,14 @@ Json curve_json(const app::CurveView& v, const LabZone& zone) {
     retirements.push_back(
         {{"by", r.retired_by}, {"reason", r.reason}, {"at", json_instant(r.occurred_at)}});
   }
+  Json signatures = Json::array();
+  for (const auto& g : v.signatures) {
+    signatures.push_back({{"user", g.code},
+                          {"name", g.name},
+                          {"meaning", g.meaning},
+                          {"signed_at", json_instant(g.signed_at)},
+                          {"signed_at_local", zone.format_local(g.signed_at)}});
+  }
   return Json{
       {"id", c.id.value},
       {"calibration_id", c.calibration_id.value},
@@ -235,6 +243,7 @@ Json curve_json(const app::CurveView& v, const LabZone& zone) {
       {"expires_at", json_instant(c.expires_at)},
       {"reviews", reviews},
       {"retirements", retirements},
+      {"signatures", signatures},
       {"points", points},
   };
 }
@@ -361,6 +370,10 @@ void print_curve_report(std::ostream& out, const app::CurveView& v, const LabZon
   }
   print_status(out, v.status, zone);
   out << "  expires " << zone.format_local(c.expires_at) << "\n";
+  for (const auto& g : v.signatures) {
+    out << "  signed: " << g.meaning << " by " << g.name << " (" << g.code << "), "
+        << zone.format_local(g.signed_at) << "\n";
+  }
 }
 
 void print_curve_list(std::ostream& out, const std::vector<app::CurveView>& list,

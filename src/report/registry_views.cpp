@@ -19,21 +19,36 @@ std::string opt_num(const std::optional<double>& v, const std::string& suffix = 
 }  // namespace
 
 Json init_json(const app::InitOutcome& o, const std::string& path) {
-  return Json{{"store", path},
-              {"created", o.created},
-              {"changed", o.changed},
-              {"lab", o.settings.lab_name},
-              {"time_zone", o.settings.time_zone},
-              {"schema_version", o.schema_version}};
+  return Json{
+      {"store", path},
+      {"created", o.created},
+      {"changed", o.changed},
+      {"lab", o.settings.lab_name},
+      {"time_zone", o.settings.time_zone},
+      {"schema_version", o.schema_version},
+      {"admin_registered", o.admin_registered ? user_json(*o.admin_registered) : Json(nullptr)},
+      {"lab_key", o.lab_key},
+      {"lab_key_created", o.lab_key_created}};
 }
 
 void print_init(std::ostream& out, const app::InitOutcome& o, const std::string& path) {
   if (o.created) {
     out << "Created store " << path << " for " << o.settings.lab_name << " (time zone "
         << o.settings.time_zone << ", schema " << o.schema_version << ").\n";
+    if (o.admin_registered) {
+      out << "Registered " << o.admin_registered->code << " (" << o.admin_registered->name
+          << ") as the store's first admin.\n";
+    }
+    if (o.lab_key_created) {
+      out << "Created the lab key " << o.lab_key
+          << " (mode 0600; it signs audit checkpoints: keep a copy off this machine).\n";
+    }
   } else if (o.changed) {
     out << "Store " << path << " now records lab " << o.settings.lab_name << ", time zone "
         << o.settings.time_zone << ".\n";
+  } else if (o.admin_registered) {
+    out << "Store " << path << " had no enabled admin: " << o.admin_registered->code << " ("
+        << o.admin_registered->name << ") is now its admin.\n";
   } else {
     out << "Store " << path << " is up to date (schema " << o.schema_version
         << "): " << o.settings.lab_name << ", time zone " << o.settings.time_zone << ".\n";
@@ -337,6 +352,7 @@ Json audit_entry_json(const audit::AuditEntry& e) {
               {"back_dated", e.occurred_at < e.recorded_at},
               {"clock_overridden", e.clock_overridden},
               {"tool_version", e.tool_version},
+              {"os_login", json_optional(e.os_login)},
               {"values", payload},
               {"prev_hash", e.prev_hash},
               {"hash", e.hash}};
@@ -396,6 +412,67 @@ void print_verify(std::ostream& out, const app::VerifyOutcome& o) {
         << "): the store was altered outside curvewarden; writes are refused.\n";
     for (const auto& g : o.missing_guards) out << "  missing trigger " << g << "\n";
   }
+}
+
+}  // namespace cw::report
+
+namespace cw::report {
+
+Json user_json(const User& u) {
+  Json history = Json::array();
+  for (const auto& e : u.events) {
+    history.push_back({{"status", std::string(to_string(e.status))},
+                       {"role", std::string(to_string(e.role))},
+                       {"reason", e.reason},
+                       {"by", e.by},
+                       {"at", json_instant(e.occurred_at)}});
+  }
+  Json permissions = Json::array();
+  for (Permission p : all_permissions()) {
+    if (role_permits(u.role(), p)) permissions.push_back(std::string(to_string(p)));
+  }
+  return Json{{"code", u.code},
+              {"name", u.name},
+              {"role", std::string(to_string(u.role()))},
+              {"status", std::string(to_string(u.current().status))},
+              {"permissions", permissions},
+              {"registered_at", json_instant(u.registered_at)},
+              {"changed_at", json_instant(u.current().occurred_at)},
+              {"history", history}};
+}
+
+void print_user(std::ostream& out, const User& u, const LabZone& zone) {
+  out << "User " << u.code << ": " << u.name << "\n"
+      << "  role:       " << to_string(u.role()) << "\n"
+      << "  status:     " << to_string(u.current().status) << "\n"
+      << "  registered: " << zone.format_local(u.registered_at) << "\n";
+  std::string rights;
+  for (Permission p : all_permissions()) {
+    if (role_permits(u.role(), p))
+      rights += (rights.empty() ? "" : ", ") + std::string(to_string(p));
+  }
+  out << "  may:        " << (rights.empty() ? "-" : rights) << "\n";
+  out << "History:\n";
+  Table t({{"at"}, {"status"}, {"role"}, {"by"}, {"reason"}});
+  for (const auto& e : u.events) {
+    t.add_row({zone.format_local(e.occurred_at), std::string(to_string(e.status)),
+               std::string(to_string(e.role)), e.by, e.reason});
+  }
+  t.print(out);
+}
+
+void print_user_list(std::ostream& out, const std::vector<User>& list, const LabZone& zone) {
+  if (list.empty()) {
+    out << "No users registered.\n";
+    return;
+  }
+  Table t({{"code"}, {"name"}, {"role"}, {"status"}, {"since"}});
+  for (const auto& u : list) {
+    t.add_row({u.code, u.name, std::string(to_string(u.role())),
+               std::string(to_string(u.current().status)),
+               zone.format_local(u.current().occurred_at)});
+  }
+  t.print(out);
 }
 
 }  // namespace cw::report

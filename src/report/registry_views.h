@@ -1,5 +1,5 @@
 // SPDX-License-Identifier: Apache-2.0
-// Text and JSON views of the lab, instruments, methods, lots and the audit trail.
+// Text and JSON views of the lab, instruments, methods, lots, users and the audit trail.
 #pragma once
 
 #include <ostream>
@@ -7,6 +7,7 @@
 
 #include "app/audit.h"
 #include "app/registry.h"
+#include "app/users.h"
 #include "audit/audit_entry.h"
 #include "report/json.h"
 
@@ -33,6 +34,10 @@ void print_lot_list(std::ostream& out, const std::vector<Lot>& list, const LabZo
                     Instant at);
 /// "usable", "expired" or "withdrawn" at `at`.
 std::string lot_status(const Lot& lot, const LabZone& zone, Instant at);
+
+Json user_json(const User& u);
+void print_user(std::ostream& out, const User& u, const LabZone& zone);
+void print_user_list(std::ostream& out, const std::vector<User>& list, const LabZone& zone);
 
 Json audit_entry_json(const audit::AuditEntry& e);
 void print_audit_log(std::ostream& out, const std::vector<audit::AuditEntry>& entries,

@@ -38,6 +38,8 @@ class AuditReader {
   virtual std::vector<audit::AuditEntry> list(const AuditFilter& filter) = 0;
   /// The newest entry; nullopt for an empty trail.
   virtual std::optional<ChainHead> head() = 0;
+  /// The hash of entry `seq`; nullopt when the trail has no such entry.
+  virtual std::optional<std::string> hash_at(std::int64_t seq) = 0;
   /// Walks the chain: sequence without gaps, each prev_hash linking, each hash recomputed, and
   /// every fact row equal to the row recorded in its entry's payload (rows changed, deleted or
   /// added behind the tool's back are found).

@@ -31,6 +31,11 @@ enum class FactTable {
   RunResults,
   RunChecks,
   ResultStatusEvents,
+  Users,
+  UserEvents,
+  UserPassphrases,
+  Signatures,
+  SignatureFailures,
 };
 
 inline constexpr std::array kAllFactTables = {
@@ -56,6 +61,11 @@ inline constexpr std::array kAllFactTables = {
     FactTable::RunResults,
     FactTable::RunChecks,
     FactTable::ResultStatusEvents,
+    FactTable::Users,
+    FactTable::UserEvents,
+    FactTable::UserPassphrases,
+    FactTable::Signatures,
+    FactTable::SignatureFailures,
 };
 
 /// The table name (a fixed identifier, never user input); see row_form.h.

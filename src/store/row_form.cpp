@@ -186,7 +186,32 @@ constexpr Column kResultStatusEvents[] = {
     {"reason", T::Text},          {"detail", T::Text},         {"check_id", T::Integer, true},
     {"run_id", T::Integer, true}, {"occurred_at", T::Instant}, {"audit_seq", T::Integer}};
 
-const std::array<TableForm, 22> kForms = {{
+// Added by migration 0007.
+constexpr Column kUsers[] = {{"id", T::Integer},
+                             {"code", T::Text},
+                             {"name", T::Text},
+                             {"registered_at", T::Instant},
+                             {"audit_seq", T::Integer}};
+constexpr Column kUserEvents[] = {{"id", T::Integer},          {"user_id", T::Integer},
+                                  {"status", T::Text},         {"role", T::Text},
+                                  {"reason", T::Text},         {"by_user", T::Text},
+                                  {"occurred_at", T::Instant}, {"audit_seq", T::Integer}};
+constexpr Column kUserPassphrases[] = {{"id", T::Integer},
+                                       {"user_id", T::Integer},
+                                       {"hash", T::Text},
+                                       {"occurred_at", T::Instant},
+                                       {"audit_seq", T::Integer}};
+constexpr Column kSignatures[] = {{"id", T::Integer},        {"user_id", T::Integer},
+                                  {"name", T::Text},         {"meaning", T::Text},
+                                  {"entity_kind", T::Text},  {"entity_id", T::Text},
+                                  {"signed_at", T::Instant}, {"audit_seq", T::Integer}};
+constexpr Column kSignatureFailures[] = {{"id", T::Integer},
+                                         {"user_id", T::Integer},
+                                         {"action", T::Text},
+                                         {"occurred_at", T::Instant},
+                                         {"audit_seq", T::Integer}};
+
+const std::array<TableForm, 27> kForms = {{
     {FactTable::LabSettings, "lab_settings", kLabSettings},
     {FactTable::Instruments, "instruments", kInstruments},
     {FactTable::InstrumentServiceEvents, "instrument_service_events", kServiceEvents},
@@ -209,6 +234,11 @@ const std::array<TableForm, 22> kForms = {{
     {FactTable::RunResults, "run_results", kRunResults},
     {FactTable::RunChecks, "run_checks", kRunChecks},
     {FactTable::ResultStatusEvents, "result_status_events", kResultStatusEvents},
+    {FactTable::Users, "users", kUsers},
+    {FactTable::UserEvents, "user_events", kUserEvents},
+    {FactTable::UserPassphrases, "user_passphrases", kUserPassphrases},
+    {FactTable::Signatures, "signatures", kSignatures},
+    {FactTable::SignatureFailures, "signature_failures", kSignatureFailures},
 }};
 
 }  // namespace

@@ -28,6 +28,7 @@ struct OpenOptions {
   std::string location;        ///< a file path (SQLite)
   bool create = false;         ///< create the store when missing (init only)
   int busy_timeout_ms = 5000;  ///< how long a writer waits for another writer
+  std::string os_login;        ///< the process's login, for entries written by a migration
 };
 
 /// Who acts and what "now" is, for every entry written in a unit.
@@ -35,6 +36,7 @@ struct Actor {
   std::string name;
   const Clock* clock = nullptr;
   std::string tool_version;
+  std::string os_login;  ///< the operating-system login of the process, in every entry
 };
 
 /// The header of an audit entry; its payload is every row appended since the previous entry.

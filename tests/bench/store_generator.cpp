@@ -18,6 +18,7 @@
 #include "domain/check_judgement.h"
 #include "domain/expiry.h"
 #include "domain/quantitation.h"
+#include "domain/user.h"
 #include "import/method_file.h"
 #include "store/store.h"
 
@@ -190,6 +191,7 @@ class Generator {
     unit_->registry_writer().add_settings({"Fenwick Brook Water Laboratory (fictional)", "UTC"});
     entry({"lab.init", "lab", "Fenwick Brook Water Laboratory (fictional)", std::nullopt,
            clock_.now()});
+    register_users();
     register_instruments();
     register_methods();
     history();
@@ -203,7 +205,8 @@ class Generator {
 
   void begin(Instant t) {
     clock_.set(t);
-    actor_ = store::Actor{analysts_[batch_ % analysts_.size()], &clock_, app::tool_version()};
+    actor_ =
+        store::Actor{analysts_[batch_ % analysts_.size()], &clock_, app::tool_version(), "bench"};
     ++batch_;
     unit_ = store_->write(actor_);
     in_unit_ = 0;
@@ -253,6 +256,21 @@ class Generator {
       methods_.push_back(std::move(m));
     }
     for (int k = 1; k <= 12; ++k) analysts_.push_back("analyst-" + two_digits(k));
+  }
+
+  /// The analysts who act in the history, and the two the benchmark and smoke commands act as
+  /// (`--as` must name an active user); one entry each, as `user add` writes them.
+  void register_users() {
+    std::vector<std::pair<std::string, Role>> users = {{"bench-admin", Role::Admin},
+                                                       {"bench-analyst", Role::Analyst},
+                                                       {"bench-reader", Role::Analyst}};
+    for (const auto& a : analysts_) users.emplace_back(a, Role::Reviewer);
+    for (const auto& [code, role] : users) {
+      const UserId id = unit_->registry_writer().add_user(code, "Bench user " + code, clock_.now());
+      unit_->registry_writer().add_user_event(
+          id, UserEvent{UserStatus::Enabled, role, "benchmark store", "bench-admin", clock_.now()});
+      entry({"user.add", "user", code, std::string("benchmark store"), clock_.now()});
+    }
   }
 
   void register_instruments() {

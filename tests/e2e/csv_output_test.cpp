@@ -101,6 +101,7 @@ TEST_CASE("e2e csv: every listing's CSV reads back as its JSON rows", "[e2e]") {
   Sandbox box;
   const std::string lab_name = "Laboratoire d'Analyse \"Süd\", Halle 3";
   run_ok(box, {"init", "--tz", "Europe/Berlin", "--lab", lab_name});
+  run_ok(box, {"user", "add", "bob", "--name", "Test user bob", "--role", "reviewer"});
   run_ok(box, {"instrument", "add", "IC-02", "--name", "Ionenchromatograph, Raum \"B\" – Nord"});
   run_ok(box, {"instrument", "add", "GC-01", "--name", "=SUM(A1:A9)"});
   box.write_file("anion.toml", cw::test::method_toml());
@@ -146,6 +147,7 @@ TEST_CASE("e2e csv: every listing's CSV reads back as its JSON rows", "[e2e]") {
       {"check list", {"check", "list"}},
       {"trend", {"trend", "--method", "ANION-IC", "--instrument", "IC-02", "--analyte", "nitrate"}},
       {"audit log", {"audit", "log"}},
+      {"user list", {"user", "list"}},
   };
   REQUIRE(args.size() == cw::report::csv_listings().size());
   for (const auto& listing : cw::report::csv_listings()) {

@@ -3,6 +3,8 @@
 // helpers that bypass the tool's store layer.
 #include "harness.h"
 
+#include <algorithm>
+
 #include <fcntl.h>
 #include <poll.h>
 #include <signal.h>
@@ -134,10 +136,23 @@ std::filesystem::path binary_path() {
 
 RunResult run_process(const std::filesystem::path& binary, const std::vector<std::string>& args,
                       const std::map<std::string, std::string>& env,
-                      const std::filesystem::path& cwd, const std::filesystem::path& stdin_path) {
+                      const std::filesystem::path& cwd, const std::filesystem::path& stdin_path,
+                      const std::optional<std::string>& fd3) {
   int out_pipe[2], err_pipe[2];
   if (pipe2(out_pipe, O_CLOEXEC) != 0) fail_errno("pipe");
   if (pipe2(err_pipe, O_CLOEXEC) != 0) fail_errno("pipe");
+  int in3[2] = {-1, -1};
+  if (fd3) {
+    // A few short lines: they fit in the pipe's buffer, so the pipe is filled and closed now.
+    if (pipe2(in3, O_CLOEXEC) != 0) fail_errno("pipe");
+    std::size_t done = 0;
+    while (done < fd3->size()) {
+      const ssize_t n = write(in3[1], fd3->data() + done, fd3->size() - done);
+      if (n < 0) fail_errno("write");
+      done += static_cast<std::size_t>(n);
+    }
+    close(in3[1]);
+  }
 
   // Everything the child needs is prepared before fork(): after it, only async-signal-safe
   // calls are allowed.
@@ -157,16 +172,21 @@ RunResult run_process(const std::filesystem::path& binary, const std::vector<std
   const pid_t pid = fork();
   if (pid < 0) fail_errno("fork");
   if (pid == 0) {
+    // A session of its own: no controlling terminal, so a command that would ask on the terminal
+    // fails at once instead of waiting for a person (the same as in CI).
+    setsid();
     dup2(out_pipe[1], STDOUT_FILENO);
     dup2(err_pipe[1], STDERR_FILENO);
     const int null_in = open(input.c_str(), O_RDONLY);
     if (null_in >= 0) dup2(null_in, STDIN_FILENO);
+    if (in3[0] >= 0) dup2(in3[0], 3);
     if (chdir(dir.c_str()) != 0) _exit(126);
     execve(argv[0], argv.data(), envp.data());
     _exit(127);
   }
   close(out_pipe[1]);
   close(err_pipe[1]);
+  if (in3[0] >= 0) close(in3[0]);
 
   RunResult result;
   result.args = args;
@@ -235,14 +255,91 @@ std::map<std::string, std::string> Sandbox::environment(const EnvOverrides& over
   return env;
 }
 
+std::string test_passphrase(const std::string& code) {
+  std::string c;
+  for (char ch : code) {
+    if (ch == ' ') continue;
+    c.push_back(ch >= 'A' && ch <= 'Z' ? static_cast<char>(ch - 'A' + 'a') : ch);
+  }
+  return "passphrase of " + c;
+}
+
+std::pair<std::vector<std::string>, std::optional<std::string>> with_test_passphrases(
+    const std::vector<std::string>& args, const std::string& user) {
+  const auto has = [&](const std::string& a) {
+    return std::find(args.begin(), args.end(), a) != args.end();
+  };
+  if (has("--passphrase-fd") || has("--help") || has("-h")) return {args, std::nullopt};
+  const auto value_of = [&](const std::string& option) -> std::optional<std::string> {
+    for (std::size_t i = 0; i + 1 < args.size(); ++i) {
+      if (args[i] == option) return args[i + 1];
+    }
+    return std::nullopt;
+  };
+  // The command's words: what is left once the global options and their values are skipped.
+  std::vector<std::string> words;
+  for (std::size_t i = 0; i < args.size(); ++i) {
+    const std::string& a = args[i];
+    if (a == "--db" || a == "--as" || a == "--at") {
+      ++i;
+    } else if (a == "--json" || a == "--csv" || a == "--follow-symlink") {
+      continue;
+    } else if (a.rfind("--", 0) != 0) {
+      words.push_back(a);
+    } else {
+      break;  // the command's own options start
+    }
+  }
+  const std::string first = words.empty() ? "" : words[0];
+  const std::string second = words.size() > 1 ? words[1] : "";
+  const std::string third = words.size() > 2 ? words[2] : "";
+  const bool signs =
+      first == "init" || (first == "curve" && (second == "review" || second == "retire")) ||
+      (first == "lot" && second == "withdraw") || (first == "method" && second == "revise") ||
+      (first == "instrument" && second == "service") ||
+      (first == "user" && (second == "add" || second == "disable" || second == "enable" ||
+                           second == "unlock" || second == "passphrase"));
+  if (!signs) return {args, std::nullopt};
+  std::string actor = user;
+  if (auto as = value_of("--as")) {
+    actor = *as;
+  } else if (auto admin = value_of("--admin"); admin && first == "init") {
+    actor = *admin;
+  }
+  std::string lines = test_passphrase(actor) + "\n";
+  if (first == "user" && (second == "add" || second == "passphrase")) {
+    lines += test_passphrase(third.empty() ? actor : third) + "\n";
+  }
+  std::vector<std::string> out = args;
+  out.push_back("--passphrase-fd");
+  out.push_back("3");
+  return {out, lines};
+}
+
 RunResult Sandbox::run(const std::vector<std::string>& args, const EnvOverrides& overrides) const {
-  return run_process(binary_path(), args, environment(overrides), dir_);
+  const auto env = environment(overrides);
+  const auto user = env.count("CURVEWARDEN_USER") ? env.at("CURVEWARDEN_USER") : std::string();
+  auto [full, lines] = with_test_passphrases(args, user);
+  RunResult r = run_process(binary_path(), full, env, dir_, "/dev/null", lines);
+  r.args = args;
+  return r;
+}
+
+RunResult Sandbox::add_user(const std::string& code, const std::string& role,
+                            const std::string& admin) const {
+  return run({"user", "add", code, "--name", "Test user " + code, "--role", role},
+             {{"CURVEWARDEN_USER", admin}});
 }
 
 RunResult Sandbox::run_with_input(const std::vector<std::string>& args, const std::string& input,
                                   const EnvOverrides& overrides) const {
   const auto file = write_file(".stdin", input);
-  return run_process(binary_path(), args, environment(overrides), dir_, file);
+  const auto env = environment(overrides);
+  const auto user = env.count("CURVEWARDEN_USER") ? env.at("CURVEWARDEN_USER") : std::string();
+  auto [full, lines] = with_test_passphrases(args, user);
+  RunResult r = run_process(binary_path(), full, env, dir_, file, lines);
+  r.args = args;
+  return r;
 }
 
 std::map<std::string, std::int64_t> table_row_counts(const std::filesystem::path& db) {

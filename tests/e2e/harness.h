@@ -29,6 +29,7 @@
 #include <nlohmann/json.hpp>
 #include <optional>
 #include <string>
+#include <utility>
 #include <vector>
 
 namespace cw::test {
@@ -59,11 +60,27 @@ struct RunResult {
 std::filesystem::path binary_path();
 
 /// Runs `binary` with `args` in `cwd` with exactly the environment `env` (no inheritance);
-/// waits for it and captures both output streams.
+/// waits for it and captures both output streams. With `fd3`, the child's descriptor 3 reads
+/// that text (a pipe filled before the child starts).
 RunResult run_process(const std::filesystem::path& binary, const std::vector<std::string>& args,
                       const std::map<std::string, std::string>& env,
                       const std::filesystem::path& cwd,
-                      const std::filesystem::path& stdin_path = "/dev/null");
+                      const std::filesystem::path& stdin_path = "/dev/null",
+                      const std::optional<std::string>& fd3 = std::nullopt);
+
+/// The passphrase every test user has: "passphrase of " + its code in lower case (users are
+/// registered with it by init and Sandbox::add_user).
+std::string test_passphrase(const std::string& code);
+
+/// `args` made ready for a signed command: when it is one (init, curve review/retire, lot
+/// withdraw, method revise, instrument service, user add/disable/enable/unlock/passphrase) and
+/// gives no --passphrase-fd, "--passphrase-fd 3" is appended and the lines descriptor 3 must
+/// hold are returned: the acting user's test passphrase (from --as, else init's --admin, else
+/// `user`), then for `user add CODE` and an admin's `user passphrase CODE` the passphrase of
+/// CODE, for one's own `user passphrase` the same passphrase again. This is the one place the
+/// tests give passphrases; the product has no way around them.
+std::pair<std::vector<std::string>, std::optional<std::string>> with_test_passphrases(
+    const std::vector<std::string>& args, const std::string& user);
 
 /// One test's temporary directory, store path and pinned environment.
 class Sandbox {
@@ -77,7 +94,9 @@ class Sandbox {
 
   /// CURVEWARDEN_NOW for every run (ISO-8601 with zone). Change it between runs to move time.
   std::string now = "2026-03-02T09:00:00Z";
-  /// CURVEWARDEN_USER for every run.
+  /// CURVEWARDEN_USER for every run. The first `init` of a sandbox's store registers this user
+  /// as the store's first admin (init's default), so it may do everything; other users acting in
+  /// a test are registered with add_user().
   std::string user = "alice";
 
   const std::filesystem::path& dir() const { return dir_; }
@@ -94,6 +113,12 @@ class Sandbox {
 
   /// Runs the binary with `args` in the sandbox directory.
   RunResult run(const std::vector<std::string>& args, const EnvOverrides& overrides = {}) const;
+  /// Registers `code` with `user add CODE --name NAME --role ROLE`, run as the store's admin
+  /// (`admin`, default this sandbox's first user "alice"); the store must be initialised. Returns
+  /// the run (callers REQUIRE its exit code).
+  RunResult add_user(const std::string& code, const std::string& role = "reviewer",
+                     const std::string& admin = "alice") const;
+
   /// Runs the binary with `input` on its standard input.
   RunResult run_with_input(const std::vector<std::string>& args, const std::string& input,
                            const EnvOverrides& overrides = {}) const;

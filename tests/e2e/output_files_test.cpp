@@ -37,6 +37,8 @@ void populate(Sandbox& box, int levels, int replicates) {
   }
   box.write_file("points.csv", csv);
   run_ok(box, {"init", "--tz", "UTC"});
+  run_ok(box,
+         {"user", "add", "m.reviewer", "--name", "Test user m.reviewer", "--role", "reviewer"});
   run_ok(box, {"instrument", "add", "IC-02"});
   run_ok(box, {"method", "add", "anion.toml"});
   run_ok(box, {"lot", "add", "CRM-1", "--material", "m", "--expires", "2027-03-31", "--value",

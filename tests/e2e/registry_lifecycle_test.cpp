@@ -56,13 +56,18 @@ TEST_CASE("e2e registry: init, instrument, method, revision, lot and withdrawal"
   CHECK(j["lab"] == "Water lab");
   CHECK(j["time_zone"] == "Europe/Berlin");
   CHECK(j["schema_version"] == 8);
+  CHECK(j["admin_registered"]["code"] == "alice");
   // CURVEWARDEN_NOW is "now" for the migration record too.
   CHECK(cw::test::query_text(box.db(),
                              "SELECT group_concat(DISTINCT applied_at) FROM "
                              "schema_migrations") == "2026-03-02T08:00:00Z");
   Counts counts = cw::test::table_row_counts(box.db());
-  CHECK(changes({}, counts) ==
-        Counts{{"audit_log", 1}, {"lab_settings", 1}, {"schema_migrations", 7}});
+  CHECK(changes({}, counts) == Counts{{"audit_log", 1},
+                                      {"lab_settings", 1},
+                                      {"schema_migrations", 8},
+                                      {"user_events", 1},
+                                      {"user_passphrases", 1},
+                                      {"users", 1}});
 
   // 2. instrument add
   box.now = "2026-03-02T09:00:00Z";
@@ -114,7 +119,8 @@ TEST_CASE("e2e registry: init, instrument, method, revision, lot and withdrawal"
   CHECK(j["source_name"] == "anion-v2.toml");
   CHECK(j["source_sha256"] == kV2Sha);
   next = cw::test::table_row_counts(box.db());
-  CHECK(changes(counts, next) == Counts{{"audit_log", 1}, {"method_versions", 1}});
+  CHECK(changes(counts, next) ==
+        Counts{{"audit_log", 1}, {"method_versions", 1}, {"signatures", 1}});
   counts = next;
   // As of an hour before the revision, version 1 is the one in force.
   j = ok_json(box, {"method", "show", "ANION-IC", "--at", "2026-03-03T09:00:00Z", "--json"});
@@ -153,7 +159,8 @@ TEST_CASE("e2e registry: init, instrument, method, revision, lot and withdrawal"
   CHECK(j["withdrawn_at"] == "2026-03-05T07:30:00Z");
   CHECK(j["withdrawal_reason"] == "seal broken on arrival");
   next = cw::test::table_row_counts(box.db());
-  CHECK(changes(counts, next) == Counts{{"audit_log", 1}, {"lot_withdrawals", 1}});
+  CHECK(changes(counts, next) ==
+        Counts{{"audit_log", 1}, {"lot_withdrawals", 1}, {"signatures", 1}});
 
   // The trail: one entry per step, in order, by the acting person, with CURVEWARDEN_NOW noted.
   const Json entries = ok_json(box, {"audit", "log", "--json"})["entries"];
@@ -230,6 +237,7 @@ TEST_CASE("e2e registry: init is idempotent", "[e2e]") {
     CHECK(j["lab"] == "Water lab");
     CHECK(j["time_zone"] == "America/New_York");
     CHECK(j["schema_version"] == 8);
+    CHECK(j["admin_registered"].is_null());  // the store has its admin already
     CHECK(cw::test::table_row_counts(box.db()) == counts);
     CHECK(cw::test::read_file(box.db()) == bytes);
   }

@@ -31,6 +31,7 @@ void populate(Sandbox& box) {
   box.write_file("anion.toml", cw::test::method_toml());
   box.write_file("points.csv", kPoints);
   run_ok(box, {"init", "--lab", "Water lab", "--tz", "Europe/Berlin"});
+  run_ok(box, {"user", "add", "bob", "--name", "Test user bob", "--role", "reviewer"});
   run_ok(box, {"instrument", "add", "IC-02"});
   run_ok(box, {"method", "add", "anion.toml"});
   run_ok(box, {"lot", "add", "CRM-1", "--material", "Nitrate CRM", "--expires", "2027-03-31",

@@ -172,8 +172,10 @@ TEST_CASE("e2e tamper: a trail cut short with its rows is found only by the head
   const Json before = box.run({"audit", "verify", "--json"}).json();
   REQUIRE(before["ok"] == true);
   drop_all_triggers(box);
-  REQUIRE(cw::test::exec_sql(
-              box.db(), "DELETE FROM lot_withdrawals; DELETE FROM audit_log WHERE seq = 6") == 0);
+  REQUIRE(
+      cw::test::exec_sql(box.db(),
+                         "DELETE FROM lot_withdrawals; DELETE FROM signatures WHERE audit_seq = 6; "
+                         "DELETE FROM audit_log WHERE seq = 6") == 0);
   // The chain itself holds; the store is still reported damaged (exit 4) because its append-only
   // guards were dropped to make the cut.
   const RunResult after = box.run({"audit", "verify", "--json"});
@@ -182,7 +184,7 @@ TEST_CASE("e2e tamper: a trail cut short with its rows is found only by the head
   CHECK(j["entries"] == 5);
   CHECK(j["chain_intact"] == true);
   CHECK(j["ok"] == false);
-  CHECK(j["missing_guards"].size() == 48);  // two per table: 22 fact tables, trail, migrations
+  CHECK(j["missing_guards"].size() == 58);  // two per table: 27 fact tables, trail, migrations
   CHECK(j["head_hash"] != before["head_hash"]);
   CHECK(j["head_hash"] ==
         cw::test::query_text(box.db(), "SELECT hash FROM audit_log WHERE seq = 5"));

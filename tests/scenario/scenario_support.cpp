@@ -45,6 +45,11 @@ Lab::Lab(const std::string& zone, const std::string& setup_at) : setup_at_(setup
   const RunResult r = box.run({"init", "--lab", "Scenario lab", "--tz", zone});
   INFO(r.describe());
   REQUIRE(r.exit_code == 0);
+  for (const char* reviewer : {"bob", "carol"}) {
+    const RunResult added = box.add_user(reviewer, "reviewer");
+    INFO(added.describe());
+    REQUIRE(added.exit_code == 0);
+  }
 }
 
 RunResult Lab::run(const std::vector<std::string>& args) const {

@@ -61,7 +61,8 @@ class Lab {
   /// When the registries of a default lab are set up: well before the scenarios' days.
   static constexpr const char* kSetupAt = "2026-02-01T08:00:00Z";
 
-  /// Creates the store (`init --tz zone`) at `setup_at` and leaves `box.now` there.
+  /// Creates the store (`init --tz zone`, which makes the sandbox's user "alice" its admin) at
+  /// `setup_at`, registers the reviewers "bob" and "carol", and leaves `box.now` there.
   explicit Lab(const std::string& zone = "UTC", const std::string& setup_at = kSetupAt);
 
   cw::test::Sandbox box;

@@ -29,6 +29,7 @@ audit::AuditEntry entry_of(SQLite::Statement& s) {
   e.payload = s.getColumn(10).getString();
   e.prev_hash = s.getColumn(11).getString();
   e.hash = s.getColumn(12).getString();
+  e.os_login = opt_text(s.getColumn(13));
   return e;
 }
 
@@ -254,6 +255,17 @@ std::optional<ChainHead> SqliteAudit::head() {
   return out;
 }
 
+std::optional<std::string> SqliteAudit::hash_at(std::int64_t seq) {
+  return guarded(db_, [&]() -> std::optional<std::string> {
+    auto& s = db_.statement(sql::kAuditHashAt);
+    bind_int(s, ":seq", seq);
+    std::optional<std::string> out;
+    if (s.executeStep()) out = s.getColumn(0).getString();
+    s.reset();
+    return out;
+  });
+}
+
 void SqliteAudit::start(WriteState& w) {
   auto& last = db_.statement(sql::kAuditHead);
   if (last.executeStep()) {
@@ -279,6 +291,7 @@ void SqliteAudit::append(WriteState& w, const Actor& actor, const EntryHeader& h
     e.reason = header.reason;
     e.clock_overridden = actor.clock->is_overridden();
     e.tool_version = actor.tool_version;
+    e.os_login = actor.os_login;
     e.payload = payloads_.payload(w.rows);
     e.prev_hash = w.prev_hash;
     e.hash = audit::compute_hash(e);
@@ -297,6 +310,7 @@ void SqliteAudit::append(WriteState& w, const Actor& actor, const EntryHeader& h
     bind_text(insert, ":payload", e.payload);
     bind_text(insert, ":prev_hash", e.prev_hash);
     bind_text(insert, ":hash", e.hash);
+    bind_opt_text(insert, ":os_login", e.os_login);
     insert.exec();
     w.prev_hash = e.hash;
     ++w.seq;

@@ -29,6 +29,7 @@ class SqliteAudit final : public AuditReader {
   std::vector<audit::AuditEntry> list(const AuditFilter& filter) override;
   VerifyReport verify() override;
   std::optional<ChainHead> head() override;
+  std::optional<std::string> hash_at(std::int64_t seq) override;
 
   /// Reads the head of the chain into `w` (inside the write transaction).
   void start(WriteState& w);

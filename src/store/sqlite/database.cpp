@@ -47,6 +47,7 @@ void migrate(Database& d, const std::vector<MigrationSpec>& migrations, const Cl
       db.exec("PRAGMA application_id = " + std::to_string(kApplicationId));
     }
     db.exec(m.sql);
+    if (m.after != nullptr) m.after(d, clock);
     SQLite::Statement record(db,
                              "INSERT INTO schema_migrations (version, name, sha256, applied_at) "
                              "VALUES (:version, :name, :sha256, :applied_at)");
@@ -65,7 +66,10 @@ void migrate(Database& d, const std::vector<MigrationSpec>& migrations, const Cl
 
 std::vector<MigrationSpec> embedded_migrations() {
   std::vector<MigrationSpec> out;
-  for (const auto& m : sql::migrations()) out.push_back({m.version, m.name, m.text});
+  for (const auto& m : sql::migrations()) {
+    out.push_back({m.version, m.name, m.text});
+    if (m.version == 7) out.back().after = register_legacy_actors;
+  }
   return out;
 }
 
@@ -98,9 +102,11 @@ void damaged(const std::string& path, const std::string& what) {
 }
 
 std::unique_ptr<Database> Database::open(const std::string& path, bool create, int busy_timeout_ms,
-                                         const std::vector<MigrationSpec>& migrations) {
+                                         const std::vector<MigrationSpec>& migrations,
+                                         const std::string& os_login) {
   auto d = std::make_unique<Database>();
   d->path = path;
+  d->os_login = os_login;
   const bool memory = path == ":memory:";
   if (!memory) {
     struct stat st {};

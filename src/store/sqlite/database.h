@@ -24,12 +24,15 @@ struct Database {
   std::string path;
   std::unique_ptr<SQLite::Database> db;
   bool created = false;
+  /// The operating-system login of the process (recorded by entries a migration writes).
+  std::string os_login;
   std::map<const char*, std::unique_ptr<SQLite::Statement>> statements;
 
   /// Opens the file, checks that it is ours and not newer than `migrations`, sets the
   /// connection's pragmas and applies pending migrations (each in its own transaction).
   static std::unique_ptr<Database> open(const std::string& path, bool create, int busy_timeout_ms,
-                                        const std::vector<MigrationSpec>& migrations);
+                                        const std::vector<MigrationSpec>& migrations,
+                                        const std::string& os_login = {});
 
   /// A cached prepared statement for a static SQL text, reset and with bindings cleared.
   SQLite::Statement& statement(const char* sql);
@@ -39,6 +42,10 @@ struct Database {
   void release_statements();
   int user_version();
 };
+
+/// Migration 0007's step: every name in the trail that is not a user yet becomes one, disabled
+/// until an admin enables it, each with an audit entry of its own.
+void register_legacy_actors(Database& db, const Clock& clock);
 
 /// Translates an SQLite error into StoreError (exit 4); the SQLite codes stay in the message.
 [[noreturn]] void rethrow(const SQLite::Exception& e, const std::string& path);

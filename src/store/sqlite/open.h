@@ -11,10 +11,15 @@
 
 namespace cw::store::sqlite {
 
+struct Database;
+
 struct MigrationSpec {
   int version;
   std::string name;
   std::string sql;
+  /// Run after `sql` in the same transaction, for a step SQL cannot do alone (one that writes
+  /// audit entries, which need the hash chain).
+  void (*after)(Database& db, const Clock& clock) = nullptr;
 };
 
 /// Every migration compiled into this binary, in order.

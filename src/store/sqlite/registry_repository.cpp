@@ -394,3 +394,181 @@ void SqliteRegistry::add_lot_withdrawal(LotId id, const LotWithdrawal& wd) {
 }
 
 }  // namespace cw::store::sqlite
+
+namespace cw::store::sqlite {
+
+std::vector<User> SqliteRegistry::complete(std::vector<User> list) {
+  if (list.empty()) return list;
+  std::map<UserId, User*> by_id;
+  for (auto& u : list) by_id[u.id] = &u;
+  auto& s = db_.statement(sql::kUserEventsOf);
+  bind_ids(s, ":ids", ids_of(list));
+  while (s.executeStep()) {
+    UserEvent e;
+    e.status =
+        stored_enum(parse_user_status, s.getColumn(1).getString(), "user_events.status", db_.path);
+    e.role = stored_enum(parse_role, s.getColumn(2).getString(), "user_events.role", db_.path);
+    e.reason = s.getColumn(3).getString();
+    e.by = s.getColumn(4).getString();
+    e.occurred_at = stored_instant(s.getColumn(5).getString(), "user_events.occurred_at", db_.path);
+    by_id.at(UserId{s.getColumn(0).getInt64()})->events.push_back(std::move(e));
+  }
+  s.reset();
+  for (const auto& u : list) {
+    if (u.events.empty()) damaged(db_.path, "user " + u.code + " has no status event");
+  }
+  return list;
+}
+
+namespace {
+User user_of(SQLite::Statement& s, const std::string& path) {
+  User u;
+  u.id = UserId{s.getColumn(0).getInt64()};
+  u.code = s.getColumn(1).getString();
+  u.name = s.getColumn(2).getString();
+  u.registered_at = stored_instant(s.getColumn(3).getString(), "users.registered_at", path);
+  return u;
+}
+}  // namespace
+
+std::optional<User> SqliteRegistry::user(std::string_view code) {
+  return guarded(db_, [&]() -> std::optional<User> {
+    auto& s = db_.statement(sql::kUserByCode);
+    bind_text(s, ":code", std::string(code));
+    auto list = complete(all_rows<User>(s, [&](auto& st) { return user_of(st, db_.path); }));
+    if (list.empty()) return std::nullopt;
+    return list.front();
+  });
+}
+
+std::vector<User> SqliteRegistry::users() {
+  return guarded(db_, [&] {
+    auto& s = db_.statement(sql::kUsersAll);
+    return complete(all_rows<User>(s, [&](auto& st) { return user_of(st, db_.path); }));
+  });
+}
+
+std::vector<std::string> SqliteRegistry::unregistered_actors() {
+  return guarded(db_, [&] {
+    auto& s = db_.statement(sql::kUnregisteredActors);
+    return all_rows<std::string>(s, [](auto& st) { return st.getColumn(0).getString(); });
+  });
+}
+
+UserId SqliteRegistry::add_user(const std::string& code, const std::string& name,
+                                Instant registered_at) {
+  WriteState& w = writing();
+  return guarded(db_, [&] {
+    auto& s = db_.statement(sql::kInsertUser);
+    bind_text(s, ":code", code);
+    bind_text(s, ":name", name);
+    bind_instant(s, ":at", registered_at);
+    bind_int(s, ":seq", w.seq);
+    s.exec();
+    const UserId id{db_.db->getLastInsertRowid()};
+    w.add_row(FactTable::Users, id.value);
+    return id;
+  });
+}
+
+void SqliteRegistry::add_user_event(UserId id, const UserEvent& e) {
+  WriteState& w = writing();
+  guarded(db_, [&] {
+    auto& s = db_.statement(sql::kInsertUserEvent);
+    bind_int(s, ":user", id.value);
+    bind_text(s, ":status", std::string(to_string(e.status)));
+    bind_text(s, ":role", std::string(to_string(e.role)));
+    bind_text(s, ":reason", e.reason);
+    bind_text(s, ":by", e.by);
+    bind_instant(s, ":at", e.occurred_at);
+    bind_int(s, ":seq", w.seq);
+    s.exec();
+    w.add_row(FactTable::UserEvents, db_.db->getLastInsertRowid());
+  });
+}
+
+std::optional<std::string> SqliteRegistry::passphrase_hash(UserId user) {
+  return guarded(db_, [&]() -> std::optional<std::string> {
+    auto& s = db_.statement(sql::kPassphraseOf);
+    bind_int(s, ":user", user.value);
+    std::optional<std::string> out;
+    if (s.executeStep()) out = s.getColumn(0).getString();
+    s.reset();
+    return out;
+  });
+}
+
+int SqliteRegistry::failed_signatures_in_a_row(UserId user) {
+  return guarded(db_, [&] {
+    auto& s = db_.statement(sql::kFailedSignaturesInARow);
+    bind_int(s, ":user", user.value);
+    s.executeStep();
+    const int n = s.getColumn(0).getInt();
+    s.reset();
+    return n;
+  });
+}
+
+std::vector<Signature> SqliteRegistry::signatures_of(const std::string& entity_kind,
+                                                     const std::vector<std::string>& entity_ids) {
+  return guarded(db_, [&] {
+    auto& s = db_.statement(sql::kSignaturesOf);
+    bind_text(s, ":kind", entity_kind);
+    bind_text(s, ":ids", nlohmann::json(entity_ids).dump());
+    return all_rows<Signature>(s, [&](auto& st) {
+      Signature g;
+      g.user = UserId{st.getColumn(0).getInt64()};
+      g.code = st.getColumn(1).getString();
+      g.name = st.getColumn(2).getString();
+      g.meaning = st.getColumn(3).getString();
+      g.entity_kind = st.getColumn(4).getString();
+      g.entity_id = st.getColumn(5).getString();
+      g.signed_at = stored_instant(st.getColumn(6).getString(), "signatures.signed_at", db_.path);
+      return g;
+    });
+  });
+}
+
+void SqliteRegistry::add_passphrase(UserId id, const std::string& hash, Instant at) {
+  WriteState& w = writing();
+  guarded(db_, [&] {
+    auto& s = db_.statement(sql::kInsertPassphrase);
+    bind_int(s, ":user", id.value);
+    bind_text(s, ":hash", hash);
+    bind_instant(s, ":at", at);
+    bind_int(s, ":seq", w.seq);
+    s.exec();
+    w.add_row(FactTable::UserPassphrases, db_.db->getLastInsertRowid());
+  });
+}
+
+void SqliteRegistry::add_signature(const Signature& g) {
+  WriteState& w = writing();
+  guarded(db_, [&] {
+    auto& s = db_.statement(sql::kInsertSignature);
+    bind_int(s, ":user", g.user.value);
+    bind_text(s, ":name", g.name);
+    bind_text(s, ":meaning", g.meaning);
+    bind_text(s, ":kind", g.entity_kind);
+    bind_text(s, ":id", g.entity_id);
+    bind_instant(s, ":at", g.signed_at);
+    bind_int(s, ":seq", w.seq);
+    s.exec();
+    w.add_row(FactTable::Signatures, db_.db->getLastInsertRowid());
+  });
+}
+
+void SqliteRegistry::add_signature_failure(UserId id, const std::string& action, Instant at) {
+  WriteState& w = writing();
+  guarded(db_, [&] {
+    auto& s = db_.statement(sql::kInsertSignatureFailure);
+    bind_int(s, ":user", id.value);
+    bind_text(s, ":action", action);
+    bind_instant(s, ":at", at);
+    bind_int(s, ":seq", w.seq);
+    s.exec();
+    w.add_row(FactTable::SignatureFailures, db_.db->getLastInsertRowid());
+  });
+}
+
+}  // namespace cw::store::sqlite

@@ -24,6 +24,13 @@ class SqliteRegistry final : public RegistryReader, public RegistryWriter {
   std::optional<Lot> lot(std::string_view code) override;
   std::vector<Lot> lots() override;
   std::vector<Lot> lots(const std::vector<LotId>& ids) override;
+  std::optional<User> user(std::string_view code) override;
+  std::vector<User> users() override;
+  std::vector<std::string> unregistered_actors() override;
+  std::optional<std::string> passphrase_hash(UserId user) override;
+  int failed_signatures_in_a_row(UserId user) override;
+  std::vector<Signature> signatures_of(const std::string& entity_kind,
+                                       const std::vector<std::string>& entity_ids) override;
 
   void add_settings(const LabSettings& s) override;
   InstrumentId add_instrument(const std::string& code, const std::optional<std::string>& name,
@@ -34,12 +41,18 @@ class SqliteRegistry final : public RegistryReader, public RegistryWriter {
   MethodVersionId add_method_version(MethodId method, const MethodVersion& v) override;
   LotId add_lot(const Lot& lot) override;
   void add_lot_withdrawal(LotId id, const LotWithdrawal& w) override;
+  UserId add_user(const std::string& code, const std::string& name, Instant registered_at) override;
+  void add_user_event(UserId id, const UserEvent& e) override;
+  void add_passphrase(UserId id, const std::string& hash, Instant at) override;
+  void add_signature(const Signature& s) override;
+  void add_signature_failure(UserId id, const std::string& action, Instant at) override;
 
  private:
   WriteState& writing();
   std::vector<Instrument> complete(std::vector<Instrument> list);
   std::vector<Method> complete(std::vector<Method> list);
   std::vector<Lot> complete(std::vector<Lot> list);
+  std::vector<User> complete(std::vector<User> list);
 
   Database& db_;
   WriteState* w_;

@@ -81,6 +81,44 @@ inline constexpr const char* kInsertLotWithdrawal =
     "INSERT INTO lot_withdrawals (lot_id, reason, occurred_at, audit_seq) "
     "VALUES (:lot, :reason, :at, :seq)";
 
+// ---- users
+inline constexpr const char* kUserByCode =
+    "SELECT id, code, name, registered_at FROM users WHERE code = :code";
+inline constexpr const char* kUsersAll =
+    "SELECT id, code, name, registered_at FROM users ORDER BY code";
+inline constexpr const char* kUserEventsOf =
+    "SELECT user_id, status, role, reason, by_user, occurred_at FROM user_events "
+    "WHERE user_id IN (SELECT value FROM json_each(:ids)) ORDER BY user_id, id";
+inline constexpr const char* kInsertUser =
+    "INSERT INTO users (code, name, registered_at, audit_seq) VALUES (:code, :name, :at, :seq)";
+inline constexpr const char* kInsertUserEvent =
+    "INSERT INTO user_events (user_id, status, role, reason, by_user, occurred_at, audit_seq) "
+    "VALUES (:user, :status, :role, :reason, :by, :at, :seq)";
+inline constexpr const char* kPassphraseOf =
+    "SELECT hash FROM user_passphrases WHERE user_id = :user ORDER BY id DESC LIMIT 1";
+inline constexpr const char* kInsertPassphrase =
+    "INSERT INTO user_passphrases (user_id, hash, occurred_at, audit_seq) "
+    "VALUES (:user, :hash, :at, :seq)";
+inline constexpr const char* kFailedSignaturesInARow =
+    "SELECT count(*) FROM signature_failures WHERE user_id = :user AND audit_seq > max("
+    "coalesce((SELECT max(audit_seq) FROM signatures WHERE user_id = :user), 0), "
+    "coalesce((SELECT max(audit_seq) FROM user_passphrases WHERE user_id = :user), 0), "
+    "coalesce((SELECT max(audit_seq) FROM user_events WHERE user_id = :user), 0))";
+inline constexpr const char* kInsertSignatureFailure =
+    "INSERT INTO signature_failures (user_id, action, occurred_at, audit_seq) "
+    "VALUES (:user, :action, :at, :seq)";
+inline constexpr const char* kSignaturesOf =
+    "SELECT s.user_id, u.code, s.name, s.meaning, s.entity_kind, s.entity_id, s.signed_at "
+    "FROM signatures s JOIN users u ON u.id = s.user_id WHERE s.entity_kind = :kind AND "
+    "s.entity_id IN (SELECT value FROM json_each(:ids)) ORDER BY s.id";
+inline constexpr const char* kInsertSignature =
+    "INSERT INTO signatures (user_id, name, meaning, entity_kind, entity_id, signed_at, "
+    "audit_seq) VALUES (:user, :name, :meaning, :kind, :id, :at, :seq)";
+/// The names in the trail that no user has (compared in canonical form), first spelling first.
+inline constexpr const char* kUnregisteredActors =
+    "SELECT actor, min(seq) AS first FROM audit_log a WHERE NOT EXISTS (SELECT 1 FROM users u "
+    "WHERE u.code = lower(a.actor)) GROUP BY lower(actor) ORDER BY first";
+
 // ---- calibrations and curves
 inline constexpr const char* kCalibrationsByIds =
     "SELECT id, method_version_id, instrument_id, acquired_at, analyst, note, points_file, "
@@ -346,22 +384,24 @@ inline constexpr const char* kInsertColumnMap =
 inline constexpr const char* kAuditHead =
     "SELECT seq, hash FROM audit_log ORDER BY seq DESC LIMIT 1";
 inline constexpr const char* kAuditCount = "SELECT count(*) FROM audit_log";
+inline constexpr const char* kAuditHashAt = "SELECT hash FROM audit_log WHERE seq = :seq";
 inline constexpr const char* kAuditColumns =
     "seq, recorded_at, occurred_at, actor, action, entity_kind, entity_id, reason, "
-    "clock_overridden, tool_version, payload, prev_hash, hash";
+    "clock_overridden, tool_version, payload, prev_hash, hash, os_login";
 inline constexpr const char* kAuditAll =
     "SELECT seq, recorded_at, occurred_at, actor, action, entity_kind, entity_id, reason, "
-    "clock_overridden, tool_version, payload, prev_hash, hash FROM audit_log ORDER BY seq";
+    "clock_overridden, tool_version, payload, prev_hash, hash, os_login FROM audit_log ORDER BY "
+    "seq";
 inline constexpr const char* kAuditFiltered =
     "SELECT seq, recorded_at, occurred_at, actor, action, entity_kind, entity_id, reason, "
-    "clock_overridden, tool_version, payload, prev_hash, hash FROM audit_log "
+    "clock_overridden, tool_version, payload, prev_hash, hash, os_login FROM audit_log "
     "WHERE (:since IS NULL OR recorded_at >= :since) AND (:kind IS NULL OR entity_kind = :kind) "
     "AND (:id IS NULL OR entity_id = :id) ORDER BY seq";
 inline constexpr const char* kInsertAudit =
     "INSERT INTO audit_log (seq, recorded_at, occurred_at, actor, action, entity_kind, "
-    "entity_id, reason, clock_overridden, tool_version, payload, prev_hash, hash) VALUES "
-    "(:seq, :recorded_at, :occurred_at, :actor, :action, :entity_kind, :entity_id, :reason, "
-    ":clock_overridden, :tool_version, :payload, :prev_hash, :hash)";
+    "entity_id, reason, clock_overridden, tool_version, payload, prev_hash, hash, os_login) "
+    "VALUES (:seq, :recorded_at, :occurred_at, :actor, :action, :entity_kind, :entity_id, "
+    ":reason, :clock_overridden, :tool_version, :payload, :prev_hash, :hash, :os_login)";
 inline constexpr const char* kTriggerNames =
     "SELECT name FROM sqlite_master WHERE type = 'trigger'";
 

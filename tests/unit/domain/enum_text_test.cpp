@@ -43,7 +43,8 @@ TEST_CASE("enum text: curve states, reasons, flags and statuses round-trip", "[d
   round_trip(std::vector<CurveState>(std::begin(kAllCurveStates), std::end(kAllCurveStates)),
              parse_curve_state);
   round_trip(all_reasons(), parse_reason);
-  CHECK(all_reasons().size() == 22);  // + trend-violation, check-due, already-imported
+  // + trend-violation, check-due, already-imported, not-permitted, wrong-passphrase, user-locked
+  CHECK(all_reasons().size() == 25);
   round_trip(all_result_flags(), parse_result_flag);
   round_trip(std::vector<ResultStatus>{ResultStatus::Reported, ResultStatus::Refused},
              parse_result_status);

@@ -48,7 +48,7 @@ struct Fixture {
   TempDir tmp;
   std::filesystem::path path = tmp / "audit.db";
   cw::FixedClock clock{utc(2026, 3, 2, 9)};
-  Actor actor{"alice", &clock, "curvewarden test"};
+  Actor actor{"alice", &clock, "curvewarden test", "labtech"};
   std::unique_ptr<cw::store::Store> c = open();
 
   std::unique_ptr<cw::store::Store> open() {
@@ -195,7 +195,7 @@ TEST_CASE("audit: the stored hash matches an independent SHA-256 of the canonica
   Fixture f;
   f.add_instrument("IC-02", utc(2026, 3, 1, 8));
   UnflaggedClock unflagged(utc(2026, 3, 2, 10, 15));
-  const Actor bob{"bob", &unflagged, "curvewarden test"};
+  const Actor bob{"bob", &unflagged, "curvewarden test", "labtech"};
   {
     auto tx = f.c->write(bob);
     const auto id = tx->registry().instrument("IC-02")->id;
@@ -211,16 +211,16 @@ TEST_CASE("audit: the stored hash matches an independent SHA-256 of the canonica
   REQUIRE(rows.size() == 2);
 
   // Entry 1: [seq, recorded_at, occurred_at, actor, action, entity_kind, entity_id,
-  // reason-or-null, clock_overridden, tool_version] as compact JSON.
+  // reason-or-null, clock_overridden, tool_version, os_login] as compact JSON.
   const std::string header1 =
       R"([1,"2026-03-02T09:00:00Z","2026-03-01T08:00:00Z","alice","instrument.add",)"
-      R"("instrument","IC-02",null,true,"curvewarden test"])";
+      R"("instrument","IC-02",null,true,"curvewarden test","labtech"])";
   CHECK(rows[0][2] == evp_sha256_hex(kZeros + "\n" + header1 + "\n" + rows[0][1]));
 
   // Entry 2: a reason with quotes and a non-ASCII character, and a clock not overridden.
   const std::string header2 =
       R"([2,"2026-03-02T10:15:00Z","2026-03-01T12:00:00Z","bob","instrument.service-out",)"
-      R"("instrument","IC-02","pump seal \"leaking\" ±",false,"curvewarden test"])";
+      R"("instrument","IC-02","pump seal \"leaking\" ±",false,"curvewarden test","labtech"])";
   const std::string payload2 =
       R"({"instrument_service_events":[{"audit_seq":2,"direction":"out","id":1,)"
       R"("instrument_id":1,"occurred_at":"2026-03-01T12:00:00Z",)"
@@ -263,7 +263,7 @@ TEST_CASE("audit: verify names the first entry that no longer holds", "[store][a
     // own, but entry 3 no longer links to it.
     const std::string header =
         R"([2,"2026-03-02T09:00:00Z","2026-03-01T09:00:00Z","mallory","instrument.add",)"
-        R"("instrument","IC-02",null,true,"curvewarden test"])";
+        R"("instrument","IC-02",null,true,"curvewarden test","labtech"])";
     const std::string forged =
         evp_sha256_hex(raw.text("SELECT prev_hash FROM audit_log WHERE seq = 2") + "\n" + header +
                        "\n" + raw.text("SELECT payload FROM audit_log WHERE seq = 2"));

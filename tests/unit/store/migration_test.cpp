@@ -68,8 +68,7 @@ std::vector<std::string> table_names(RawDb& raw) {
 
 TEST_CASE("store: the migrations compiled in are the files of migrations/, in order", "[store]") {
   const auto m = cw::store::sqlite::embedded_migrations();
-  // 0007 is taken by the users-and-signatures branch; 0008 adds indexes for status.
-  REQUIRE(m.size() == 7);
+  REQUIRE(m.size() == 8);
   CHECK(m[0].version == 1);
   CHECK(m[0].name == "0001_create_audit_and_registries");
   CHECK(m[1].version == 2);
@@ -82,8 +81,11 @@ TEST_CASE("store: the migrations compiled in are the files of migrations/, in or
   CHECK(m[4].name == "0005_add_censoring_and_uncertainty");
   CHECK(m[5].version == 6);
   CHECK(m[5].name == "0006_record_runs_and_status_events");
-  CHECK(m[6].version == 8);
-  CHECK(m[6].name == "0008_index_curves_for_status");
+  CHECK(m[6].version == 7);
+  CHECK(m[6].name == "0007_register_users_and_signatures");
+  CHECK(m[6].after != nullptr);  // registers the names of an older trail as users
+  CHECK(m[7].version == 8);
+  CHECK(m[7].name == "0008_index_curves_for_status");
   CHECK_THAT(m[0].sql, Catch::Contains("CREATE TABLE audit_log"));
 }
 
@@ -136,9 +138,14 @@ TEST_CASE("store: a fresh store records every migration, user_version and applic
                                                      "run_checks",
                                                      "run_results",
                                                      "runs",
-                                                     "schema_migrations"});
-  // Two append-only triggers (no update, no delete) for each of the 24 tables.
-  CHECK(raw.integer("SELECT count(*) FROM sqlite_master WHERE type = 'trigger'") == 48);
+                                                     "schema_migrations",
+                                                     "signature_failures",
+                                                     "signatures",
+                                                     "user_events",
+                                                     "user_passphrases",
+                                                     "users"});
+  // Two append-only triggers (no update, no delete) for each of the 29 tables.
+  CHECK(raw.integer("SELECT count(*) FROM sqlite_master WHERE type = 'trigger'") == 58);
 
   // The same facts in the file header, read as bytes.
   const std::string header = read_bytes(path).substr(0, 100);

@@ -48,6 +48,11 @@ TEST_CASE("store: every per-curve and per-group lookup searches an index", "[sto
        "COVERING INDEX curves_by_instrument_group", "curves"},
       {"recent failed checks of an instrument", sql::kRecentFailedChecks, "checks_failed_by_time",
        "checks"},
+      {"status events of users", sql::kUserEventsOf, "user_events_by_user", "user_events"},
+      {"a user's passphrase", sql::kPassphraseOf, "user_passphrases_by_user", "user_passphrases"},
+      {"a user's wrong passphrases", sql::kFailedSignaturesInARow, "signature_failures_by_user",
+       "signature_failures"},
+      {"signatures of records", sql::kSignaturesOf, "signatures_by_entity", "signatures"},
   };
   for (const auto& e : expected) {
     INFO(e.name);
