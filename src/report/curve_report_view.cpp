@@ -9,6 +9,7 @@
 
 #include "core/text.h"
 #include "domain/quantitation.h"
+#include "domain/user.h"
 #include "report/curve_plot_view.h"
 #include "report/curve_views.h"
 #include "report/numbers.h"
@@ -256,6 +257,13 @@ plot::CurveReport curve_report_of(const app::CurveReportFacts& facts, const LabZ
     if (rev.occurred_at > v.as_of) continue;
     r.reviewer = plot::PersonLine{rev.reviewer, zone.format_local(rev.occurred_at),
                                   review_action(rev), std::nullopt};
+    // The review's electronic signature (21 CFR 11.50): given in the same act, by the same user.
+    for (const auto& g : v.signatures) {
+      if (g.signed_at == rev.occurred_at && g.code == canonical_user_code(rev.reviewer)) {
+        r.reviewer->signature =
+            plot::SignatureManifestation{g.name, zone.format_local(g.signed_at), g.meaning};
+      }
+    }
   }
   r.fit = fit_of(v);
   r.levels = levels_of(v);

@@ -6,6 +6,7 @@
 // and reports, and a trail that verifies. The demo's data are invented (demo/gen/*.awk).
 #include <catch2/catch.hpp>
 #include <cstdio>
+#include <filesystem>
 #include <memory>
 #include <set>
 #include <string>
@@ -175,6 +176,14 @@ TEST_CASE("e2e demo: three weeks of the fictional lab play to the end and show w
     const std::string text = command_output("pdftotext '" + run_pdf + "' -");
     CHECK(text.find("DW-1127-05") != std::string::npos);
     CHECK(text.find("111.6") != std::string::npos);
+    // the curve report carries the reviewer's electronic signature
+    std::string curve_pdf;
+    for (const auto& f : std::filesystem::directory_iterator(out / "reports")) {
+      if (f.path().filename().string().rfind("curve-", 0) == 0) curve_pdf = f.path().string();
+    }
+    REQUIRE_FALSE(curve_pdf.empty());
+    CHECK(command_output("pdftotext '" + curve_pdf + "' -")
+              .find("Signed electronically by Jonas Lindqvist") != std::string::npos);
     const RunResult verify =
         box.run({"audit", "verify"}, {{"CURVEWARDEN_DB", (out / "demo.db").string()}});
     INFO(verify.describe());
