@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # Installs missing packages, builds with warnings as errors and runs every test through ctest
 # (the crash trials and the concurrency test among them). The proofs that need builds of their
-# own (sanitizers, fuzzing) are in tests/proofs.sh.
+# own: the parsers fuzzed for a fixed number of runs (below); the whole suite under the
+# sanitizers and longer fuzzing are in tests/proofs.sh.
 # Usage: tests/run.sh [extra ctest arguments]
 set -euo pipefail
 root=$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)
@@ -12,3 +13,25 @@ jobs=$(nproc)
 "$root/.ci/configure" "$build"
 cmake --build "$build" -j "$jobs"
 (cd "$build" && ctest --output-on-failure -j "$jobs" "$@")
+[ $# -eq 0 ] || exit 0
+
+# The parsers of every input under libFuzzer with AddressSanitizer and UndefinedBehaviorSanitizer
+# (clang, build-fuzz/): a fixed seed and a fixed number of runs from the seed corpus, so that every
+# run of this script tries the same inputs. tests/proofs.sh fuzzes for longer, from a random seed.
+echo "== fuzzing the parsers (libFuzzer, ASan + UBSan; seed 1, 50 000 runs each)"
+launcher=()
+if command -v ccache >/dev/null 2>&1; then launcher=(-DCMAKE_CXX_COMPILER_LAUNCHER=ccache); fi
+fuzz="$build-fuzz"
+CXX=clang++ CC=clang cmake -S "$root" -B "$fuzz" -DCMAKE_BUILD_TYPE=RelWithDebInfo \
+  -DCURVEWARDEN_BUILD_TESTS=OFF -DCURVEWARDEN_FUZZ=ON "${launcher[@]}" >/dev/null
+targets=(points run method values)
+cmake --build "$fuzz" -j "$jobs" --target "${targets[@]/#/fuzz_}"
+for t in "${targets[@]}"; do
+  work=$(mktemp -d)
+  echo "fuzz_$t: 50 000 runs from tests/fuzz/corpus/$t"
+  UBSAN_OPTIONS=halt_on_error=1:print_stacktrace=1 "$fuzz/tests/fuzz/fuzz_$t" -seed=1 -runs=50000 \
+    -max_len=65536 -timeout=10 "$work" "$root/tests/fuzz/corpus/$t" 2>"$work.log" ||
+    { tail -n 40 "$work.log"; echo "fuzz_$t found a failing input (above)"; exit 1; }
+  grep -E '^Done' "$work.log" || true
+  rm -rf "$work" "$work.log"
+done
