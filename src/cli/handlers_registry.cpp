@@ -33,17 +33,24 @@ int init(Invocation& in) {
     group = g->gr_gid;
   }
   const std::string where = in.location();
-  if (where.rfind("postgres", 0) != 0) store::create_store_file(where, group);
-  auto s = in.open_session(/*create=*/true);
-  auto outcome = app::init_store(s, r);
-  outcome.lab_key = key;
-  outcome.lab_key_created = app::ensure_lab_key(key);
-  if (in.json()) {
-    in.emit(report::init_json(outcome, s.location()));
-  } else {
-    report::print_init(in.out(), outcome, s.location());
+  const bool created = where.rfind("postgres", 0) != 0 && store::create_store_file(where, group);
+  try {
+    auto s = in.open_session(/*create=*/true);
+    auto outcome = app::init_store(s, r);
+    outcome.lab_key = key;
+    outcome.lab_key_created = app::ensure_lab_key(key);
+    if (in.json()) {
+      in.emit(report::init_json(outcome, s.location()));
+    } else {
+      report::print_init(in.out(), outcome, s.location());
+    }
+    return 0;
+  } catch (...) {
+    // A new store whose init failed (no passphrase, a bad one, ...) is not left half made: the
+    // session is closed by now, so its files can go.
+    if (created) store::remove_new_store_files(where);
+    throw;
   }
-  return 0;
 }
 
 int instrument_add(Invocation& in) {

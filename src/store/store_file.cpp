@@ -13,13 +13,13 @@
 
 namespace cw::store {
 
-void create_store_file(const std::string& path, std::optional<gid_t> group) {
+bool create_store_file(const std::string& path, std::optional<gid_t> group) {
   struct stat st {};
-  if (::lstat(path.c_str(), &st) == 0) return;
+  if (::lstat(path.c_str(), &st) == 0) return false;
   const mode_t mode = group ? 0660 : 0600;
   const int fd = ::open(path.c_str(), O_WRONLY | O_CREAT | O_EXCL | O_NOFOLLOW | O_CLOEXEC, mode);
   if (fd < 0) {
-    if (errno == EEXIST) return;  // another init created it meanwhile
+    if (errno == EEXIST) return false;  // another init created it meanwhile
     throw StoreError("cannot create the store '" + path + "': " + std::strerror(errno),
                      "check the folder exists and can be written");
   }
@@ -40,6 +40,11 @@ void create_store_file(const std::string& path, std::optional<gid_t> group) {
     throw StoreError("cannot create the store '" + path + "': " + why,
                      "give a group you belong to (see the 'id' command)");
   }
+  return true;
+}
+
+void remove_new_store_files(const std::string& path) {
+  for (const char* suffix : {"-wal", "-shm", ""}) ::unlink((path + suffix).c_str());
 }
 
 bool is_symlink(const std::string& path) {

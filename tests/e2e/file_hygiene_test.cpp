@@ -68,3 +68,25 @@ TEST_CASE("e2e files: a store path that is a symbolic link is refused unless --f
   CHECK(followed.exit_code == 0);
   CHECK(cw::test::query_text(box.db(), "SELECT count(*) FROM instruments") == "1");
 }
+
+TEST_CASE("e2e files: an init that fails on a new store leaves no file behind", "[e2e]") {
+  Sandbox box;
+  // A passphrase too short for the first admin: refused before anything is kept.
+  RunResult r = box.run_with_input({"init", "--tz", "UTC", "--passphrase-fd", "0"}, "short\n");
+  INFO(r.describe());
+  CHECK(r.exit_code == 2);
+  CHECK_FALSE(fs::exists(box.db()));
+  CHECK_FALSE(fs::exists(box.db().string() + "-wal"));
+  CHECK_FALSE(fs::exists(box.db().string() + "-shm"));
+  CHECK_FALSE(fs::exists(box.db().string() + ".key"));
+  // No passphrase at all (no terminal, no descriptor): the same.
+  r = box.run_with_input({"init", "--tz", "UTC", "--passphrase-fd", "0"}, "");
+  INFO(r.describe());
+  CHECK(r.exit_code == 2);
+  CHECK_FALSE(fs::exists(box.db()));
+  // Then a good one creates the store.
+  r = box.run({"init", "--tz", "UTC"});
+  INFO(r.describe());
+  CHECK(r.exit_code == 0);
+  CHECK(fs::exists(box.db()));
+}
