@@ -142,6 +142,7 @@ InitOutcome init_store(Session& s, const InitRequest& request) {
   s.set_zone(LabZone::named(wanted.time_zone));
   out.settings = wanted;
   out.schema_version = s.store().schema_version();
+  out.grants = s.store().privilege_statements();
   return out;
 }
 

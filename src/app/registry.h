@@ -37,6 +37,9 @@ struct InitOutcome {
   bool lab_key_created = false;          ///< created now
   store::LabSettings settings;
   int schema_version = 0;
+  /// On a server store: the GRANT/REVOKE statements that leave the workstations' role only
+  /// reading and appending; empty for a file.
+  std::string grants;
 };
 /// Creates the store or applies pending migrations, and records the lab's name and zone. The
 /// zone of a store that holds any fact besides its settings cannot change (refused and recorded);

@@ -13,6 +13,7 @@
 #include "core/error.h"
 #include "import/input_file.h"
 #include "report/registry_views.h"
+#include "store/store.h"
 
 namespace cw::cli::handlers {
 namespace {
@@ -160,6 +161,14 @@ int backup(Invocation& in) {
   if (!folder.empty() && !std::filesystem::is_directory(folder)) {
     throw UsageError("there is no folder '" + folder + "' for the backup '" + *destination + "'",
                      "create the folder first");
+  }
+  if (store::is_server_location(in.location())) {
+    throw option_error("file",
+                       "backup copies a store file; a store on a PostgreSQL server is backed up "
+                       "with the server's own tools",
+                       "use pg_dump, or the server's base backups and WAL archiving for "
+                       "point-in-time recovery; 'curvewarden audit verify' checks a restored "
+                       "store");
   }
   auto s = in.open_session();
   const auto r = app::backup(s, *destination);

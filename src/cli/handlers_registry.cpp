@@ -12,6 +12,7 @@
 #include "core/text.h"
 #include "import/column_map.h"
 #include "report/registry_views.h"
+#include "store/store.h"
 #include "store/store_file.h"
 
 namespace cw::cli::handlers {
@@ -33,7 +34,13 @@ int init(Invocation& in) {
     group = g->gr_gid;
   }
   const std::string where = in.location();
-  const bool created = where.rfind("postgres", 0) != 0 && store::create_store_file(where, group);
+  if (group && store::is_server_location(where)) {
+    throw option_error("--group",
+                       "--group sets the group of a store file; a store on a "
+                       "PostgreSQL server is shared through its roles",
+                       "leave out --group; see README, \"Choosing a backend\", for the grants");
+  }
+  const bool created = !store::is_server_location(where) && store::create_store_file(where, group);
   try {
     auto s = in.open_session(/*create=*/true);
     auto outcome = app::init_store(s, r);

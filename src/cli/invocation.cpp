@@ -16,6 +16,7 @@
 #include "core/text.h"
 #include "domain/user.h"
 #include "import/column_map.h"
+#include "store/store.h"
 #include "store/store_file.h"
 
 namespace cw::cli {
@@ -286,7 +287,7 @@ std::string Invocation::location() const {
 
 app::Session Invocation::open_session(bool create) const {
   const std::string where = location();
-  if (store::is_symlink(where) && !has("--follow-symlink")) {
+  if (!store::is_server_location(where) && store::is_symlink(where) && !has("--follow-symlink")) {
     throw option_error("--db", "the store path '" + where + "' is a symbolic link",
                        "give the real path of the store, or --follow-symlink if the link is "
                        "meant");
@@ -321,7 +322,14 @@ std::string Invocation::key_path() const {
   if (const char* env = std::getenv("CURVEWARDEN_KEY"); env != nullptr && *env != '\0') {
     return env;
   }
-  return location() + ".key";
+  const std::string where = location();
+  if (store::is_server_location(where)) {
+    throw option_error("--key",
+                       "a store on a PostgreSQL server has no folder to keep the lab key next to",
+                       "give the lab key file with --key FILE or CURVEWARDEN_KEY (init creates "
+                       "it there when it does not exist)");
+  }
+  return where + ".key";
 }
 
 Invocation::Identity Invocation::identity() const {

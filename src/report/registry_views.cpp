@@ -28,7 +28,8 @@ Json init_json(const app::InitOutcome& o, const std::string& path) {
       {"schema_version", o.schema_version},
       {"admin_registered", o.admin_registered ? user_json(*o.admin_registered) : Json(nullptr)},
       {"lab_key", o.lab_key},
-      {"lab_key_created", o.lab_key_created}};
+      {"lab_key_created", o.lab_key_created},
+      {"grants", o.grants.empty() ? Json(nullptr) : Json(o.grants)}};
 }
 
 void print_init(std::ostream& out, const app::InitOutcome& o, const std::string& path) {
@@ -52,6 +53,11 @@ void print_init(std::ostream& out, const app::InitOutcome& o, const std::string&
   } else {
     out << "Store " << path << " is up to date (schema " << o.schema_version
         << "): " << o.settings.lab_name << ", time zone " << o.settings.time_zone << ".\n";
+  }
+  if (!o.grants.empty()) {
+    out << "A database administrator applies these statements so that the workstations' role\n"
+           "may only read and append (rename curvewarden_app to the lab's role):\n"
+        << o.grants;
   }
 }
 

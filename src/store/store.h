@@ -24,8 +24,15 @@
 
 namespace cw::store {
 
+/// True when `location` is a libpq connection URI (postgresql://... or postgres://...): the
+/// store is a PostgreSQL database. Anything else is the path of a SQLite file.
+bool is_server_location(const std::string& location);
+
+/// `location` as messages show it: a URI's password replaced by "***".
+std::string shown_location(const std::string& location);
+
 struct OpenOptions {
-  std::string location;        ///< a file path (SQLite)
+  std::string location;        ///< a file path (SQLite) or a libpq URI (PostgreSQL)
   bool create = false;         ///< create the store when missing (init only)
   int busy_timeout_ms = 5000;  ///< how long a writer waits for another writer
   std::string os_login;        ///< the process's login, for entries written by a migration
@@ -85,7 +92,7 @@ class Store {
   /// Refused with StoreError when the store's append-only guards are missing.
   virtual std::unique_ptr<WriteUnit> write(const Actor& actor) = 0;
 
-  /// The location as the user gave it (a path), for messages.
+  /// The location as the user gave it (a path), for messages; a URI with its password masked.
   virtual const std::string& location() const = 0;
   /// The number of the last migration applied.
   virtual int schema_version() = 0;
@@ -93,6 +100,9 @@ class Store {
   virtual bool was_created() const = 0;
   /// The append-only guards (triggers) that should exist and do not: a damaged store.
   virtual std::vector<std::string> missing_guards() = 0;
+  /// The statements a database administrator applies so that the workstations' role may only
+  /// read and append (a server store); empty for a file, whose guard is its file mode.
+  virtual std::string privilege_statements() { return {}; }
 };
 
 }  // namespace cw::store

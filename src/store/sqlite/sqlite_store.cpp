@@ -7,6 +7,7 @@
 #include <stdexcept>
 
 #include "core/error.h"
+#include "store/postgresql/open.h"
 #include "store/sqlite/audit_repository.h"
 #include "store/sqlite/curve_repository.h"
 #include "store/sqlite/registry_repository.h"
@@ -141,12 +142,17 @@ std::unique_ptr<Store> open_sqlite(const OpenOptions& options,
 
 namespace cw::store {
 
+bool is_server_location(const std::string& location) {
+  return postgresql::is_uri(location);
+}
+
+std::string shown_location(const std::string& location) {
+  return is_server_location(location) ? postgresql::masked(location) : location;
+}
+
 std::unique_ptr<Store> Store::open(const OpenOptions& options) {
-  if (options.location.rfind("postgresql://", 0) == 0 ||
-      options.location.rfind("postgres://", 0) == 0) {
-    throw StoreError("this build of curvewarden has no PostgreSQL backend",
-                     "give the path of a store file with --db or CURVEWARDEN_DB");
-  }
+  // A libpq connection URI selects the PostgreSQL backend; a path keeps the SQLite file.
+  if (postgresql::is_uri(options.location)) return postgresql::open_postgresql(options);
   return sqlite::open_sqlite(options, sqlite::embedded_migrations());
 }
 

@@ -1,0 +1,76 @@
+// SPDX-License-Identifier: Apache-2.0
+// Internal to the PostgreSQL backend: calibrations, curves, points, reviews, retirements, checks,
+// results and refusals.
+#pragma once
+
+#include "store/curves.h"
+#include "store/postgresql/audit_repository.h"
+#include "store/postgresql/database.h"
+#include "store/store.h"
+
+namespace cw::store::postgresql {
+
+/// A check from the columns of `s` starting at `first`: id, curve_id, kind, nominal, response,
+/// is_response, measured, recovery_pct, limit_low, limit_high, passed, analyst, occurred_at
+/// (and run_id after them with `with_run`).
+Check read_check(Statement& s, int first, bool with_run, const std::string& path);
+/// A result from the columns of the result statements of sql.h (membership and latest status
+/// event included).
+Result read_result(Statement& s, const std::string& path);
+/// A status event from id, result_id, status, reason, detail, check_id, run_id, occurred_at
+/// starting at column `first`.
+ResultStatusEvent read_status_event(Statement& s, int first, const std::string& path);
+
+class PgCurves final : public CurveReader, public CurveWriter {
+ public:
+  /// `w` and `actor` are those of a write unit, nullptr in a read unit.
+  PgCurves(Database& db, WriteState* w, const Actor* actor) : db_(db), w_(w), actor_(actor) {}
+
+  std::optional<Calibration> calibration(CalibrationId id) override;
+  std::vector<Calibration> calibrations(const std::vector<CalibrationId>& ids) override;
+  std::vector<Curve> curves(const std::vector<CurveId>& ids, bool with_points) override;
+  std::vector<Check> checks_of(const std::vector<CurveId>& ids) override;
+  std::vector<Check> checks_of_group(MethodId method, InstrumentId instrument,
+                                     const std::string& analyte) override;
+  std::vector<CurveId> list(const CurveFilter& f) override;
+  std::vector<CurveId> of_calibration(CalibrationId id) override;
+  std::vector<CurveId> live_in_group(MethodId method, InstrumentId instrument,
+                                     const std::string& analyte, std::optional<Instant> after,
+                                     Instant by) override;
+  std::optional<CurveId> latest_in_group(MethodId method, InstrumentId instrument,
+                                         const std::string& analyte, Instant by,
+                                         bool accepted_only) override;
+  std::vector<CurveId> expiring_between(Instant from, Instant to) override;
+  std::vector<CurveId> live_of_instrument(InstrumentId instrument, Instant t) override;
+  std::vector<SettledGroup> settled_groups(InstrumentId instrument, Instant t) override;
+  std::vector<std::pair<MethodId, std::string>> method_analytes(InstrumentId instrument) override;
+  std::vector<CurveId> of_lot(LotId lot) override;
+  std::optional<Check> check(CheckId id) override;
+  std::vector<Check> recent_failed_checks(InstrumentId instrument, Instant by,
+                                          std::size_t limit) override;
+  std::optional<Result> result(ResultId id) override;
+  std::vector<Result> results_of(const std::vector<CurveId>& ids) override;
+  std::vector<Result> reported_between(CurveId id, std::optional<Instant> after,
+                                       Instant until) override;
+  std::int64_t count_reported_between(CurveId id, std::optional<Instant> after,
+                                      Instant until) override;
+
+  CalibrationId add_calibration(const Calibration& c) override;
+  CurveId add_curve(const Curve& c) override;
+  void add_review(CurveId id, const CurveReview& r) override;
+  void add_retirement(CurveId id, const CurveRetirement& r) override;
+  CheckId add_check(const Check& k) override;
+  ResultId add_result(const Result& r) override;
+  void add_refusal(const Refusal& r) override;
+
+ private:
+  WriteState& writing();
+  Check check_of(Statement& s) { return read_check(s, 0, true, db_.path); }
+  Result result_of(Statement& s) { return read_result(s, db_.path); }
+
+  Database& db_;
+  WriteState* w_;
+  const Actor* actor_;
+};
+
+}  // namespace cw::store::postgresql

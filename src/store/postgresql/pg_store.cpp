@@ -1,0 +1,172 @@
+// SPDX-License-Identifier: Apache-2.0
+// Units of work on a PostgreSQL store.
+#include "store/postgresql/pg_store.h"
+
+#include <stdexcept>
+
+#include "core/error.h"
+#include "store/fact_table.h"
+#include "store/postgresql/audit_repository.h"
+#include "store/postgresql/curve_repository.h"
+#include "store/postgresql/open.h"
+#include "store/postgresql/registry_repository.h"
+#include "store/postgresql/run_repository.h"
+
+namespace cw::store::postgresql {
+namespace {
+
+class PgReadUnit final : public ReadUnit {
+ public:
+  explicit PgReadUnit(Database& db)
+      : db_(db),
+        registry_(db, nullptr),
+        curves_(db, nullptr, nullptr),
+        runs_(db, nullptr),
+        audit_(db) {
+    guarded(db_, [&] { db_.begin_read(); });
+  }
+  ~PgReadUnit() override {
+    try {
+      db_.run("COMMIT");
+    } catch (...) {
+      // Nothing was written; ending a read snapshot cannot lose data.
+    }
+  }
+  RegistryReader& registry() override { return registry_; }
+  CurveReader& curves() override { return curves_; }
+  RunReader& runs() override { return runs_; }
+  AuditReader& audit() override { return audit_; }
+
+ private:
+  Database& db_;
+  PgRegistry registry_;
+  PgCurves curves_;
+  PgRuns runs_;
+  PgAudit audit_;
+};
+
+class PgWriteUnit final : public WriteUnit {
+ public:
+  PgWriteUnit(Database& db, const Actor& actor)
+      : db_(db),
+        actor_(actor),
+        registry_(db, &state_),
+        curves_(db, &state_, &actor_),
+        runs_(db, &state_),
+        audit_(db) {
+    if (actor_.clock == nullptr) throw std::logic_error("a write unit needs a clock");
+    guarded(db_, [&] {
+      db_.begin_write();
+      open_ = true;
+      audit_.start(state_);
+    });
+  }
+  ~PgWriteUnit() override {
+    if (open_) {
+      try {
+        db_.run("ROLLBACK");
+      } catch (...) {
+        // A destructor must not throw; the server rolls back when the connection closes.
+      }
+    }
+  }
+  RegistryReader& registry() override { return registry_; }
+  CurveReader& curves() override { return curves_; }
+  RunReader& runs() override { return runs_; }
+  AuditReader& audit() override { return audit_; }
+  RegistryWriter& registry_writer() override { return registry_; }
+  CurveWriter& curve_writer() override { return curves_; }
+  RunWriter& run_writer() override { return runs_; }
+  void append_entry(const EntryHeader& header) override { audit_.append(state_, actor_, header); }
+  void commit() override {
+    if (!state_.rows.empty()) throw std::logic_error("rows written without an audit entry");
+    guarded(db_, [&] {
+      open_ = false;
+      db_.run("COMMIT");
+    });
+  }
+  Instant now() const override { return actor_.clock->now(); }
+
+ private:
+  Database& db_;
+  Actor actor_;
+  WriteState state_;
+  PgRegistry registry_;
+  PgCurves curves_;
+  PgRuns runs_;
+  PgAudit audit_;
+  bool open_ = false;
+};
+
+}  // namespace
+
+std::unique_ptr<ReadUnit> PgStore::read() {
+  return std::make_unique<PgReadUnit>(*db_);
+}
+
+std::unique_ptr<WriteUnit> PgStore::write(const Actor& actor) {
+  if (const auto missing = missing_guards(); !missing.empty()) {
+    std::string list;
+    for (const auto& m : missing) list += (list.empty() ? "" : ", ") + m;
+    throw StoreError("store '" + db_->path + "' has lost its append-only guards (" + list +
+                         "); nothing was written",
+                     "the store may have been edited behind the tool's back: run 'curvewarden "
+                     "audit verify' and restore the store from a backup");
+  }
+  return std::make_unique<PgWriteUnit>(*db_, actor);
+}
+
+int PgStore::schema_version() {
+  return guarded(*db_, [&] { return db_->schema_version(); });
+}
+
+std::vector<std::string> PgStore::missing_guards() {
+  return guarded(*db_, [&] { return postgresql::missing_guards(*db_); });
+}
+
+std::string PgStore::privilege_statements() {
+  return guarded(*db_, [&] {
+    const pqxx::result r = db_->run("SELECT current_schema()");
+    return grants_for(kWorkstationRole, r[0][0].is_null() ? "public" : r[0][0].c_str());
+  });
+}
+
+bool is_uri(const std::string& location) {
+  return location.rfind("postgresql://", 0) == 0 || location.rfind("postgres://", 0) == 0;
+}
+
+std::string masked(const std::string& location) {
+  return masked_location(location);
+}
+
+std::unique_ptr<Store> open_postgresql(const OpenOptions& options) {
+  return std::make_unique<PgStore>(
+      Database::open(options.location, options.create, options.busy_timeout_ms, options.os_login));
+}
+
+namespace {
+/// An identifier quoted as PostgreSQL quotes them.
+std::string quoted(const std::string& name) {
+  std::string out = "\"";
+  for (const char c : name) {
+    if (c == '"') out += '"';
+    out += c;
+  }
+  return out + '"';
+}
+}  // namespace
+
+std::string grants_for(const std::string& role, const std::string& schema) {
+  std::string tables;
+  for (const char* t : {"curvewarden_store", "schema_migrations", "audit_log"}) {
+    tables += (tables.empty() ? "" : ", ") + quoted(schema) + "." + t;
+  }
+  for (FactTable t : kAllFactTables)
+    tables += ", " + quoted(schema) + "." + std::string(table_name(t));
+  const std::string r = quoted(role);
+  return "GRANT USAGE ON SCHEMA " + quoted(schema) + " TO " + r + ";\n" + "REVOKE ALL ON TABLE " +
+         tables + " FROM " + r + ";\n" + "GRANT SELECT, INSERT ON TABLE " + tables + " TO " + r +
+         ";\n";
+}
+
+}  // namespace cw::store::postgresql
