@@ -55,7 +55,7 @@ int audit_verify(Invocation& in) {
     anchors.emplace_back(file, import::read_text_file(file, 64 * 1024, "--anchor"));
     app::parse_anchor(anchors.back().second, file);
   }
-  const std::string key = in.key_path();
+  const std::optional<std::string> key = in.lab_key_if_any();
   auto s = in.open_session();
   const auto r = app::verify_audit(s);
   std::vector<app::AnchorCheck> checks;
@@ -63,11 +63,11 @@ int audit_verify(Invocation& in) {
     // Without the lab key the anchors' own keys are used (and said so): a forged anchor with a
     // key of its own would then pass the signature, never the comparison with the trail.
     std::optional<std::string> key_path;
-    if (::access(key.c_str(), F_OK) == 0 || in.has("--key")) key_path = key;
+    if (key && (::access(key->c_str(), F_OK) == 0 || in.has("--key"))) key_path = key;
     checks = app::check_anchors(s, anchors, key_path);
     if (!key_path) {
-      in.warn("no lab key at '" + key +
-              "': each anchor's signature was checked with the key it "
+      in.warn((key ? "no lab key at '" + *key + "'" : std::string("no lab key given")) +
+              ": each anchor's signature was checked with the key it "
               "names; compare that key with the lab's");
     }
   }

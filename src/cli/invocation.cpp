@@ -317,19 +317,22 @@ app::Session Invocation::open_session(bool create) const {
       {location(), who.code, who.source, os_login(), at, clock, create, std::move(source)});
 }
 
-std::string Invocation::key_path() const {
+std::optional<std::string> Invocation::lab_key_if_any() const {
   if (has("--key")) return path("--key");
   if (const char* env = std::getenv("CURVEWARDEN_KEY"); env != nullptr && *env != '\0') {
     return env;
   }
   const std::string where = location();
-  if (store::is_server_location(where)) {
-    throw option_error("--key",
-                       "a store on a PostgreSQL server has no folder to keep the lab key next to",
-                       "give the lab key file with --key FILE or CURVEWARDEN_KEY (init creates "
-                       "it there when it does not exist)");
-  }
+  if (store::is_server_location(where)) return std::nullopt;
   return where + ".key";
+}
+
+std::string Invocation::key_path() const {
+  if (auto key = lab_key_if_any()) return *key;
+  throw option_error("--key",
+                     "a store on a PostgreSQL server has no folder to keep the lab key next to",
+                     "give the lab key file with --key FILE or CURVEWARDEN_KEY (init creates it "
+                     "there when it does not exist)");
 }
 
 Invocation::Identity Invocation::identity() const {

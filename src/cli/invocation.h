@@ -97,6 +97,9 @@ class Invocation {
   std::string location() const;
   /// The lab key file: --key, else $CURVEWARDEN_KEY, else the store's path with ".key" added.
   std::string key_path() const;
+  /// The lab key file as key_path(), or nullopt for a server store given no key (it has no
+  /// folder to keep one next to).
+  std::optional<std::string> lab_key_if_any() const;
   /// Who acts: the canonical user code from --as, else $CURVEWARDEN_USER, else the login name,
   /// and which of them it came from (for messages).
   struct Identity {
