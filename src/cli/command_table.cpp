@@ -39,14 +39,15 @@ const OptionSpec kCsv = flag("--csv",
                              "the README lists the columns)");
 const OptionSpec kKey = value("--key", "FILE",
                               "The lab's Ed25519 key file (else $CURVEWARDEN_KEY, else the store "
-                              "file's path with .key added)");
+                              "file's path with .key added; a PostgreSQL store has no default)");
 const OptionSpec kReason = value("--reason", "TEXT", "Why (required; up to 2000 characters)", true);
 
 }  // namespace
 
 const std::vector<OptionSpec>& global_options() {
   static const std::vector<OptionSpec> options = {
-      value("--db", "PATH", "Store file (else $CURVEWARDEN_DB, else ./curvewarden.db)"),
+      value("--db", "PATH|URI",
+            "Store file, or a postgresql:// URI (else $CURVEWARDEN_DB, else ./curvewarden.db)"),
       value("--as", "CODE",
             "Registered user acting (else $CURVEWARDEN_USER, else the login name); commands "
             "that record need an enabled user"),
