@@ -10,6 +10,7 @@
 
 #include <atomic>
 #include <catch2/catch.hpp>
+#include <chrono>
 #include <cstdlib>
 #include <pqxx/pqxx>
 #include <regex>
@@ -388,4 +389,30 @@ TEST_CASE("postgresql: messages never show a password; the lab key and backups n
   CHECK(backup.exit_code == 2);
   CHECK_THAT(backup.err, Catch::Contains("pg_dump"));
   CHECK_FALSE(std::filesystem::exists(box.path("copy.db")));
+}
+
+TEST_CASE("postgresql: a writer kept out past the busy timeout exits 4 and writes nothing",
+          "[postgresql]") {
+  TestDatabase db;
+  Sandbox box;
+  run_ok(box, {"init", "--tz", "UTC"}, on(db, box));
+  // Another writer holds the store's lock (the key of every write unit).
+  pqxx::connection holder(db.uri());
+  pqxx::work held(holder);
+  held.exec("SELECT pg_advisory_xact_lock(1129796164)");
+  const auto start = std::chrono::steady_clock::now();
+  const RunResult r = box.run({"instrument", "add", "IC-01", "--json"}, on(db, box));
+  const auto waited = std::chrono::steady_clock::now() - start;
+  INFO(r.describe());
+  CHECK(r.exit_code == 4);
+  CHECK(r.json()["error"]["code"] == "store");
+  CHECK_THAT(r.err, Catch::Contains("locked by another writer"));
+  CHECK(waited >= std::chrono::seconds(4));
+  // Readers are not held up by a writer.
+  const RunResult list = run_ok(box, {"instrument", "list", "--json"}, on(db, box));
+  CHECK(list.json()["instruments"].empty());
+  held.abort();
+  CHECK(db.sql("SELECT count(*) FROM instruments") == "0");
+  // Once the lock is free, the write goes through.
+  run_ok(box, {"instrument", "add", "IC-01"}, on(db, box));
 }
