@@ -416,3 +416,49 @@ TEST_CASE("postgresql: a writer kept out past the busy timeout exits 4 and write
   // Once the lock is free, the write goes through.
   run_ok(box, {"instrument", "add", "IC-01"}, on(db, box));
 }
+
+TEST_CASE("postgresql: rows streamed in batches read the same as a file store's", "[postgresql]") {
+  // More rows than one batch of a cursor (1000): a run's results, a listing and audit verify
+  // read them through several fetches.
+  TestDatabase db;
+  Sandbox pg_box;
+  Sandbox file_box;
+  std::string run = "position,kind,sample,analyte,response,nominal\n1,check,,nitrate,1.0,10\n";
+  constexpr int kSamples = 1205;
+  for (int i = 0; i < kSamples; ++i) {
+    run += std::to_string(i + 2) + ",sample,S-" + std::to_string(i) + ",nitrate," +
+           std::to_string(0.1 + 0.001 * i) + ",\n";
+  }
+  run += std::to_string(kSamples + 2) + ",check,,nitrate,1.0,10\n";
+  for (Sandbox* box : {&pg_box, &file_box}) {
+    const cw::test::EnvOverrides env = box == &pg_box ? on(db, pg_box) : cw::test::EnvOverrides{};
+    run_ok(*box, {"init", "--tz", "UTC"}, env);
+    run_ok(*box, {"instrument", "add", "IC-02"}, env);
+    box->write_file("anion.toml", cw::test::method_toml());
+    run_ok(*box, {"method", "add", "anion.toml"}, env);
+    run_ok(*box,
+           {"lot", "add", "CRM-1", "--material", "m", "--expires", "2027-03-31", "--value",
+            "nitrate=1000", "--value", "sulfate=1000"},
+           env);
+    box->write_file("points.csv",
+                    "analyte,level,nominal,response\n"
+                    "nitrate,1,1,0.101\nnitrate,2,2,0.199\nnitrate,3,5,0.502\nnitrate,4,10,1.001\n"
+                    "nitrate,5,20,1.998\n"
+                    "sulfate,1,1,0.0301\nsulfate,2,2,0.0598\nsulfate,3,5,0.1502\n"
+                    "sulfate,4,10,0.2999\nsulfate,5,20,0.6003\n");
+    run_ok(*box,
+           {"curve", "log", "--method", "ANION-IC", "--instrument", "IC-02", "--lot", "CRM-1",
+            "--points", "points.csv"},
+           env);
+    box->now = "2026-03-02T10:00:00Z";
+    box->write_file("run.csv", run);
+    box->run({"run", "import", "run.csv", "--method", "ANION-IC", "--instrument", "IC-02"}, env);
+  }
+  const auto pg_show = run_ok(pg_box, {"run", "show", "1", "--json"}, on(db, pg_box)).json();
+  CHECK(pg_show == run_ok(file_box, {"run", "show", "1", "--json"}).json());
+  const auto pg_list = run_ok(pg_box, {"result", "list", "--json"}, on(db, pg_box)).json();
+  CHECK(pg_list == run_ok(file_box, {"result", "list", "--json"}).json());
+  CHECK(db.sql("SELECT count(*) FROM results") == std::to_string(kSamples));
+  const auto verify = run_ok(pg_box, {"audit", "verify", "--json"}, on(db, pg_box)).json();
+  CHECK(verify["ok"] == true);
+}

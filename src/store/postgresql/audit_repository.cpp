@@ -43,7 +43,9 @@ std::string describe(const audit::AuditEntry& e) {
 class TableCursor {
  public:
   TableCursor(Database& db, const TableForm& form)
-      : form_(form), path_(db.path), statement_(db, select_of(form, " ORDER BY id")) {
+      : form_(form),
+        path_(db.path),
+        statement_(db, select_of(form, " ORDER BY id"), Rows::Streamed) {
     for (std::size_t i = 0; i < form.columns.size(); ++i) {
       if (form.columns[i].name == "id") id_column_ = static_cast<int>(i);
       if (form.columns[i].name == "audit_seq") seq_column_ = static_cast<int>(i);
@@ -133,7 +135,7 @@ VerifyReport PgAudit::verify() {
     std::map<FactTable, std::unique_ptr<TableCursor>> cursors;
     for (FactTable t : tables) cursors.emplace(t, std::make_unique<TableCursor>(db_, form_of(t)));
 
-    Statement entries(db_, sql::kAuditAll);
+    Statement entries(db_, sql::kAuditAll, Rows::Streamed);
     std::string actual_text;
     std::vector<std::pair<FactTable, std::string>> actual_rows;
     std::string prev_hash = audit::kGenesisHash;

@@ -206,7 +206,7 @@ double Column::getDouble() const {
   return f_.as<double>();
 }
 
-Statement::Statement(Database& db, std::string sql) : db_(db) {
+Statement::Statement(Database& db, std::string sql, Rows rows) : db_(db), rows_(rows) {
   // :name -> $n (the same name, the same number); "::" is a cast, quoted text is left alone.
   std::string out;
   bool quoted = false;
@@ -259,7 +259,51 @@ void Statement::bind(const char* name) {
   values_[slot(name)].reset();
 }
 
+Statement::~Statement() {
+  close_cursor();
+}
+
+void Statement::close_cursor() noexcept {
+  if (cursor_.empty()) return;
+  const std::string name = std::move(cursor_);
+  cursor_.clear();
+  // A cursor ends with its transaction; closing it in a later one would fail that one.
+  if (transaction_ != db_.transaction) return;
+  try {
+    db_.session->exec("CLOSE " + name);
+  } catch (...) {
+    // The transaction has failed already; it ends the cursor when it is rolled back.
+  }
+}
+
+void Statement::fetch() {
+  constexpr int kBatch = 1000;
+  result_ = db_.session->exec("FETCH FORWARD " + std::to_string(kBatch) + " FROM " + cursor_);
+  exhausted_ = result_->size() < static_cast<pqxx::result::size_type>(kBatch);
+  row_ = 0;
+}
+
 bool Statement::executeStep() {
+  if (rows_ == Rows::Streamed) {
+    if (cursor_.empty() && !result_) {
+      cursor_ = "cw_cursor_" + std::to_string(++db_.cursors);
+      transaction_ = db_.transaction;
+      db_.session->exec_params("DECLARE " + cursor_ + " NO SCROLL CURSOR FOR " + sql_,
+                               pqxx::prepare::make_dynamic_params(values_));
+      exhausted_ = false;
+      fetch();
+      return row_ < result_->size();
+    }
+    if (!result_) return false;
+    ++row_;
+    if (row_ < result_->size()) return true;
+    if (exhausted_) {
+      close_cursor();
+      return false;
+    }
+    fetch();
+    return row_ < result_->size();
+  }
   if (!result_) {
     const std::string& prepared = db_.prepare(sql_);
     result_ = db_.session->exec_prepared(prepared, pqxx::prepare::make_dynamic_params(values_));
@@ -276,6 +320,7 @@ Column Statement::getColumn(int i) const {
 }
 
 void Statement::reset() {
+  close_cursor();
   result_.reset();
 }
 
@@ -327,6 +372,7 @@ int Database::schema_version() {
 // every concurrent writer but one fail and redo its command's work.
 void Database::begin_write() {
   with_retry(*this, [&] {
+    ++transaction;
     run("BEGIN ISOLATION LEVEL READ COMMITTED");
     Statement lock(*this, "SELECT pg_advisory_xact_lock(:key)");
     lock.bind(":key", kApplicationId);
@@ -336,7 +382,10 @@ void Database::begin_write() {
 
 // A read is one snapshot of the whole store, as SQLite's deferred transaction gives.
 void Database::begin_read() {
-  with_retry(*this, [&] { run("BEGIN ISOLATION LEVEL REPEATABLE READ READ ONLY"); });
+  with_retry(*this, [&] {
+    ++transaction;
+    run("BEGIN ISOLATION LEVEL REPEATABLE READ READ ONLY");
+  });
 }
 
 void rethrow(const std::exception& e, const Database& d) {

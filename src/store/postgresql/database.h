@@ -5,7 +5,9 @@
 // Statements are written with named parameters (:name), as the SQLite backend's, and prepared
 // once per connection with them turned into $1, $2, ...; values always travel as parameters,
 // never inside the SQL text. A Statement runs when first stepped and keeps its rows, so that
-// several may be read at once (audit verify walks every fact table side by side).
+// several may be read at once; a streamed one reads its rows through a cursor of the unit's
+// transaction, a batch at a time, so that memory does not grow with them (audit verify walks every
+// fact table side by side, a run's or a listing's rows are handed out one at a time).
 #pragma once
 
 #include <pqxx/pqxx>
@@ -45,9 +47,15 @@ class Column {
   pqxx::field f_;
 };
 
+/// How a statement's rows are read: all at once, or streamed through a cursor.
+enum class Rows { All, Streamed };
+
 class Statement {
  public:
-  Statement(Database& db, std::string sql);
+  Statement(Database& db, std::string sql, Rows rows = Rows::All);
+  Statement(const Statement&) = delete;
+  Statement& operator=(const Statement&) = delete;
+  ~Statement();
 
   void bind(const char* name, const std::string& v);
   void bind(const char* name, std::int64_t v);
@@ -70,6 +78,8 @@ class Statement {
 
  private:
   std::size_t slot(const char* name) const;
+  void fetch();
+  void close_cursor() noexcept;
 
   Database& db_;
   std::string sql_;  ///< with $1, $2, ... in place of the names
@@ -77,6 +87,10 @@ class Statement {
   std::vector<std::optional<std::string>> values_;
   std::optional<pqxx::result> result_;
   std::size_t row_ = 0;
+  Rows rows_ = Rows::All;
+  std::string cursor_;             ///< the open cursor's name, empty when none
+  std::uint64_t transaction_ = 0;  ///< the transaction the cursor belongs to
+  bool exhausted_ = false;
 };
 
 struct Database {
@@ -88,6 +102,8 @@ struct Database {
   int busy_timeout_ms = 5000;
   std::string os_login;
   std::int64_t last_id = 0;
+  std::uint64_t transaction = 0;                ///< counts the units begun on this connection
+  std::uint64_t cursors = 0;                    ///< names the cursors
   std::map<std::string, std::string> prepared;  ///< SQL text -> statement name
   std::map<const char*, std::unique_ptr<Statement>> statements;
 

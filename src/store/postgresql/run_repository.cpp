@@ -72,7 +72,7 @@ std::vector<Run> PgRuns::runs_with_sha256(const std::string& sha256) {
 void PgRuns::each_run_result(RunId id, const std::function<void(const RunResultRow&)>& fn) {
   guarded(db_, [&] {
     // Its own statement, not the cache: the caller may read other facts while it iterates.
-    Statement s(db_, sql::kResultsOfRun);
+    Statement s(db_, sql::kResultsOfRun, Rows::Streamed);
     bind_int(s, ":run", id.value);
     while (s.executeStep()) {
       RunResultRow row;
@@ -85,7 +85,7 @@ void PgRuns::each_run_result(RunId id, const std::function<void(const RunResultR
 
 void PgRuns::each_run_check(RunId id, const std::function<void(const RunCheckRow&)>& fn) {
   guarded(db_, [&] {
-    Statement s(db_, sql::kChecksOfRun);
+    Statement s(db_, sql::kChecksOfRun, Rows::Streamed);
     bind_int(s, ":run", id.value);
     while (s.executeStep()) {
       RunCheckRow row;
@@ -141,7 +141,7 @@ std::vector<RunAnalyteSummary> PgRuns::run_summary(RunId id) {
 
 void PgRuns::each_result(const ResultFilter& f, const std::function<void(const Result&)>& fn) {
   guarded(db_, [&] {
-    Statement s(db_, sql::kResultsFiltered);
+    Statement s(db_, sql::kResultsFiltered, Rows::Streamed);
     bind_opt_text(s, ":sample", f.sample);
     if (f.since) {
       bind_instant(s, ":since", *f.since);
