@@ -51,6 +51,16 @@ std::string with_database(const std::string& uri, const std::string& name) {
   return uri.substr(0, end_of_host) + "/" + name + tail;
 }
 
+/// `uri` connecting as `role` instead of its own user (and without its password).
+std::string with_user(const std::string& uri, const std::string& role) {
+  const auto scheme = uri.find("://");
+  const auto start = scheme == std::string::npos ? 0 : scheme + 3;
+  const auto end = uri.find_first_of("/?", start);
+  const auto at = uri.rfind('@', end == std::string::npos ? std::string::npos : end);
+  const auto host = at == std::string::npos || at < start ? start : at + 1;
+  return uri.substr(0, start) + role + "@" + uri.substr(host);
+}
+
 /// A fresh database for one test, dropped when the test ends.
 class TestDatabase {
  public:
@@ -71,6 +81,8 @@ class TestDatabase {
     }
   }
   const std::string& uri() const { return uri_; }
+  const std::string& name() const { return name_; }
+  const std::string& admin() const { return admin_; }
 
   /// Runs SQL on the test database in its own transaction; returns the first value ("" none).
   std::string sql(const std::string& text) const {
@@ -461,4 +473,58 @@ TEST_CASE("postgresql: rows streamed in batches read the same as a file store's"
   CHECK(db.sql("SELECT count(*) FROM results") == std::to_string(kSamples));
   const auto verify = run_ok(pg_box, {"audit", "verify", "--json"}, on(db, pg_box)).json();
   CHECK(verify["ok"] == true);
+}
+
+TEST_CASE("postgresql: with the grants init prints, the workstations' role only reads and appends",
+          "[postgresql]") {
+  TestDatabase db;
+  Sandbox box;
+  const RunResult init = run_ok(box, {"init", "--tz", "UTC", "--json"}, on(db, box));
+  std::string grants = init.json()["grants"];
+  // The administrator renames the role to the lab's, and applies the statements as the owner.
+  const std::string role = db.name() + "_app";
+  for (std::size_t at = grants.find("curvewarden_app"); at != std::string::npos;
+       at = grants.find("curvewarden_app", at + role.size())) {
+    grants.replace(at, std::string("curvewarden_app").size(), role);
+  }
+  {
+    pqxx::connection c(db.admin());
+    pqxx::nontransaction n(c);
+    n.exec("DROP ROLE IF EXISTS " + role);
+    n.exec("CREATE ROLE " + role + " LOGIN");
+  }
+  db.sql(grants);
+  const std::string app_uri = with_user(db.uri(), role);
+  const cw::test::EnvOverrides app{{"CURVEWARDEN_DB", app_uri},
+                                   {"CURVEWARDEN_KEY", box.path("lab.key").string()}};
+  // The tool works with these privileges alone.
+  run_ok(box, {"instrument", "add", "IC-01"}, app);
+  run_ok(box,
+         {"lot", "add", "CRM-1", "--material", "m", "--expires", "2027-01-01", "--value",
+          "nitrate=1000"},
+         app);
+  CHECK(run_ok(box, {"audit", "verify", "--json"}, app).json()["ok"] == true);
+  // Changing, deleting, truncating or dropping a guard is refused by privilege, before any
+  // trigger is reached.
+  {
+    pqxx::connection c(app_uri);
+    for (const char* statement :
+         {"UPDATE instruments SET name = 'x'", "DELETE FROM audit_log", "TRUNCATE lot_values",
+          "DROP TRIGGER instruments_no_update ON instruments",
+          "ALTER TABLE audit_log DISABLE TRIGGER audit_log_no_update"}) {
+      INFO(statement);
+      pqxx::work w(c);
+      try {
+        w.exec(statement);
+        FAIL("the statement was not refused");
+      } catch (const pqxx::insufficient_privilege&) {
+        SUCCEED();
+      }
+    }
+  }
+  CHECK(db.sql("SELECT count(*) FROM audit_log") == "3");
+  db.sql("REASSIGN OWNED BY " + role + " TO CURRENT_USER; DROP OWNED BY " + role);
+  pqxx::connection c(db.admin());
+  pqxx::nontransaction n(c);
+  n.exec("DROP ROLE IF EXISTS " + role);
 }

@@ -32,6 +32,11 @@ std::string sqlstate_of(const std::exception& e) {
 /// this transaction as a serialization or deadlock victim.
 bool transient(const std::exception& e) {
   if (dynamic_cast<const pqxx::broken_connection*>(&e) != nullptr) return true;
+  // libpqxx 6 throws these two as transaction_rollback, not as sql_error with a SQLSTATE.
+  if (dynamic_cast<const pqxx::serialization_failure*>(&e) != nullptr ||
+      dynamic_cast<const pqxx::deadlock_detected*>(&e) != nullptr) {
+    return true;
+  }
   const std::string state = sqlstate_of(e);
   return state == "40001" || state == "40P01";
 }
@@ -405,12 +410,14 @@ void rethrow(const std::exception& e, const Database& d) {
     throw StoreError("store '" + d.path + "' is locked by another writer past the busy timeout",
                      "try again when the other command has finished");
   }
-  if (state == "40001" || state == "40P01") {
+  if (state == "40001" || state == "40P01" ||
+      dynamic_cast<const pqxx::serialization_failure*>(&e) != nullptr ||
+      dynamic_cast<const pqxx::deadlock_detected*>(&e) != nullptr) {
     throw StoreError(
         "store '" + d.path + "': concurrent commands kept conflicting (" + message + ")",
         "try again; nothing of this command was written");
   }
-  if (state == "42501") {
+  if (state == "42501" || dynamic_cast<const pqxx::insufficient_privilege*>(&e) != nullptr) {
     throw StoreError(
         "the role connected to the PostgreSQL store '" + d.path + "' lacks a privilege: " + message,
         "apply the grants 'curvewarden init' prints (README, \"Choosing a "
