@@ -66,7 +66,7 @@ const std::vector<OptionSpec>& global_options() {
 const std::vector<CommandSpec>& command_table() {
   static const std::vector<CommandSpec> table = {
       {"init",
-       "Create the store (idempotent; applies pending migrations)",
+       "Create the store (idempotent; applies pending migrations; on PostgreSQL prints the grants)",
        {value("--lab", "NAME", "Name of the laboratory; renaming an existing lab needs --reason"),
         value("--tz", "ZONE",
               "IANA time zone of the lab (default: the system zone); fixed once the store holds "
@@ -78,7 +78,7 @@ const std::vector<CommandSpec>& command_table() {
         value("--name", "TEXT", "Full name of the first admin (default: its code)"), kKey,
         value("--group", "NAME",
               "Create the store (and its -wal and -shm files) with mode 0660 for this group, for a "
-              "workstation shared by its members (default: 0600, the owner only)")},
+              "workstation shared by its members (default: 0600, the owner only; files only)")},
        true,
        h::init},
 
