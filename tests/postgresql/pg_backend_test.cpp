@@ -378,7 +378,7 @@ TEST_CASE("postgresql: eight concurrent writers lose nothing and keep the chain 
   CHECK(verify.json()["entries"] == 1 + kWriters * kPerWriter);
 }
 
-TEST_CASE("postgresql: messages never show a password; the lab key and backups need the user",
+TEST_CASE("postgresql: messages never show a password, and the lab key and backups need the user",
           "[postgresql]") {
   TestDatabase db;
   Sandbox box;
