@@ -80,10 +80,17 @@ class PgWriteUnit final : public WriteUnit {
   void append_entry(const EntryHeader& header) override { audit_.append(state_, actor_, header); }
   void commit() override {
     if (!state_.rows.empty()) throw std::logic_error("rows written without an audit entry");
-    guarded(db_, [&] {
-      open_ = false;
+    open_ = false;
+    try {
       db_.run("COMMIT");
-    });
+    } catch (const pqxx::broken_connection& e) {
+      // The server may have committed before the connection went: say so, never "nothing".
+      throw StoreError("the connection to the PostgreSQL store '" + db_.path +
+                           "' was lost while committing: " + std::string(e.what()),
+                       "run 'curvewarden audit log' to see whether the command was recorded");
+    } catch (const pqxx::failure& e) {
+      rethrow(e, db_);
+    }
   }
   Instant now() const override { return actor_.clock->now(); }
 
