@@ -85,8 +85,10 @@ class PgWriteUnit final : public WriteUnit {
       db_.run("COMMIT");
     } catch (const pqxx::broken_connection& e) {
       // The server may have committed before the connection went: say so, never "nothing".
+      std::string what = e.what();
+      what = what.substr(0, what.find('\n'));
       throw StoreError("the connection to the PostgreSQL store '" + db_.path +
-                           "' was lost while committing: " + std::string(e.what()),
+                           "' was lost while committing: " + what,
                        "run 'curvewarden audit log' to see whether the command was recorded");
     } catch (const pqxx::failure& e) {
       rethrow(e, db_);
