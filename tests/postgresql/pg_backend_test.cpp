@@ -20,6 +20,8 @@
 
 #include "audit/audit_entry.h"
 #include "harness.h"
+#include "store/fact_table.h"
+#include "store/row_form.h"
 
 namespace {
 
@@ -527,4 +529,49 @@ TEST_CASE("postgresql: with the grants init prints, the workstations' role only 
   pqxx::connection c(db.admin());
   pqxx::nontransaction n(c);
   n.exec("DROP ROLE IF EXISTS " + role);
+}
+
+TEST_CASE("postgresql: the migrated schema holds every column of the hashed row form",
+          "[postgresql]") {
+  // The canonical row form (store/row_form.cpp) is what both backends hash: every fact table's
+  // columns exist with a type that holds their logical type, NOT NULL where the form says so,
+  // and text compares bytewise.
+  TestDatabase db;
+  Sandbox box;
+  run_ok(box, {"init", "--tz", "UTC"}, on(db, box));
+  pqxx::connection c(db.uri());
+  pqxx::work w(c);
+  for (const cw::store::FactTable t : cw::store::kAllFactTables) {
+    const cw::store::TableForm& form = cw::store::form_of(t);
+    INFO(form.name);
+    const pqxx::result columns = w.exec_params(
+        "SELECT column_name, data_type, is_nullable, coalesce(collation_name, '') "
+        "FROM information_schema.columns WHERE table_schema = current_schema() AND "
+        "table_name = $1",
+        std::string(form.name));
+    CHECK(columns.size() == form.columns.size());
+    for (const cw::store::Column& column : form.columns) {
+      INFO(column.name);
+      bool found = false;
+      for (const auto& row : columns) {
+        if (row[0].as<std::string>() != column.name) continue;
+        found = true;
+        const std::string type = row[1].as<std::string>();
+        switch (column.type) {
+          case cw::store::ColumnType::Integer:
+          case cw::store::ColumnType::Boolean:
+            CHECK(type == "bigint");
+            break;
+          case cw::store::ColumnType::Real:
+            CHECK(type == "double precision");
+            break;
+          default:
+            CHECK(type == "text");
+            CHECK(row[3].as<std::string>() == "C");
+        }
+        CHECK((row[2].as<std::string>() == "YES") == (column.nullable || column.added_later));
+      }
+      CHECK(found);
+    }
+  }
 }
