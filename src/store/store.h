@@ -18,6 +18,7 @@
 
 #include "core/clock.h"
 #include "store/audit_trail.h"
+#include "store/copy.h"
 #include "store/curves.h"
 #include "store/registry.h"
 #include "store/runs.h"
@@ -56,6 +57,8 @@ class ReadUnit {
   virtual CurveReader& curves() = 0;
   virtual RunReader& runs() = 0;
   virtual AuditReader& audit() = 0;
+  /// Every row of every table, for `store copy` (store/copy.h).
+  virtual TableRowReader& table_rows() = 0;
 };
 
 /// One write transaction: reads see its own snapshot (taken with the write lock held), appends
@@ -93,6 +96,9 @@ class Store {
   virtual bool was_created() const = 0;
   /// The append-only guards (triggers) that should exist and do not: a damaged store.
   virtual std::vector<std::string> missing_guards() = 0;
+  /// Starts the one write transaction of `store copy` into this store (store/copy.h); refused
+  /// with StoreError, as write() is, when the append-only guards are missing.
+  virtual std::unique_ptr<StoreLoader> load() = 0;
 };
 
 }  // namespace cw::store
