@@ -239,6 +239,21 @@ Sandbox::~Sandbox() {
   }
 }
 
+void Sandbox::copy_from(const Sandbox& source) {
+  for (const auto& entry : std::filesystem::directory_iterator(source.dir())) {
+    std::filesystem::copy(entry.path(), dir_ / entry.path().filename(),
+                          std::filesystem::copy_options::recursive);
+  }
+  if (backend_ == Backend::Postgresql) {
+    pg::drop_database(pg_server_, pg_database_);
+    std::string error;
+    if (pg::exec(pg_server_, "CREATE DATABASE " + pg_database_ + " TEMPLATE " + source.pg_database_,
+                 &error) != 0) {
+      throw std::runtime_error("cannot copy database " + source.pg_database_ + ": " + error);
+    }
+  }
+}
+
 std::filesystem::path Sandbox::write_file(const std::string& name,
                                           const std::string& content) const {
   const auto target = dir_ / name;

@@ -119,6 +119,11 @@ class Sandbox {
   /// <dir>/<name>.
   std::filesystem::path path(const std::string& name) const { return dir_ / name; }
 
+  /// Makes this sandbox a copy of `source`: every file of its directory (the SQLite store with
+  /// its -wal file, the key, input files), and on PostgreSQL its database (CREATE DATABASE ...
+  /// TEMPLATE, a byte copy made by the server; no one may be connected to `source`'s database).
+  void copy_from(const Sandbox& source);
+
   /// Writes `content` byte for byte to <dir>/<name> (creating parent folders); returns the path.
   std::filesystem::path write_file(const std::string& name, const std::string& content) const;
 

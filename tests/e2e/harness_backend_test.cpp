@@ -69,6 +69,16 @@ TEST_CASE("harness: a PostgreSQL sandbox has a fresh database of its own, droppe
     CHECK_THAT(error, Catch::Contains("duplicate key"));
     CHECK_THROWS(cw::test::query_text(a, "SELECT id FROM t"));  // two rows
     REQUIRE(database_exists(first));
+
+    // copy_from: the files of the directory and the database, under b's own name.
+    a.write_file("input.csv", "x\n");
+    const std::string b_name = database_of(b);
+    b.copy_from(a);
+    CHECK(database_of(b) == b_name);
+    CHECK(cw::test::table_row_counts(b) == std::map<std::string, std::int64_t>{{"t", 2}});
+    CHECK(cw::test::read_file(b.path("input.csv")) == "x\n");
+    REQUIRE(cw::test::exec_sql(b, "INSERT INTO t VALUES (3, 'b only')") == 0);
+    CHECK(cw::test::table_row_counts(a).at("t") == 2);
   }
   CHECK_FALSE(database_exists(first));
 }

@@ -54,7 +54,7 @@ TEST_CASE("store copy: the copied tables are every table of the schema, column f
   CHECK(cw::store::copy_tables().front().name == "audit_log");
 }
 
-TEST_CASE("store copy: a new store is empty; rows appended without commit are rolled back",
+TEST_CASE("store copy: a new store is empty, and rows appended without commit are rolled back",
           "[store][copy]") {
   TempDir dir;
   const auto path = dir / "s.db";
