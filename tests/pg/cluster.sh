@@ -62,6 +62,8 @@ start() {
     chown "${PG_RUN_AS:-nobody}" "$dir"
   fi
   chmod 700 "$dir"
+  as_owner test -w "$dir" ||
+    { echo "cluster.sh: ${PG_RUN_AS:-nobody} cannot write to $dir (a parent folder closed to it?); use a folder under /tmp" >&2; exit 1; }
   as_owner "$bin/initdb" -D "$dir/data" -U cw --auth=trust --encoding=UTF8 --locale=C.UTF-8 \
     --no-sync >"$dir/initdb.log" 2>&1 ||
     { cat "$dir/initdb.log" >&2; echo "cluster.sh: initdb failed" >&2; exit 1; }
