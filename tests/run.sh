@@ -3,6 +3,9 @@
 # (the crash trials and the concurrency test among them). The proofs that need builds of their
 # own: the parsers fuzzed for a fixed number of runs (below); the whole suite under the
 # sanitizers and longer fuzzing are in tests/proofs.sh.
+# A throwaway PostgreSQL server (tests/pg/cluster.sh) runs for the duration of ctest; its URI is
+# exported as CURVEWARDEN_TEST_PG for the tests that run against PostgreSQL. When it cannot start
+# the run fails: those tests are never skipped silently.
 # Usage: tests/run.sh [extra ctest arguments]
 set -euo pipefail
 root=$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)
@@ -12,7 +15,17 @@ jobs=$(nproc)
 "$root/.ci/install-deps"
 "$root/.ci/configure" "$build"
 cmake --build "$build" -j "$jobs"
+
+pg_dir=$(mktemp -d "${TMPDIR:-/tmp}/curvewarden-pg.XXXXXX")
+trap '"$root/tests/pg/cluster.sh" stop "$pg_dir"' EXIT
+echo "== starting a throwaway PostgreSQL server in $pg_dir"
+CURVEWARDEN_TEST_PG=$("$root/tests/pg/cluster.sh" start "$pg_dir") ||
+  { echo "tests/run.sh: the PostgreSQL test server did not start (above); failing the run" >&2; exit 1; }
+export CURVEWARDEN_TEST_PG
+echo "CURVEWARDEN_TEST_PG=$CURVEWARDEN_TEST_PG"
 (cd "$build" && ctest --output-on-failure -j "$jobs" "$@")
+"$root/tests/pg/cluster.sh" stop "$pg_dir"
+trap - EXIT
 [ $# -eq 0 ] || exit 0
 
 # The parsers of every input under libFuzzer with AddressSanitizer and UndefinedBehaviorSanitizer

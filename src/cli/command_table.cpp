@@ -412,6 +412,18 @@ const std::vector<CommandSpec>& command_table() {
        false,
        h::backup},
 
+      {"store", "Move a whole store to another file or backend", {}, false, nullptr},
+      {"store copy",
+       "Copy a whole store (every fact and the audit trail, verbatim) into an empty store, "
+       "verifying the source first and the copy after: both have the same head hash",
+       {value("--from", "STORE", "The store to copy (a file path); it is only read", true),
+        value("--to", "STORE",
+              "The destination: a new file (created with mode 0600, removed if the copy fails) "
+              "or a store that holds nothing yet",
+              true)},
+       false,
+       h::store_copy},
+
       {"help", "Show the help of a command: curvewarden help curve log", {}, false, nullptr},
   };
   return table;

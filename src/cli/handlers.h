@@ -66,5 +66,6 @@ int audit_log(Invocation& in);
 int audit_verify(Invocation& in);
 int audit_anchor(Invocation& in);
 int backup(Invocation& in);
+int store_copy(Invocation& in);
 
 }  // namespace cw::cli::handlers

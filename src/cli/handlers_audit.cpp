@@ -8,12 +8,14 @@
 
 #include "app/anchors.h"
 #include "app/audit.h"
+#include "app/store_copy.h"
 #include "cli/handlers.h"
 #include "core/clean_text.h"
 #include "core/error.h"
 #include "import/input_file.h"
 #include "report/registry_views.h"
 #include "store/store.h"
+#include "store/store_file.h"
 
 namespace cw::cli::handlers {
 namespace {
@@ -182,6 +184,53 @@ int backup(Invocation& in) {
              << r.chain.head_hash << ".\n";
   }
   return 0;
+}
+
+int store_copy(Invocation& in) {
+  app::StoreCopyRequest r;
+  r.from = in.path("--from");
+  r.to = in.path("--to");
+  r.os_login = Invocation::os_login();
+  const auto is_server = [](const std::string& where) { return where.rfind("postgres", 0) == 0; };
+  for (const auto& [option, where] : {std::pair{"--from", r.from}, std::pair{"--to", r.to}}) {
+    if (!is_server(where) && store::is_symlink(where) && !in.has("--follow-symlink")) {
+      throw option_error(option, "the store path '" + where + "' is a symbolic link",
+                         "give the real path of the store, or --follow-symlink if the link is "
+                         "meant");
+    }
+  }
+  std::error_code ec;
+  if (r.from == r.to ||
+      (!is_server(r.from) && !is_server(r.to) && std::filesystem::equivalent(r.from, r.to, ec))) {
+    throw option_error("--to", "--from and --to name the same store",
+                       "give the path of a new file, or an empty database");
+  }
+  if (!is_server(r.from) && ::access(r.from.c_str(), F_OK) != 0) {
+    throw option_error("--from", "there is no store '" + r.from + "'",
+                       "give the path of an existing store file");
+  }
+  if (!is_server(r.to)) {
+    const std::string folder = std::filesystem::path(r.to).parent_path().string();
+    if (!folder.empty() && !std::filesystem::is_directory(folder)) {
+      throw option_error("--to", "there is no folder '" + folder + "' for the store '" + r.to + "'",
+                         "create the folder first");
+    }
+  }
+  // A new file is created private (mode 0600) before the store is written into it, and removed
+  // when the copy fails; an existing one is used only when it holds no entry and no fact.
+  const bool created = !is_server(r.to) && store::create_store_file(r.to, std::nullopt);
+  try {
+    const auto outcome = app::copy_store(r);
+    if (in.json()) {
+      in.emit(report::store_copy_json(outcome));
+    } else {
+      report::print_store_copy(in.out(), outcome);
+    }
+    return 0;
+  } catch (...) {
+    if (created) store::remove_new_store_files(r.to);
+    throw;
+  }
 }
 
 }  // namespace cw::cli::handlers

@@ -481,4 +481,24 @@ void print_user_list(std::ostream& out, const std::vector<User>& list, const Lab
   t.print(out);
 }
 
+Json store_copy_json(const app::StoreCopyOutcome& o) {
+  Json tables = Json::object();
+  for (const auto& t : o.tables) tables[t.table] = t.rows;
+  return Json{{"from", o.from},
+              {"to", o.to},
+              {"schema_version", o.schema_version},
+              {"entries", o.entries},
+              {"rows", o.rows},
+              {"tables", tables},
+              {"source_head_hash", o.source_head_hash},
+              {"destination_head_hash", o.destination_head_hash}};
+}
+
+void print_store_copy(std::ostream& out, const app::StoreCopyOutcome& o) {
+  out << "Copied " << o.from << " to " << o.to << ": " << o.entries << " audit entries and "
+      << o.rows << " fact rows (schema version " << o.schema_version << ").\n"
+      << "Both verify: head hash of the source " << o.source_head_hash << "\n"
+      << "             head hash of the copy   " << o.destination_head_hash << "\n";
+}
+
 }  // namespace cw::report

@@ -7,6 +7,7 @@
 
 #include "app/audit.h"
 #include "app/registry.h"
+#include "app/store_copy.h"
 #include "app/users.h"
 #include "audit/audit_entry.h"
 #include "report/json.h"
@@ -44,5 +45,8 @@ void print_audit_log(std::ostream& out, const std::vector<audit::AuditEntry>& en
                      const LabZone& zone);
 Json verify_json(const app::VerifyOutcome& o);
 void print_verify(std::ostream& out, const app::VerifyOutcome& o);
+
+Json store_copy_json(const app::StoreCopyOutcome& o);
+void print_store_copy(std::ostream& out, const app::StoreCopyOutcome& o);
 
 }  // namespace cw::report

@@ -18,6 +18,7 @@
 
 #include "core/clock.h"
 #include "store/audit_trail.h"
+#include "store/copy.h"
 #include "store/curves.h"
 #include "store/registry.h"
 #include "store/runs.h"
@@ -63,6 +64,8 @@ class ReadUnit {
   virtual CurveReader& curves() = 0;
   virtual RunReader& runs() = 0;
   virtual AuditReader& audit() = 0;
+  /// Every row of every table, for `store copy` (store/copy.h).
+  virtual TableRowReader& table_rows() = 0;
 };
 
 /// One write transaction: reads see its own snapshot (taken with the write lock held), appends
@@ -103,6 +106,9 @@ class Store {
   /// The statements a database administrator applies so that the workstations' role may only
   /// read and append (a server store); empty for a file, whose guard is its file mode.
   virtual std::string privilege_statements() { return {}; }
+  /// Starts the one write transaction of `store copy` into this store (store/copy.h); refused
+  /// with StoreError, as write() is, when the append-only guards are missing.
+  virtual std::unique_ptr<StoreLoader> load() = 0;
 };
 
 }  // namespace cw::store

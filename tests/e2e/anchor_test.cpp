@@ -3,6 +3,7 @@
 // made the way a careful forger would (append-only triggers dropped and put back, every hash
 // recomputed with the tool's own canonical form), so that `audit verify` alone finds nothing;
 // against the anchor each one is found (exit 5, naming the checkpoint).
+// The rewrites use SQLite's SQL on the store file (triggers in sqlite_master): [sqlite-only].
 #include <catch2/catch.hpp>
 #include <string>
 #include <vector>
@@ -36,7 +37,7 @@ void populate(Sandbox& box) {
     INFO(r.describe());
     REQUIRE(r.exit_code == 0);
   }
-  REQUIRE(query_text(box.db(), "SELECT count(*) FROM audit_log") == "8");
+  REQUIRE(query_text(box, "SELECT count(*) FROM audit_log") == "8");
 }
 
 /// Runs `sql` with every trigger dropped, then puts the triggers back as they were (the guard
@@ -120,11 +121,11 @@ TEST_CASE("e2e anchor: the checkpoint file, signed, and an intact trail contains
   populate(box);
   const std::string text = cw::test::read_file(box.path("day1.anchor"));
   CHECK(text.rfind("curvewarden anchor 1\nlab: Water lab\nentries: 6\nhead: ", 0) == 0);
-  CHECK(text.find("\nhead: " + query_text(box.db(), "SELECT hash FROM audit_log WHERE seq = 6")) !=
+  CHECK(text.find("\nhead: " + query_text(box, "SELECT hash FROM audit_log WHERE seq = 6")) !=
         std::string::npos);
-  // The lab key lives next to the store, not in it, readable by its owner only.
-  CHECK((std::filesystem::status(box.path("store.db.key")).permissions() &
-         std::filesystem::perms::all) ==
+  // The lab key lives in a file of its own (next to a store file), not in the store, readable by
+  // its owner only.
+  CHECK((std::filesystem::status(box.key()).permissions() & std::filesystem::perms::all) ==
         (std::filesystem::perms::owner_read | std::filesystem::perms::owner_write));
   const RunResult r = verify(box, true);
   INFO(r.describe());
@@ -136,7 +137,7 @@ TEST_CASE("e2e anchor: the checkpoint file, signed, and an intact trail contains
 TEST_CASE(
     "e2e anchor: a rewrite re-hashed from its first changed entry is found only with the "
     "anchor",
-    "[e2e]") {
+    "[e2e][sqlite-only]") {
   Sandbox box;
   populate(box);
   // Entry 2 registered IC-02 "Ion chromatograph": the forger renames it in the row and in the
@@ -159,7 +160,7 @@ TEST_CASE(
 TEST_CASE(
     "e2e anchor: an entry forged into the trail before the checkpoint is found only with "
     "the anchor",
-    "[e2e]") {
+    "[e2e][sqlite-only]") {
   Sandbox box;
   populate(box);
   // A forged entry 3 (an empty payload: nothing to contradict it); later entries and the rows
@@ -194,7 +195,7 @@ TEST_CASE(
   CHECK_THAT(anchored.err, Catch::Contains("checkpoint 'day1.anchor' (entry 6"));
 }
 
-TEST_CASE("e2e anchor: a lost tail is found only with the anchor", "[e2e]") {
+TEST_CASE("e2e anchor: a lost tail is found only with the anchor", "[e2e][sqlite-only]") {
   Sandbox box;
   populate(box);
   // Everything after entry 4 is gone (entries and their rows), as after losing a -wal file.
@@ -236,7 +237,7 @@ TEST_CASE("e2e anchor: an edited or foreign checkpoint is refused", "[e2e]") {
   CHECK(r.exit_code == 2);
   CHECK_THAT(r.err, Catch::Contains("'junk.anchor' line 3"));
   // A key file others can read is refused.
-  std::filesystem::permissions(box.path("store.db.key"), std::filesystem::perms::group_read,
+  std::filesystem::permissions(box.key(), std::filesystem::perms::group_read,
                                std::filesystem::perm_options::add);
   r = box.run({"audit", "anchor", "--out", "again.anchor"});
   CHECK(r.exit_code == 4);

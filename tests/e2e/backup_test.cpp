@@ -17,7 +17,8 @@ using cw::test::Sandbox;
 
 }  // namespace
 
-TEST_CASE("e2e backup: a verified, private copy, taken while another process writes", "[e2e]") {
+TEST_CASE("e2e backup: a verified, private copy, taken while another process writes",
+          "[e2e][sqlite-only]") {
   Sandbox box;
   REQUIRE(box.run({"init", "--tz", "UTC"}).exit_code == 0);
   // A writer registers instruments while two backups are taken.
@@ -51,7 +52,7 @@ TEST_CASE("e2e backup: a verified, private copy, taken while another process wri
   CHECK(box.run({"audit", "verify"}).exit_code == 0);
 }
 
-TEST_CASE("e2e backup: an existing file is never replaced", "[e2e]") {
+TEST_CASE("e2e backup: an existing file is never replaced", "[e2e][sqlite-only]") {
   Sandbox box;
   REQUIRE(box.run({"init", "--tz", "UTC"}).exit_code == 0);
   box.write_file("taken.db", "precious");

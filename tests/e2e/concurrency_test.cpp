@@ -1,6 +1,8 @@
 // SPDX-License-Identifier: Apache-2.0
 // Several writers on one store (product.md §10): concurrent commands wait for each other and
 // never lose a write; a writer kept out past the busy timeout gets exit 4 and writes nothing.
+// The lock is held with SQLite's own BEGIN IMMEDIATE on the file in the two tests tagged
+// [sqlite-only]; the others run on either backend.
 #include <sqlite3.h>
 
 #include <catch2/catch.hpp>
@@ -37,12 +39,11 @@ TEST_CASE("e2e concurrency: two writers at once lose no write and keep the chain
   b.join();
   CHECK(failures[0] == 0);
   CHECK(failures[1] == 0);
-  CHECK(cw::test::query_text(box.db(), "SELECT count(*) FROM lots") ==
-        std::to_string(2 * kPerWriter));
+  CHECK(cw::test::query_text(box, "SELECT count(*) FROM lots") == std::to_string(2 * kPerWriter));
   // One entry for init, one per lot, with no gap in the sequence.
-  CHECK(cw::test::query_text(box.db(), "SELECT count(*) FROM audit_log") ==
+  CHECK(cw::test::query_text(box, "SELECT count(*) FROM audit_log") ==
         std::to_string(1 + 2 * kPerWriter));
-  CHECK(cw::test::query_text(box.db(), "SELECT max(seq) FROM audit_log") ==
+  CHECK(cw::test::query_text(box, "SELECT max(seq) FROM audit_log") ==
         std::to_string(1 + 2 * kPerWriter));
   const RunResult verify = box.run({"audit", "verify", "--json"});
   CHECK(verify.exit_code == 0);
@@ -50,7 +51,7 @@ TEST_CASE("e2e concurrency: two writers at once lose no write and keep the chain
 }
 
 TEST_CASE("e2e concurrency: a writer locked out past the busy timeout exits 4 and writes nothing",
-          "[e2e]") {
+          "[e2e][sqlite-only]") {
   Sandbox box;
   REQUIRE(box.run({"init", "--tz", "UTC"}).exit_code == 0);
   const auto before = cw::test::table_row_counts(box.db());
@@ -71,7 +72,8 @@ TEST_CASE("e2e concurrency: a writer locked out past the busy timeout exits 4 an
   CHECK(cw::test::table_row_counts(box.db()) == before);
 }
 
-TEST_CASE("e2e concurrency: a writer waits for a short lock and then succeeds", "[e2e]") {
+TEST_CASE("e2e concurrency: a writer waits for a short lock and then succeeds",
+          "[e2e][sqlite-only]") {
   Sandbox box;
   REQUIRE(box.run({"init", "--tz", "UTC"}).exit_code == 0);
   sqlite3* holder = nullptr;
@@ -86,7 +88,7 @@ TEST_CASE("e2e concurrency: a writer waits for a short lock and then succeeds", 
   sqlite3_close(holder);
   INFO(r.describe());
   CHECK(r.exit_code == 0);
-  CHECK(cw::test::query_text(box.db(), "SELECT count(*) FROM instruments") == "1");
+  CHECK(cw::test::query_text(box, "SELECT count(*) FROM instruments") == "1");
 }
 
 TEST_CASE("e2e concurrency: 8 writers and 2 readers for a bounded time lose nothing", "[e2e]") {
@@ -130,20 +132,19 @@ TEST_CASE("e2e concurrency: 8 writers and 2 readers for a bounded time lose noth
   INFO(acknowledged.size() << " writes acknowledged");
   CHECK(acknowledged.size() >= 16);
   // Every acknowledged write is there exactly once, and nothing else is.
-  CHECK(cw::test::query_text(box.db(), "SELECT count(*) FROM lots") ==
+  CHECK(cw::test::query_text(box, "SELECT count(*) FROM lots") ==
         std::to_string(acknowledged.size()));
-  CHECK(cw::test::query_text(box.db(), "SELECT count(DISTINCT code) FROM lots") ==
+  CHECK(cw::test::query_text(box, "SELECT count(DISTINCT code) FROM lots") ==
         std::to_string(acknowledged.size()));
   for (const auto& code : acknowledged) {
-    if (cw::test::query_text(box.db(), "SELECT count(*) FROM lots WHERE code = '" + code + "'") !=
-        "1") {
+    if (cw::test::query_text(box, "SELECT count(*) FROM lots WHERE code = '" + code + "'") != "1") {
       FAIL_CHECK("lot " << code << " is not there exactly once");
     }
   }
   // The chain has no gap: one entry for init and one per lot, numbered 1..n.
-  CHECK(cw::test::query_text(box.db(), "SELECT count(*) FROM audit_log") ==
+  CHECK(cw::test::query_text(box, "SELECT count(*) FROM audit_log") ==
         std::to_string(1 + acknowledged.size()));
-  CHECK(cw::test::query_text(box.db(), "SELECT max(seq) FROM audit_log") ==
+  CHECK(cw::test::query_text(box, "SELECT max(seq) FROM audit_log") ==
         std::to_string(1 + acknowledged.size()));
   const RunResult verify = box.run({"audit", "verify", "--json"});
   CHECK(verify.exit_code == 0);

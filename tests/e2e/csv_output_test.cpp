@@ -192,7 +192,7 @@ TEST_CASE("e2e csv: --csv with --json, or on a command that lists nothing, is re
   CHECK_THAT(both.out + both.err, Catch::Contains("--csv or --json"));
   const RunResult not_listing = box.run({"instrument", "add", "X", "--csv"});
   CHECK(not_listing.exit_code == 2);
-  CHECK(cw::test::query_text(box.db(), "SELECT count(*) FROM instruments") == "0");
+  CHECK(cw::test::query_text(box, "SELECT count(*) FROM instruments") == "0");
   // An empty listing is still a header row.
   const RunResult empty = box.run({"curve", "list", "--csv"});
   CHECK(empty.exit_code == 0);

@@ -1,7 +1,7 @@
 // SPDX-License-Identifier: Apache-2.0
 // File hygiene: a new store and its -wal and -shm files are private (0600), or shared with one
 // group (0660) with init --group; a store path that is a symbolic link is refused unless
-// --follow-symlink.
+// --follow-symlink. All of it is about the store file: [sqlite-only].
 #include <grp.h>
 #include <sys/stat.h>
 #include <unistd.h>
@@ -23,7 +23,8 @@ fs::perms mode_of(const fs::path& p) {
 
 }  // namespace
 
-TEST_CASE("e2e files: a new store, its -wal and -shm are readable by the owner only", "[e2e]") {
+TEST_CASE("e2e files: a new store, its -wal and -shm are readable by the owner only",
+          "[e2e][sqlite-only]") {
   Sandbox box;
   ::umask(022);  // a usual umask: it would leave new files world-readable
   REQUIRE(box.run({"init", "--tz", "UTC"}).exit_code == 0);
@@ -36,7 +37,7 @@ TEST_CASE("e2e files: a new store, its -wal and -shm are readable by the owner o
   }
 }
 
-TEST_CASE("e2e files: init --group shares the store with one group (0660)", "[e2e]") {
+TEST_CASE("e2e files: init --group shares the store with one group (0660)", "[e2e][sqlite-only]") {
   Sandbox box;
   const ::group* g = ::getgrgid(::getegid());
   REQUIRE(g != nullptr);
@@ -54,7 +55,7 @@ TEST_CASE("e2e files: init --group shares the store with one group (0660)", "[e2
 }
 
 TEST_CASE("e2e files: a store path that is a symbolic link is refused unless --follow-symlink",
-          "[e2e]") {
+          "[e2e][sqlite-only]") {
   Sandbox box;
   REQUIRE(box.run({"init", "--tz", "UTC"}).exit_code == 0);
   fs::create_symlink(box.db(), box.path("link.db"));
@@ -69,7 +70,8 @@ TEST_CASE("e2e files: a store path that is a symbolic link is refused unless --f
   CHECK(cw::test::query_text(box.db(), "SELECT count(*) FROM instruments") == "1");
 }
 
-TEST_CASE("e2e files: an init that fails on a new store leaves no file behind", "[e2e]") {
+TEST_CASE("e2e files: an init that fails on a new store leaves no file behind",
+          "[e2e][sqlite-only]") {
   Sandbox box;
   // A passphrase too short for the first admin: refused before anything is kept.
   RunResult r = box.run_with_input({"init", "--tz", "UTC", "--passphrase-fd", "0"}, "short\n");

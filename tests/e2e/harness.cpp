@@ -207,16 +207,51 @@ RunResult run_process(const std::filesystem::path& binary, const std::vector<std
   return result;
 }
 
-Sandbox::Sandbox() {
+Sandbox::Sandbox() : backend_(test_backend()) {
   const char* tmp = std::getenv("TMPDIR");
   std::string pattern = std::string(tmp && *tmp ? tmp : "/tmp") + "/curvewarden-e2e-XXXXXX";
   if (mkdtemp(pattern.data()) == nullptr) fail_errno("mkdtemp");
   dir_ = pattern;
+  if (backend_ == Backend::Sqlite) {
+    location_ = db().string();
+    return;
+  }
+  try {
+    pg_server_ = pg::server_uri();
+    pg_database_ = pg::create_database(pg_server_);
+    location_ = pg::with_database(pg_server_, pg_database_);
+  } catch (...) {
+    std::error_code ec;
+    std::filesystem::remove_all(dir_, ec);
+    throw;
+  }
 }
 
 Sandbox::~Sandbox() {
   std::error_code ec;
   std::filesystem::remove_all(dir_, ec);
+  if (!pg_database_.empty()) {
+    try {
+      pg::drop_database(pg_server_, pg_database_);
+    } catch (const std::exception&) {
+      // The server is gone or refused: the database dies with the throwaway cluster.
+    }
+  }
+}
+
+void Sandbox::copy_from(const Sandbox& source) {
+  for (const auto& entry : std::filesystem::directory_iterator(source.dir())) {
+    std::filesystem::copy(entry.path(), dir_ / entry.path().filename(),
+                          std::filesystem::copy_options::recursive);
+  }
+  if (backend_ == Backend::Postgresql) {
+    pg::drop_database(pg_server_, pg_database_);
+    std::string error;
+    if (pg::exec(pg_server_, "CREATE DATABASE " + pg_database_ + " TEMPLATE " + source.pg_database_,
+                 &error) != 0) {
+      throw std::runtime_error("cannot copy database " + source.pg_database_ + ": " + error);
+    }
+  }
 }
 
 std::filesystem::path Sandbox::write_file(const std::string& name,
@@ -244,7 +279,9 @@ std::map<std::string, std::string> Sandbox::environment(const EnvOverrides& over
   env["TZ"] = "UTC";
   env["CURVEWARDEN_NOW"] = now;
   env["CURVEWARDEN_USER"] = user;
-  env["CURVEWARDEN_DB"] = db().string();
+  env["CURVEWARDEN_DB"] = location_;
+  // No store file to put the key next to: name the file SQLite's default would.
+  if (backend_ == Backend::Postgresql) env["CURVEWARDEN_KEY"] = key().string();
   for (const auto& [key, value] : overrides) {
     if (value) {
       env[key] = *value;
@@ -371,6 +408,34 @@ std::string query_text(const std::filesystem::path& db, const std::string& sql) 
     throw std::runtime_error("query '" + sql + "' did not return exactly one value");
   }
   return rows.front().front();
+}
+
+std::map<std::string, std::int64_t> table_row_counts(const Sandbox& box) {
+  if (box.backend() == Backend::Sqlite) return table_row_counts(box.db());
+  std::map<std::string, std::int64_t> counts;
+  for (const auto& row :
+       pg::query(box.location(),
+                 "SELECT quote_ident(schemaname) || '.' || quote_ident(tablename), "
+                 "tablename FROM pg_catalog.pg_tables WHERE schemaname NOT IN "
+                 "('pg_catalog', 'information_schema')")) {
+    const auto n = pg::query(box.location(), "SELECT count(*) FROM " + row.at(0).value());
+    counts[row.at(1).value()] = std::stoll(n.at(0).at(0).value());
+  }
+  return counts;
+}
+
+int exec_sql(const Sandbox& box, const std::string& sql, std::string* error) {
+  if (box.backend() == Backend::Sqlite) return exec_sql(box.db(), sql, error);
+  return pg::exec(box.location(), sql, error);
+}
+
+std::string query_text(const Sandbox& box, const std::string& sql) {
+  if (box.backend() == Backend::Sqlite) return query_text(box.db(), sql);
+  const auto rows = pg::query(box.location(), sql);
+  if (rows.size() != 1 || rows.front().size() != 1) {
+    throw std::runtime_error("query '" + sql + "' did not return exactly one value");
+  }
+  return rows.front().front().value_or("");
 }
 
 std::string read_file(const std::filesystem::path& path) {

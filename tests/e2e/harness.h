@@ -5,7 +5,10 @@
 // Overview. A `Sandbox` is one test's world: a new directory under $TMPDIR (removed when the
 // sandbox goes out of scope), a store path inside it, and the environment every run gets:
 //   TZ=UTC, CURVEWARDEN_NOW=<sandbox.now>, CURVEWARDEN_USER=<sandbox.user>,
-//   CURVEWARDEN_DB=<sandbox.db()>, and no other CURVEWARDEN_* variable from the caller.
+//   CURVEWARDEN_DB=<sandbox.location()>, and no other CURVEWARDEN_* variable from the caller.
+// With CURVEWARDEN_TEST_BACKEND=postgresql (test_backend.h) the store is a fresh database on the
+// server of CURVEWARDEN_TEST_PG, created with the sandbox and dropped with it; location() is its
+// URI and CURVEWARDEN_KEY names <dir>/store.db.key (the file SQLite's default would name).
 // `run()` executes the binary (CW_BINARY, set by tests/e2e/CMakeLists.txt) with the sandbox
 // as its working directory. Per-run overrides can set or remove variables:
 //
@@ -13,13 +16,14 @@
 //   auto r = box.run({"init", "--tz", "Europe/Berlin", "--json"});
 //   REQUIRE(r.exit_code == 0);
 //   CHECK(r.json()["time_zone"] == "Europe/Berlin");
-//   auto counts = cw::test::table_row_counts(box.db());   // {"audit_log": 1, ...}
+//   auto counts = cw::test::table_row_counts(box);   // {"audit_log": 1, ...} on either backend
 //   box.run({"audit", "verify"}, {{"CURVEWARDEN_NOW", "2026-04-01T00:00:00Z"}});
 //
 // Nothing here depends on the wall clock: every run has CURVEWARDEN_NOW set unless a test
-// removes it on purpose. Helpers that touch the store use the SQLite C API directly (an
+// removes it on purpose. Helpers that touch the store use the SQLite C API or libpq directly (an
 // independent path from the tool's own store layer), so tests can count rows, tamper with
-// rows, or compare file bytes.
+// rows, or compare file bytes. The overloads taking a Sandbox work on either backend; those
+// taking a path are for SQLite files (tests about the file itself are tagged [sqlite-only]).
 #pragma once
 
 #include <chrono>
@@ -31,6 +35,8 @@
 #include <string>
 #include <utility>
 #include <vector>
+
+#include "test_backend.h"
 
 namespace cw::test {
 
@@ -100,10 +106,23 @@ class Sandbox {
   std::string user = "alice";
 
   const std::filesystem::path& dir() const { return dir_; }
-  /// The sandbox's store: <dir>/store.db (what CURVEWARDEN_DB points at).
+  /// The backend of this sandbox's store (CURVEWARDEN_TEST_BACKEND when it was made).
+  Backend backend() const { return backend_; }
+  /// The SQLite store file <dir>/store.db (what CURVEWARDEN_DB points at on SQLite).
   std::filesystem::path db() const { return dir_ / "store.db"; }
+  /// The store's location as the tool is given it (CURVEWARDEN_DB): db() on SQLite, the URI of
+  /// the sandbox's database on PostgreSQL.
+  const std::string& location() const { return location_; }
+  /// The lab key file: <dir>/store.db.key (on SQLite the default next to the store; on
+  /// PostgreSQL named by CURVEWARDEN_KEY).
+  std::filesystem::path key() const { return dir_ / "store.db.key"; }
   /// <dir>/<name>.
   std::filesystem::path path(const std::string& name) const { return dir_ / name; }
+
+  /// Makes this sandbox a copy of `source`: every file of its directory (the SQLite store with
+  /// its -wal file, the key, input files), and on PostgreSQL its database (CREATE DATABASE ...
+  /// TEMPLATE, a byte copy made by the server; no one may be connected to `source`'s database).
+  void copy_from(const Sandbox& source);
 
   /// Writes `content` byte for byte to <dir>/<name> (creating parent folders); returns the path.
   std::filesystem::path write_file(const std::string& name, const std::string& content) const;
@@ -125,6 +144,10 @@ class Sandbox {
 
  private:
   std::filesystem::path dir_;
+  Backend backend_ = Backend::Sqlite;
+  std::string pg_server_;    ///< PostgreSQL: the server's URI
+  std::string pg_database_;  ///< PostgreSQL: the sandbox's database
+  std::string location_;
 };
 
 /// Row count of every table (type 'table' in sqlite_master, internal ones included) of the
@@ -138,6 +161,15 @@ int exec_sql(const std::filesystem::path& db, const std::string& sql, std::strin
 
 /// The single value of a one-row, one-column query (as text; "" for NULL).
 std::string query_text(const std::filesystem::path& db, const std::string& sql);
+
+/// Row count of every table of the sandbox's store, on its backend (SQLite: as above;
+/// PostgreSQL: every table outside the system schemas, by table name).
+std::map<std::string, std::int64_t> table_row_counts(const Sandbox& box);
+/// Runs `sql` on the sandbox's store; 0 on success (SQLite: its result code; PostgreSQL: 1 on
+/// any error), `error` receives the message.
+int exec_sql(const Sandbox& box, const std::string& sql, std::string* error = nullptr);
+/// The single value of a one-row, one-column query on the sandbox's store ("" for NULL).
+std::string query_text(const Sandbox& box, const std::string& sql);
 
 /// The bytes of a file ("" when it does not exist).
 std::string read_file(const std::filesystem::path& path);

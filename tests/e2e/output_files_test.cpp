@@ -102,7 +102,7 @@ TEST_CASE("e2e output files: curve show --plot writes SVG, PNG and PDF", "[e2e]"
 TEST_CASE("e2e output files: a bad plot path is refused before anything happens", "[e2e]") {
   Sandbox box;
   populate(box, 5, 1);
-  const auto counts = cw::test::table_row_counts(box.db());
+  const auto counts = cw::test::table_row_counts(box);
   const RunResult bad = box.run({"curve", "show", "1", "--plot", "curve.gif", "--json"});
   CHECK(bad.exit_code == 2);
   CHECK_THAT(bad.err, Catch::Contains("expected .svg, .png or .pdf"));
@@ -112,7 +112,7 @@ TEST_CASE("e2e output files: a bad plot path is refused before anything happens"
   CHECK(pipe.exit_code == 2);
   CHECK(pipe.seconds < 1.0);
   CHECK_THAT(pipe.err, Catch::Contains("exists and is not a regular file"));
-  CHECK(cw::test::table_row_counts(box.db()) == counts);
+  CHECK(cw::test::table_row_counts(box) == counts);
 }
 
 TEST_CASE("e2e output files: '-' reads a method or points file from standard input", "[e2e]") {
@@ -135,8 +135,7 @@ TEST_CASE("e2e output files: '-' reads a method or points file from standard inp
                          csv);
   INFO(logged.describe());
   REQUIRE(logged.exit_code == 0);
-  CHECK(cw::test::query_text(box.db(), "SELECT points_file FROM calibrations") ==
-        "(standard input)");
+  CHECK(cw::test::query_text(box, "SELECT points_file FROM calibrations") == "(standard input)");
   // Errors in a file read from standard input name it and its line.
   const RunResult bad = box.run_with_input({"curve", "log", "--method", "ANION-IC", "--instrument",
                                             "IC-02", "--lot", "CRM-1", "--points", "-"},
@@ -200,7 +199,7 @@ TEST_CASE("e2e output files: report curve refuses a bad path or curve and writes
           "[e2e]") {
   Sandbox box;
   populate(box, 5, 1);
-  const auto counts = cw::test::table_row_counts(box.db());
+  const auto counts = cw::test::table_row_counts(box);
   const RunResult ext = box.run({"report", "curve", "1", "--out", "report.png", "--json"});
   CHECK(ext.exit_code == 2);
   CHECK(ext.json()["error"]["option"] == "--out");
@@ -218,7 +217,7 @@ TEST_CASE("e2e output files: report curve refuses a bad path or curve and writes
   std::filesystem::create_directory(box.path("dir.pdf"));
   CHECK(box.run({"report", "curve", "1", "--out", "dir.pdf"}).exit_code == 2);
   CHECK(box.run({"report", "curve", "1", "--out", "no/such/folder/r.pdf"}).exit_code == 2);
-  CHECK(cw::test::table_row_counts(box.db()) == counts);
+  CHECK(cw::test::table_row_counts(box) == counts);
   CHECK(box.run({"audit", "verify"}).exit_code == 0);
 }
 
@@ -281,9 +280,9 @@ TEST_CASE("e2e output files: report run writes every row of a 500-row run", "[e2
 
   run_ok(box, {"report", "run", "1", "--out", "again.pdf"});
   CHECK(cw::test::read_file(box.path("again.pdf")) == cw::test::read_file(box.path("run.pdf")));
-  const auto counts = cw::test::table_row_counts(box.db());
+  const auto counts = cw::test::table_row_counts(box);
   CHECK(box.run({"report", "run", "2", "--out", "none.pdf"}).exit_code == 2);
   CHECK_FALSE(std::filesystem::exists(box.path("none.pdf")));
   CHECK(box.run({"report", "run", "1", "--out", "run.svg"}).exit_code == 2);
-  CHECK(cw::test::table_row_counts(box.db()) == counts);
+  CHECK(cw::test::table_row_counts(box) == counts);
 }

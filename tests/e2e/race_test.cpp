@@ -87,14 +87,14 @@ TEST_CASE(
 
     // The failing check's entry, and every reported result of the curve after it.
     const std::string check_seq =
-        cw::test::query_text(box.db(),
+        cw::test::query_text(box,
                              "SELECT a.seq FROM audit_log a JOIN checks k ON k.audit_seq = a.seq "
                              "WHERE k.curve_id = " +
                                  curve + " AND k.passed = 0");
     REQUIRE_FALSE(check_seq.empty());
-    const std::string late = cw::test::query_text(
-        box.db(), "SELECT count(*) FROM results r WHERE r.curve_id = " + curve +
-                      " AND r.status = 'reported' AND r.audit_seq > " + check_seq);
+    const std::string late =
+        cw::test::query_text(box, "SELECT count(*) FROM results r WHERE r.curve_id = " + curve +
+                                      " AND r.status = 'reported' AND r.audit_seq > " + check_seq);
     INFO("round " << round << ": " << reported.load() << " reported, " << refused.load()
                   << " refused; check at entry " << check_seq);
     CHECK(late == "0");

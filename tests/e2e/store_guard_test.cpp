@@ -43,7 +43,9 @@ void populate(Sandbox& box) {
 
 }  // namespace
 
-TEST_CASE("e2e guards: a store without its append-only triggers refuses writes", "[e2e]") {
+// The damage below is done with SQLite's SQL on the store file (triggers dropped by name).
+TEST_CASE("e2e guards: a store without its append-only triggers refuses writes",
+          "[e2e][sqlite-only]") {
   Sandbox box;
   populate(box);
   REQUIRE(cw::test::exec_sql(box.db(), "DROP TRIGGER lots_no_update") == 0);
@@ -76,7 +78,8 @@ TEST_CASE("e2e guards: a store without its append-only triggers refuses writes",
   CHECK_THAT(text.out, Catch::Contains("missing trigger lots_no_update"));
 }
 
-TEST_CASE("e2e guards: a stored value that does not read back is damage (exit 4)", "[e2e]") {
+TEST_CASE("e2e guards: a stored value that does not read back is damage (exit 4)",
+          "[e2e][sqlite-only]") {
   struct Damage {
     const char* name;
     const char* sql;
@@ -133,7 +136,7 @@ TEST_CASE("e2e guards: the lab's zone is fixed once the store holds records", "[
   CHECK(log["entries"][1]["action"] == "lab.change-zone");
 
   run_ok(box, {"instrument", "add", "IC-02"});
-  const auto counts = cw::test::table_row_counts(box.db());
+  const auto counts = cw::test::table_row_counts(box);
   const RunResult r = box.run({"init", "--tz", "America/Chicago", "--json"});
   INFO(r.describe());
   CHECK(r.exit_code == 3);
@@ -141,7 +144,7 @@ TEST_CASE("e2e guards: the lab's zone is fixed once the store holds records", "[
   CHECK_THAT(r.err,
              Catch::Contains("cannot change to America/Chicago once the store holds records"));
   // The refusal is recorded; the settings are not.
-  auto after = cw::test::table_row_counts(box.db());
+  auto after = cw::test::table_row_counts(box);
   CHECK(after.at("refusals") == counts.at("refusals") + 1);
   CHECK(after.at("lab_settings") == counts.at("lab_settings"));
   log = box.run({"audit", "log", "--json"}).json();
@@ -149,7 +152,7 @@ TEST_CASE("e2e guards: the lab's zone is fixed once the store holds records", "[
   CHECK(box.run({"init", "--json"}).json()["time_zone"] == "Europe/Vienna");
   // The same zone again is no change at all.
   run_ok(box, {"init", "--tz", "Europe/Vienna"});
-  CHECK(cw::test::table_row_counts(box.db()) == after);
+  CHECK(cw::test::table_row_counts(box) == after);
 }
 
 TEST_CASE("e2e guards: reading commands may look into the future, events may not", "[e2e]") {

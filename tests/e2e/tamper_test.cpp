@@ -1,7 +1,8 @@
 // SPDX-License-Identifier: Apache-2.0
 // End-to-end tamper tests: the append-only triggers refuse changes made with plain SQL, and
 // once they are dropped, 'curvewarden audit verify' finds every edited, deleted or forged row
-// and names the first entry that no longer holds (exit 5).
+// and names the first entry that no longer holds (exit 5). The edits are SQLite's SQL on the
+// store file: [sqlite-only].
 #include <catch2/catch.hpp>
 #include <string>
 #include <vector>
@@ -48,7 +49,8 @@ void drop_all_triggers(const Sandbox& box) {
 
 }  // namespace
 
-TEST_CASE("e2e tamper: the triggers refuse UPDATE and DELETE on facts and on the trail", "[e2e]") {
+TEST_CASE("e2e tamper: the triggers refuse UPDATE and DELETE on facts and on the trail",
+          "[e2e][sqlite-only]") {
   Sandbox box;
   populate(box);
   const auto counts = cw::test::table_row_counts(box.db());
@@ -89,7 +91,8 @@ TEST_CASE("e2e tamper: the triggers refuse UPDATE and DELETE on facts and on the
   CHECK(verify.json()["ok"] == true);
 }
 
-TEST_CASE("e2e tamper: audit verify names the first entry that no longer holds", "[e2e]") {
+TEST_CASE("e2e tamper: audit verify names the first entry that no longer holds",
+          "[e2e][sqlite-only]") {
   struct Tamper {
     const char* name;
     std::string sql;
@@ -164,7 +167,8 @@ TEST_CASE("e2e tamper: audit verify names the first entry that no longer holds",
   }
 }
 
-TEST_CASE("e2e tamper: a trail cut short with its rows is found only by the head hash", "[e2e]") {
+TEST_CASE("e2e tamper: a trail cut short with its rows is found only by the head hash",
+          "[e2e][sqlite-only]") {
   // Removing the last entry together with every row it wrote leaves a chain that holds: the
   // head hash recorded outside the store (as 'audit verify' advises) is what shows the cut.
   Sandbox box;

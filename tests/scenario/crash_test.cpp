@@ -4,7 +4,7 @@
 // SQLite's integrity check and `audit verify`, and the calibration or run is there whole or not
 // at all. A power cut is simulated too: the store file and its -wal are copied while a write is
 // under way (what a disk holds when the power goes), and the copy is opened and checked the same
-// way.
+// way. It is about the SQLite file and its WAL: [sqlite-only].
 #include <fcntl.h>
 #include <signal.h>
 #include <sys/wait.h>
@@ -138,7 +138,7 @@ void kill_trials(const Lab& lab, const std::filesystem::path& base, const std::s
 }  // namespace
 
 TEST_CASE("crash: curve log killed at random moments leaves the calibration whole or absent",
-          "[scenario][crash]") {
+          "[scenario][crash][sqlite-only]") {
   Lab lab;
   lab.add_instrument("IC-01");
   lab.add_lot("CRM-A", "2026-12-31");
@@ -176,7 +176,7 @@ TEST_CASE("crash: curve log killed at random moments leaves the calibration whol
 }
 
 TEST_CASE("crash: run import killed at random moments leaves the run whole or absent",
-          "[scenario][crash]") {
+          "[scenario][crash][sqlite-only]") {
   RunLab rl;
   std::string csv = kRunHeader;
   long rows = 0;

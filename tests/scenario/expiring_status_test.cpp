@@ -110,7 +110,7 @@ TEST_CASE("expiring: the window query uses the index curves_by_expiry", "[scenar
   lab.add_method(MethodSpec{});
   log_m1(lab, "ANION-IC", "IC-01", "2026-03-02T09:00:00Z");
   cw::store::OpenOptions options;
-  options.location = lab.box.db().string();
+  options.location = lab.box.location();
   auto store = cw::store::Store::open(options);
   // The very statement the repository executes for 'expiring'.
   const std::string plan =

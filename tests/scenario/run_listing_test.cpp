@@ -157,7 +157,7 @@ TEST_CASE("runs: the statements of re-import checks, run rows and status events 
           "[scenario][run]") {
   RunLab rl;
   cw::store::OpenOptions options;
-  options.location = rl.lab.box.db().string();
+  options.location = rl.lab.box.location();
   auto store = cw::store::Store::open(options);
   namespace sql = cw::store::sqlite::sql;
   const auto plan = [&](const char* statement) {

@@ -114,11 +114,11 @@ Json Lab::show_curve(std::int64_t id, const std::string& at) const {
 }
 
 std::map<std::string, std::int64_t> Lab::counts() const {
-  return cw::test::table_row_counts(box.db());
+  return cw::test::table_row_counts(box);
 }
 
 std::string Lab::sql(const std::string& query) const {
-  return cw::test::query_text(box.db(), query);
+  return cw::test::query_text(box, query);
 }
 
 std::vector<std::string> sorted_reasons(const Json& reasons) {

@@ -5,8 +5,8 @@
 // Overview. A `Lab` owns one cw::test::Sandbox (temporary directory, pinned environment) and
 // runs the real binary. Its helpers register instruments, methods and lots and log
 // calibrations, each REQUIREing the exit code it expects, so a scenario reads as the lab's
-// day. Store checks go through the harness's SQLite helpers (table_row_counts, query_text),
-// never through the tool's own store layer.
+// day. Store checks go through the harness's backend-neutral helpers (table_row_counts,
+// query_text on the sandbox: SQLite's C API or libpq), never through the tool's own store layer.
 #pragma once
 
 #include <cstdint>

@@ -202,17 +202,18 @@ TEST_CASE("users: the first admin is registered by init, and every entry records
   CHECK(init.json().at("admin_registered").at("name") == "Noor Haddad");
   CHECK(init.json().at("admin_registered").at("role") == "admin");
   // One entry holds the lab's settings and its first admin.
-  CHECK(cw::test::query_text(box.db(), "SELECT count(*) || action || actor FROM audit_log") ==
-        "1lab.inithead.of.lab");
-  CHECK(cw::test::query_text(box.db(), "SELECT count(*) FROM users") == "1");
+  CHECK(cw::test::query_text(box, "SELECT count(*) FROM audit_log") == "1");
+  CHECK(cw::test::query_text(box, "SELECT action || ' ' || actor FROM audit_log") ==
+        "lab.init head.of.lab");
+  CHECK(cw::test::query_text(box, "SELECT count(*) FROM users") == "1");
   // The operating-system login is recorded (never empty).
-  CHECK_FALSE(cw::test::query_text(box.db(), "SELECT os_login FROM audit_log").empty());
+  CHECK_FALSE(cw::test::query_text(box, "SELECT os_login FROM audit_log").empty());
 
   // Again: idempotent, no second admin; --admin naming someone else is refused.
   CHECK(box.run({"init"}).exit_code == 0);
   const auto other = box.run({"init", "--admin", "someone", "--name", "Someone Else"});
   CHECK(other.exit_code == 2);
-  CHECK(cw::test::query_text(box.db(), "SELECT count(*) FROM users") == "1");
+  CHECK(cw::test::query_text(box, "SELECT count(*) FROM users") == "1");
   // An unregistered login may not re-run init on an initialised store.
   const auto stranger = box.run({"init"}, {{"CURVEWARDEN_USER", "stranger"}});
   CHECK(stranger.exit_code == 2);

@@ -9,6 +9,7 @@
 #include "core/error.h"
 #include "store/postgresql/open.h"
 #include "store/sqlite/audit_repository.h"
+#include "store/sqlite/copy.h"
 #include "store/sqlite/curve_repository.h"
 #include "store/sqlite/registry_repository.h"
 #include "store/sqlite/run_repository.h"
@@ -23,7 +24,8 @@ class SqliteReadUnit final : public ReadUnit {
         registry_(db, nullptr),
         curves_(db, nullptr, nullptr),
         runs_(db, nullptr),
-        audit_(db) {
+        audit_(db),
+        rows_(db) {
     guarded(db_, [&] {
       db_.release_statements();
       db_.db->exec("BEGIN DEFERRED");
@@ -41,6 +43,7 @@ class SqliteReadUnit final : public ReadUnit {
   CurveReader& curves() override { return curves_; }
   RunReader& runs() override { return runs_; }
   AuditReader& audit() override { return audit_; }
+  TableRowReader& table_rows() override { return rows_; }
 
  private:
   Database& db_;
@@ -48,6 +51,7 @@ class SqliteReadUnit final : public ReadUnit {
   SqliteCurves curves_;
   SqliteRuns runs_;
   SqliteAudit audit_;
+  SqliteTableRows rows_;
 };
 
 class SqliteWriteUnit final : public WriteUnit {
@@ -58,7 +62,8 @@ class SqliteWriteUnit final : public WriteUnit {
         registry_(db, &state_),
         curves_(db, &state_, &actor_),
         runs_(db, &state_),
-        audit_(db) {
+        audit_(db),
+        rows_(db) {
     if (actor_.clock == nullptr) throw std::logic_error("a write unit needs a clock");
     guarded(db_, [&] {
       db_.release_statements();
@@ -81,6 +86,7 @@ class SqliteWriteUnit final : public WriteUnit {
   CurveReader& curves() override { return curves_; }
   RunReader& runs() override { return runs_; }
   AuditReader& audit() override { return audit_; }
+  TableRowReader& table_rows() override { return rows_; }
   RegistryWriter& registry_writer() override { return registry_; }
   CurveWriter& curve_writer() override { return curves_; }
   RunWriter& run_writer() override { return runs_; }
@@ -103,6 +109,7 @@ class SqliteWriteUnit final : public WriteUnit {
   SqliteCurves curves_;
   SqliteRuns runs_;
   SqliteAudit audit_;
+  SqliteTableRows rows_;
   bool open_ = false;
 };
 
@@ -112,7 +119,7 @@ std::unique_ptr<ReadUnit> SqliteStore::read() {
   return std::make_unique<SqliteReadUnit>(*db_);
 }
 
-std::unique_ptr<WriteUnit> SqliteStore::write(const Actor& actor) {
+void SqliteStore::require_guards() {
   if (const auto missing = missing_guards(); !missing.empty()) {
     std::string list;
     for (const auto& m : missing) list += (list.empty() ? "" : ", ") + m;
@@ -121,7 +128,16 @@ std::unique_ptr<WriteUnit> SqliteStore::write(const Actor& actor) {
                      "the store may have been edited behind the tool's back: run 'curvewarden "
                      "audit verify' and restore the store from a backup");
   }
+}
+
+std::unique_ptr<WriteUnit> SqliteStore::write(const Actor& actor) {
+  require_guards();
   return std::make_unique<SqliteWriteUnit>(*db_, actor);
+}
+
+std::unique_ptr<StoreLoader> SqliteStore::load() {
+  require_guards();
+  return std::make_unique<SqliteLoader>(*db_);
 }
 
 int SqliteStore::schema_version() {

@@ -22,10 +22,13 @@ class SqliteStore final : public Store {
   int schema_version() override;
   bool was_created() const override { return db_->created; }
   std::vector<std::string> missing_guards() override;
+  std::unique_ptr<StoreLoader> load() override;
 
   Database& database() { return *db_; }
 
  private:
+  /// Throws StoreError when the append-only guards are missing (nothing may be written).
+  void require_guards();
   std::unique_ptr<Database> db_;
 };
 

@@ -1,0 +1,99 @@
+// SPDX-License-Identifier: Apache-2.0
+// `store copy` over the store seam (store/copy.h): no SQL and no backend here.
+#include "app/store_copy.h"
+
+#include "core/error.h"
+#include "store/copy.h"
+#include "store/store.h"
+
+namespace cw::app {
+namespace {
+
+std::unique_ptr<store::Store> open_store(const std::string& location, bool create,
+                                         const std::string& os_login) {
+  store::OpenOptions o;
+  o.location = location;
+  o.create = create;
+  o.os_login = os_login;
+  return store::Store::open(o);
+}
+
+std::string joined(const std::vector<std::string>& names) {
+  std::string list;
+  for (const auto& n : names) list += (list.empty() ? "" : ", ") + n;
+  return list;
+}
+
+}  // namespace
+
+StoreCopyOutcome copy_store(const StoreCopyRequest& request) {
+  StoreCopyOutcome out;
+  out.from = request.from;
+  out.to = request.to;
+  auto source = open_store(request.from, false, request.os_login);
+  if (const auto missing = source->missing_guards(); !missing.empty()) {
+    throw StoreError("store '" + request.from + "' has lost its append-only guards (" +
+                         joined(missing) + "); nothing was copied",
+                     "run 'curvewarden audit verify' on it and restore it from a backup");
+  }
+  auto destination = open_store(request.to, true, request.os_login);
+  out.schema_version = source->schema_version();
+  if (destination->schema_version() != out.schema_version) {
+    throw StoreError("store '" + request.to + "' is at schema version " +
+                         std::to_string(destination->schema_version()) + ", store '" +
+                         request.from + "' at " + std::to_string(out.schema_version) +
+                         "; nothing was copied",
+                     "copy into a store made by the same version of curvewarden");
+  }
+
+  // One snapshot of the source: what is verified is what is copied.
+  auto reading = source->read();
+  const store::VerifyReport chain = reading->audit().verify();
+  if (!chain.ok) {
+    throw AuditBrokenError(
+        "store '" + request.from + "' does not verify: audit trail broken at entry " +
+            (chain.first_broken ? std::to_string(*chain.first_broken) : "?") + ": " +
+            chain.problem + "; nothing was copied",
+        "a copy would carry the damage: restore the store from a backup and compare");
+  }
+  out.entries = chain.entries;
+  out.source_head_hash = chain.head_hash;
+
+  auto loader = destination->load();
+  if (!loader->empty()) {
+    throw UsageError("store '" + request.to +
+                         "' already holds entries or facts; store copy writes only into an "
+                         "empty store, and nothing was copied",
+                     "give the path of a new file, or an empty database");
+  }
+  for (const store::CopyTable& table : store::copy_tables()) {
+    TableCount count{std::string(table.name), 0};
+    reading->table_rows().each_row(table, [&](const store::CopyRow& row) {
+      loader->append_row(table, row);
+      ++count.rows;
+    });
+    if (count.table != "audit_log") out.rows += count.rows;
+    out.tables.push_back(std::move(count));
+  }
+  loader->commit();
+  loader.reset();
+  reading.reset();
+
+  if (const auto missing = destination->missing_guards(); !missing.empty()) {
+    throw StoreError("the copy '" + request.to + "' has no append-only guards (" + joined(missing) +
+                     ")");
+  }
+  const store::VerifyReport copied = destination->read()->audit().verify();
+  out.destination_head_hash = copied.head_hash;
+  if (!copied.ok || copied.entries != chain.entries || copied.head_hash != chain.head_hash) {
+    throw StoreError(
+        "the copy '" + request.to + "' does not verify as the source does (" +
+            (copied.ok ? std::to_string(copied.entries) + " entries, head hash " + copied.head_hash
+                       : copied.problem) +
+            ")",
+        "report this: the copy's trail must be the source's");
+  }
+  return out;
+}
+
+}  // namespace cw::app
