@@ -24,34 +24,49 @@ std::string joined(const std::vector<std::string>& names) {
   return list;
 }
 
+/// Refuses (StoreError, exit 4) a store that is not at the latest migration this program knows
+/// for its backend. Opening applies pending migrations, so this fails only when a migration did
+/// not leave the store where it should be.
+void require_current(store::Store& s, const std::string& location) {
+  const int version = s.schema_version();
+  const int latest = s.latest_schema_version();
+  if (version != latest) {
+    throw StoreError("store '" + location + "' is at schema version " + std::to_string(version) +
+                         ", not at " + std::to_string(latest) +
+                         ", the latest this program knows for its backend; nothing was copied",
+                     "open it once with this version of curvewarden, then copy again");
+  }
+}
+
 }  // namespace
 
 StoreCopyOutcome copy_store(const StoreCopyRequest& request) {
   StoreCopyOutcome out;
-  out.from = request.from;
-  out.to = request.to;
+  // A URI's password never reaches a message or the outcome.
+  const std::string from = store::shown_location(request.from);
+  const std::string to = store::shown_location(request.to);
+  out.from = from;
+  out.to = to;
   auto source = open_store(request.from, false, request.os_login);
   if (const auto missing = source->missing_guards(); !missing.empty()) {
-    throw StoreError("store '" + request.from + "' has lost its append-only guards (" +
-                         joined(missing) + "); nothing was copied",
+    throw StoreError("store '" + from + "' has lost its append-only guards (" + joined(missing) +
+                         "); nothing was copied",
                      "run 'curvewarden audit verify' on it and restore it from a backup");
   }
   auto destination = open_store(request.to, true, request.os_login);
+  // Each backend numbers its own migrations, so the numbers of a SQLite and a PostgreSQL store
+  // never match; what a verbatim copy needs is that both hold the tables and columns of
+  // copy_tables(), which every store at its backend's latest migration does.
   out.schema_version = source->schema_version();
-  if (destination->schema_version() != out.schema_version) {
-    throw StoreError("store '" + request.to + "' is at schema version " +
-                         std::to_string(destination->schema_version()) + ", store '" +
-                         request.from + "' at " + std::to_string(out.schema_version) +
-                         "; nothing was copied",
-                     "copy into a store made by the same version of curvewarden");
-  }
+  require_current(*source, from);
+  require_current(*destination, to);
 
   // One snapshot of the source: what is verified is what is copied.
   auto reading = source->read();
   const store::VerifyReport chain = reading->audit().verify();
   if (!chain.ok) {
     throw AuditBrokenError(
-        "store '" + request.from + "' does not verify: audit trail broken at entry " +
+        "store '" + from + "' does not verify: audit trail broken at entry " +
             (chain.first_broken ? std::to_string(*chain.first_broken) : "?") + ": " +
             chain.problem + "; nothing was copied",
         "a copy would carry the damage: restore the store from a backup and compare");
@@ -61,7 +76,7 @@ StoreCopyOutcome copy_store(const StoreCopyRequest& request) {
 
   auto loader = destination->load();
   if (!loader->empty()) {
-    throw UsageError("store '" + request.to +
+    throw UsageError("store '" + to +
                          "' already holds entries or facts; store copy writes only into an "
                          "empty store, and nothing was copied",
                      "give the path of a new file, or an empty database");
@@ -80,14 +95,13 @@ StoreCopyOutcome copy_store(const StoreCopyRequest& request) {
   reading.reset();
 
   if (const auto missing = destination->missing_guards(); !missing.empty()) {
-    throw StoreError("the copy '" + request.to + "' has no append-only guards (" + joined(missing) +
-                     ")");
+    throw StoreError("the copy '" + to + "' has no append-only guards (" + joined(missing) + ")");
   }
   const store::VerifyReport copied = destination->read()->audit().verify();
   out.destination_head_hash = copied.head_hash;
   if (!copied.ok || copied.entries != chain.entries || copied.head_hash != chain.head_hash) {
     throw StoreError(
-        "the copy '" + request.to + "' does not verify as the source does (" +
+        "the copy '" + to + "' does not verify as the source does (" +
             (copied.ok ? std::to_string(copied.entries) + " entries, head hash " + copied.head_hash
                        : copied.problem) +
             ")",

@@ -416,7 +416,8 @@ const std::vector<CommandSpec>& command_table() {
       {"store copy",
        "Copy a whole store (every fact and the audit trail, verbatim) into an empty store, "
        "verifying the source first and the copy after: both have the same head hash",
-       {value("--from", "STORE", "The store to copy (a file path); it is only read", true),
+       {value("--from", "STORE",
+              "The store to copy (a file path or a postgresql:// URI); it is only read", true),
         value("--to", "STORE",
               "The destination: a new file (created with mode 0600, removed if the copy fails) "
               "or a store that holds nothing yet",

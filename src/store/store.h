@@ -97,8 +97,14 @@ class Store {
 
   /// The location as the user gave it (a path), for messages; a URI with its password masked.
   virtual const std::string& location() const = 0;
-  /// The number of the last migration applied.
+  /// The number of the last migration applied. Each backend numbers its own migrations (a
+  /// SQLite store is at 8 when a PostgreSQL store built by the same program is at 2): compare
+  /// numbers only between stores of one backend.
   virtual int schema_version() = 0;
+  /// The number of the last migration this program knows for the store's backend. A store whose
+  /// schema_version() equals it is current: every current store, on either backend, holds the
+  /// tables and columns of copy_tables() (the hashed row form of row_form.h).
+  virtual int latest_schema_version() const = 0;
   /// True when this open created the store.
   virtual bool was_created() const = 0;
   /// The append-only guards (triggers) that should exist and do not: a damaged store.

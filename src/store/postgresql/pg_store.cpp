@@ -7,10 +7,12 @@
 #include "core/error.h"
 #include "store/fact_table.h"
 #include "store/postgresql/audit_repository.h"
+#include "store/postgresql/copy.h"
 #include "store/postgresql/curve_repository.h"
 #include "store/postgresql/open.h"
 #include "store/postgresql/registry_repository.h"
 #include "store/postgresql/run_repository.h"
+#include "store/postgresql/sql_text.h"
 
 namespace cw::store::postgresql {
 namespace {
@@ -22,7 +24,8 @@ class PgReadUnit final : public ReadUnit {
         registry_(db, nullptr),
         curves_(db, nullptr, nullptr),
         runs_(db, nullptr),
-        audit_(db) {
+        audit_(db),
+        rows_(db) {
     guarded(db_, [&] { db_.begin_read(); });
   }
   ~PgReadUnit() override {
@@ -36,6 +39,7 @@ class PgReadUnit final : public ReadUnit {
   CurveReader& curves() override { return curves_; }
   RunReader& runs() override { return runs_; }
   AuditReader& audit() override { return audit_; }
+  TableRowReader& table_rows() override { return rows_; }
 
  private:
   Database& db_;
@@ -43,6 +47,7 @@ class PgReadUnit final : public ReadUnit {
   PgCurves curves_;
   PgRuns runs_;
   PgAudit audit_;
+  PgTableRows rows_;
 };
 
 class PgWriteUnit final : public WriteUnit {
@@ -53,7 +58,8 @@ class PgWriteUnit final : public WriteUnit {
         registry_(db, &state_),
         curves_(db, &state_, &actor_),
         runs_(db, &state_),
-        audit_(db) {
+        audit_(db),
+        rows_(db) {
     if (actor_.clock == nullptr) throw std::logic_error("a write unit needs a clock");
     guarded(db_, [&] {
       db_.begin_write();
@@ -74,6 +80,7 @@ class PgWriteUnit final : public WriteUnit {
   CurveReader& curves() override { return curves_; }
   RunReader& runs() override { return runs_; }
   AuditReader& audit() override { return audit_; }
+  TableRowReader& table_rows() override { return rows_; }
   RegistryWriter& registry_writer() override { return registry_; }
   CurveWriter& curve_writer() override { return curves_; }
   RunWriter& run_writer() override { return runs_; }
@@ -104,6 +111,7 @@ class PgWriteUnit final : public WriteUnit {
   PgCurves curves_;
   PgRuns runs_;
   PgAudit audit_;
+  PgTableRows rows_;
   bool open_ = false;
 };
 
@@ -113,7 +121,7 @@ std::unique_ptr<ReadUnit> PgStore::read() {
   return std::make_unique<PgReadUnit>(*db_);
 }
 
-std::unique_ptr<WriteUnit> PgStore::write(const Actor& actor) {
+void PgStore::require_guards() {
   if (const auto missing = missing_guards(); !missing.empty()) {
     std::string list;
     for (const auto& m : missing) list += (list.empty() ? "" : ", ") + m;
@@ -122,11 +130,25 @@ std::unique_ptr<WriteUnit> PgStore::write(const Actor& actor) {
                      "the store may have been edited behind the tool's back: run 'curvewarden "
                      "audit verify' and restore the store from a backup");
   }
+}
+
+std::unique_ptr<WriteUnit> PgStore::write(const Actor& actor) {
+  require_guards();
   return std::make_unique<PgWriteUnit>(*db_, actor);
+}
+
+std::unique_ptr<StoreLoader> PgStore::load() {
+  require_guards();
+  return std::make_unique<PgLoader>(*db_);
 }
 
 int PgStore::schema_version() {
   return guarded(*db_, [&] { return db_->schema_version(); });
+}
+
+int PgStore::latest_schema_version() const {
+  const auto& migrations = sql::migrations();
+  return migrations.empty() ? 0 : migrations.back().version;
 }
 
 std::vector<std::string> PgStore::missing_guards() {

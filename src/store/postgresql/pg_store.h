@@ -22,13 +22,19 @@ class PgStore final : public Store {
   /// The URI with its password masked.
   const std::string& location() const override { return db_->path; }
   int schema_version() override;
+  int latest_schema_version() const override;
   bool was_created() const override { return db_->created; }
   std::vector<std::string> missing_guards() override;
   std::string privilege_statements() override;
+  /// Takes the store's advisory write lock, as write() does.
+  std::unique_ptr<StoreLoader> load() override;
 
   Database& database() { return *db_; }
 
  private:
+  /// Refuses a write when the append-only guards are missing (StoreError, exit 4).
+  void require_guards();
+
   std::unique_ptr<Database> db_;
 };
 

@@ -144,6 +144,11 @@ int SqliteStore::schema_version() {
   return guarded(*db_, [&] { return db_->user_version(); });
 }
 
+int SqliteStore::latest_schema_version() const {
+  const auto migrations = embedded_migrations();
+  return migrations.empty() ? 0 : migrations.back().version;
+}
+
 std::vector<std::string> SqliteStore::missing_guards() {
   return guarded(*db_, [&] { return sqlite::missing_guards(*db_); });
 }

@@ -20,6 +20,7 @@ class SqliteStore final : public Store {
   std::unique_ptr<WriteUnit> write(const Actor& actor) override;
   const std::string& location() const override { return db_->path; }
   int schema_version() override;
+  int latest_schema_version() const override;
   bool was_created() const override { return db_->created; }
   std::vector<std::string> missing_guards() override;
   std::unique_ptr<StoreLoader> load() override;
