@@ -12,6 +12,7 @@
 #include <catch2/catch.hpp>
 #include <chrono>
 #include <cstdlib>
+#include <map>
 #include <pqxx/pqxx>
 #include <regex>
 #include <string>
@@ -574,4 +575,80 @@ TEST_CASE("postgresql: the migrated schema holds every column of the hashed row 
       CHECK(found);
     }
   }
+}
+
+TEST_CASE("postgresql: store copy moves a file store to PostgreSQL and back with the same head",
+          "[postgresql][store-copy]") {
+  TestDatabase db;
+  Sandbox box;
+  play_script(box, {});
+  const auto verify = [&](const std::string& location) {
+    const RunResult v = run_ok(box, {"--db", location, "audit", "verify", "--json"});
+    CHECK(v.json()["ok"] == true);
+    return v.json();
+  };
+  const auto source = verify(box.location());
+  const std::string head = source["head_hash"];
+
+  // SQLite -> PostgreSQL: the file's schema is at 8, the database's at 2; both are the latest
+  // this program knows for their backend.
+  const RunResult there =
+      run_ok(box, {"store", "copy", "--from", box.location(), "--to", db.uri(), "--json"});
+  CHECK(there.json()["source_head_hash"] == head);
+  CHECK(there.json()["destination_head_hash"] == head);
+  CHECK(there.json()["entries"] == source["entries"]);
+  CHECK(there.json()["schema_version"] == 8);
+  const auto middle = verify(db.uri());
+  CHECK(middle["head_hash"] == head);
+  CHECK(middle["entries"] == source["entries"]);
+  CHECK(db.sql("SELECT count(*) FROM audit_log") == source["entries"].dump());
+
+  // PostgreSQL -> SQLite.
+  const RunResult back =
+      run_ok(box, {"store", "copy", "--from", db.uri(), "--to", "back.db", "--json"});
+  CHECK(back.json()["source_head_hash"] == head);
+  CHECK(back.json()["destination_head_hash"] == head);
+  CHECK(back.json()["schema_version"] == 2);
+  CHECK(verify("back.db")["head_hash"] == head);
+  // Every row arrived as it was: the same counts table by table as the original file.
+  const auto tables = [](std::map<std::string, std::int64_t> counts) {
+    std::erase_if(counts, [](const auto& entry) { return entry.first.rfind("sqlite_", 0) == 0; });
+    return counts;
+  };
+  const auto original = tables(cw::test::table_row_counts(box));
+  CHECK(original.at("curves") > 0);
+  CHECK(tables(cw::test::table_row_counts(box.path("back.db"))) == original);
+
+  // What the commands read back is the same on all three stores.
+  for (const std::vector<std::string>& args :
+       {std::vector<std::string>{"curve", "show", "1", "--json"},
+        {"result", "list", "--json"},
+        {"lot", "list", "--json"},
+        {"instrument", "list", "--json"},
+        {"run", "show", "1", "--json"},
+        {"audit", "log", "--json"}}) {
+    INFO(args[0] << " " << args[1]);
+    const auto expected = run_ok(box, args).json();
+    CHECK(run_ok(box, args, on(db, box)).json() == expected);
+    CHECK(run_ok(box,
+                 [&] {
+                   auto a = args;
+                   a.insert(a.begin(), {"--db", "back.db"});
+                   return a;
+                 }())
+              .json() == expected);
+  }
+
+  // The PostgreSQL copy is a working store: its ids continue after the copied ones, and the
+  // chain still verifies after a new entry.
+  run_ok(box, {"instrument", "add", "LC-09"}, on(db, box));
+  CHECK(db.sql("SELECT max(id) FROM instruments") == "3");
+  CHECK(verify(db.uri())["entries"] == source["entries"].get<int>() + 1);
+
+  // Into a database that now holds facts: refused (exit 2), nothing written.
+  const RunResult again = box.run({"store", "copy", "--from", box.location(), "--to", db.uri()});
+  INFO(again.describe());
+  CHECK(again.exit_code == 2);
+  CHECK_THAT(again.err, Catch::Contains("already holds entries or facts"));
+  CHECK(verify(db.uri())["entries"] == source["entries"].get<int>() + 1);
 }
