@@ -429,6 +429,14 @@ int exec_sql(const Sandbox& box, const std::string& sql, std::string* error) {
   return pg::exec(box.location(), sql, error);
 }
 
+int latest_schema_version(const Sandbox& box) {
+  return box.backend() == Backend::Sqlite ? 8 : 2;
+}
+
+std::string text_join(const Sandbox& box) {
+  return box.backend() == Backend::Sqlite ? "group_concat" : "string_agg";
+}
+
 std::string query_text(const Sandbox& box, const std::string& sql) {
   if (box.backend() == Backend::Sqlite) return query_text(box.db(), sql);
   const auto rows = pg::query(box.location(), sql);

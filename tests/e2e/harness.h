@@ -170,6 +170,13 @@ std::map<std::string, std::int64_t> table_row_counts(const Sandbox& box);
 int exec_sql(const Sandbox& box, const std::string& sql, std::string* error = nullptr);
 /// The single value of a one-row, one-column query on the sandbox's store ("" for NULL).
 std::string query_text(const Sandbox& box, const std::string& sql);
+/// The schema version `init --json` reports for a current store of the sandbox's backend: each
+/// backend numbers its own migrations (SQLite 8, PostgreSQL 2).
+int latest_schema_version(const Sandbox& box);
+
+/// The aggregate that joins texts with a separator, `NAME(value, separator)`, in the SQL of the
+/// sandbox's backend: group_concat on SQLite, string_agg on PostgreSQL.
+std::string text_join(const Sandbox& box);
 
 /// The bytes of a file ("" when it does not exist).
 std::string read_file(const std::filesystem::path& path);

@@ -152,9 +152,9 @@ TEST_CASE("curve log: fits a two-analyte calibration with duplicates and an excl
       INFO("table " << table);
       CHECK(after.at(table) == n + added);
     }
-    CHECK(lab.sql("SELECT group_concat(action, ',') FROM (SELECT action FROM audit_log WHERE seq "
-                  "> " +
-                  seq_before + " ORDER BY seq)") == "calibration.log,curve.log,curve.log");
+    CHECK(lab.sql("SELECT " + cw::test::text_join(lab.box) +
+                  "(action, ',') FROM (SELECT action FROM audit_log WHERE seq > " + seq_before +
+                  " ORDER BY seq) AS t") == "calibration.log,curve.log,curve.log");
     CHECK(lab.sql("SELECT exclude_reason FROM curve_points WHERE excluded = 1") ==
           "injection error: air bubble in the loop");
     CHECK(lab.sql("SELECT count(*) FROM curves WHERE verdict = 'accepted'") == "2");

@@ -13,9 +13,9 @@ const std::string kLogged = "2026-03-02T09:00:00Z";
 
 std::string audit_actions_after(const Lab& lab, const std::string& seq) {
   return lab.sql(
-      "SELECT group_concat(actor || ':' || action, ',') FROM (SELECT actor, action FROM audit_log "
-      "WHERE seq > " +
-      seq + " ORDER BY seq)");
+      "SELECT " + cw::test::text_join(lab.box) +
+      "(actor || ':' || action, ',') FROM (SELECT actor, action FROM audit_log WHERE seq > " + seq +
+      " ORDER BY seq) AS t");
 }
 
 }  // namespace

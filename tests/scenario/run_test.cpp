@@ -278,9 +278,10 @@ TEST_CASE("run import: the audit trail holds every status event", "[scenario][ru
   const Json run = rl.import_json("events.csv", csv, 3);
   CHECK(run.at("status_events") == 3);
   CHECK(rl.lab.sql("SELECT count(*) FROM result_status_events") == "3");
-  CHECK(rl.lab.sql("SELECT group_concat(reason, ',') FROM (SELECT reason FROM "
-                   "result_status_events ORDER BY id)") ==
-        "samples-per-check,check-failed,no-closing-check");
+  CHECK(
+      rl.lab.sql("SELECT " + cw::test::text_join(rl.lab.box) +
+                 "(reason, ',') FROM (SELECT reason FROM result_status_events ORDER BY id) AS t") ==
+      "samples-per-check,check-failed,no-closing-check");
   // Each event is in the payload of an entry of its own, naming its result.
   CHECK(rl.lab.sql("SELECT count(*) FROM result_status_events e JOIN audit_log a "
                    "ON a.seq = e.audit_seq WHERE a.action = 'result.rerun-required' AND "
