@@ -85,7 +85,7 @@ class PgWriteUnit final : public WriteUnit {
       db_.run("COMMIT");
     } catch (const pqxx::broken_connection& e) {
       // The server may have committed before the connection went: say so, never "nothing".
-      std::string what = e.what();
+      std::string what = db_.scrubbed(e.what());
       what = what.substr(0, what.find('\n'));
       throw StoreError("the connection to the PostgreSQL store '" + db_.path +
                            "' was lost while committing: " + what,
