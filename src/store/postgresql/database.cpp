@@ -278,7 +278,15 @@ void with_retry(Database& d, Fn&& start) {
       start();
       return;
     } catch (const pqxx::failure& e) {
-      if (!transient(e) || Clock_::now() >= deadline) rethrow(e, d);
+      if (!transient(e) || Clock_::now() >= deadline) {
+        // No aborted transaction and no advisory lock is left behind on the connection.
+        try {
+          d.run("ROLLBACK");
+        } catch (const pqxx::failure&) {
+          // The connection is gone; the server rolls back.
+        }
+        rethrow(e, d);
+      }
       try {
         if (dynamic_cast<const pqxx::broken_connection*>(&e) != nullptr) {
           reconnect(d);

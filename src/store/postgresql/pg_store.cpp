@@ -55,11 +55,19 @@ class PgWriteUnit final : public WriteUnit {
         runs_(db, &state_),
         audit_(db) {
     if (actor_.clock == nullptr) throw std::logic_error("a write unit needs a clock");
-    guarded(db_, [&] {
-      db_.begin_write();
-      open_ = true;
-      audit_.start(state_);
-    });
+    guarded(db_, [&] { db_.begin_write(); });
+    try {
+      guarded(db_, [&] { audit_.start(state_); });
+    } catch (...) {
+      // The destructor of an object whose constructor throws never runs: release the lock here.
+      try {
+        db_.run("ROLLBACK");
+      } catch (...) {
+        // The server rolls back when the connection closes.
+      }
+      throw;
+    }
+    open_ = true;
   }
   ~PgWriteUnit() override {
     if (open_) {
