@@ -512,6 +512,9 @@ TEST_CASE("postgresql: with the grants init prints, the workstations' role only 
     pqxx::connection c(app_uri);
     for (const char* statement :
          {"UPDATE instruments SET name = 'x'", "DELETE FROM audit_log", "TRUNCATE lot_values",
+          "INSERT INTO schema_migrations (version, name, sha256, applied_at) "
+          "VALUES (99, 'x', 'x', 'x')",
+          "INSERT INTO curvewarden_store (application_id) VALUES (1)",
           "DROP TRIGGER instruments_no_update ON instruments",
           "ALTER TABLE audit_log DISABLE TRIGGER audit_log_no_update"}) {
       INFO(statement);
@@ -618,4 +621,41 @@ TEST_CASE("postgresql: a password shows nowhere, in text or JSON, whatever the U
       }
     }
   }
+}
+
+TEST_CASE("postgresql: every fact table, the trail and the migration record refuse change",
+          "[postgresql]") {
+  TestDatabase db;
+  Sandbox box;
+  play_script(box, on(db, box));
+  std::vector<std::string> tables = {"audit_log", "schema_migrations"};
+  for (cw::store::FactTable t : cw::store::kAllFactTables) {
+    tables.emplace_back(cw::store::table_name(t));
+  }
+  int with_rows = 0;
+  for (const auto& table : tables) {
+    const bool rows = db.sql("SELECT count(*) FROM " + table) != "0";
+    with_rows += rows ? 1 : 0;
+    const std::string column = db.sql(
+        "SELECT column_name FROM information_schema.columns WHERE table_schema = "
+        "current_schema() AND table_name = '" +
+        table + "' ORDER BY ordinal_position LIMIT 1");
+    std::vector<std::string> statements = {"TRUNCATE " + table + " CASCADE"};
+    if (rows) {
+      statements.push_back("UPDATE " + table + " SET " + column + " = " + column);
+      statements.push_back("DELETE FROM " + table);
+    }
+    for (const auto& statement : statements) {
+      INFO(statement);
+      try {
+        db.sql(statement);
+        FAIL("the statement was not refused");
+      } catch (const pqxx::sql_error& e) {
+        CHECK_THAT(std::string(e.what()), Catch::Contains("append-only"));
+      }
+    }
+  }
+  // The script fills most tables: the row triggers were reached, not skipped on empty tables.
+  CHECK(with_rows * 2 > static_cast<int>(tables.size()));
+  CHECK(run_ok(box, {"audit", "verify", "--json"}, on(db, box)).json()["ok"] == true);
 }

@@ -174,16 +174,16 @@ std::string quoted(const std::string& name) {
 }  // namespace
 
 std::string grants_for(const std::string& role, const std::string& schema) {
-  std::string tables;
-  for (const char* t : {"curvewarden_store", "schema_migrations", "audit_log"}) {
-    tables += (tables.empty() ? "" : ", ") + quoted(schema) + "." + t;
-  }
+  // The store's mark and the migration record are only read; entries and facts are appended.
+  const std::string read_only =
+      quoted(schema) + ".curvewarden_store, " + quoted(schema) + ".schema_migrations";
+  std::string appended = quoted(schema) + ".audit_log";
   for (FactTable t : kAllFactTables)
-    tables += ", " + quoted(schema) + "." + std::string(table_name(t));
+    appended += ", " + quoted(schema) + "." + std::string(table_name(t));
   const std::string r = quoted(role);
   return "GRANT USAGE ON SCHEMA " + quoted(schema) + " TO " + r + ";\n" + "REVOKE ALL ON TABLE " +
-         tables + " FROM " + r + ";\n" + "GRANT SELECT, INSERT ON TABLE " + tables + " TO " + r +
-         ";\n";
+         read_only + ", " + appended + " FROM " + r + ";\n" + "GRANT SELECT ON TABLE " + read_only +
+         " TO " + r + ";\n" + "GRANT SELECT, INSERT ON TABLE " + appended + " TO " + r + ";\n";
 }
 
 }  // namespace cw::store::postgresql
