@@ -495,6 +495,9 @@ TEST_CASE("postgresql: with the grants init prints, the workstations' role only 
     n.exec("DROP ROLE IF EXISTS " + role);
     n.exec("CREATE ROLE " + role + " LOGIN");
   }
+  // The role has a schema of its own, first on its search_path ("$user") and empty: the store is
+  // still found where its mark is.
+  db.sql("CREATE SCHEMA AUTHORIZATION " + role);
   db.sql(grants);
   const std::string app_uri = with_user(db.uri(), role);
   const cw::test::EnvOverrides app{{"CURVEWARDEN_DB", app_uri},
@@ -658,4 +661,29 @@ TEST_CASE("postgresql: every fact table, the trail and the migration record refu
   // The script fills most tables: the row triggers were reached, not skipped on empty tables.
   CHECK(with_rows * 2 > static_cast<int>(tables.size()));
   CHECK(run_ok(box, {"audit", "verify", "--json"}, on(db, box)).json()["ok"] == true);
+}
+
+TEST_CASE("postgresql: a guard on replica only or moved to another table counts as missing",
+          "[postgresql]") {
+  TestDatabase db;
+  Sandbox box;
+  run_ok(box, {"init", "--tz", "UTC"}, on(db, box));
+  // Fires only under session_replication_role = replica: not a guard.
+  db.sql("ALTER TABLE instruments ENABLE REPLICA TRIGGER instruments_no_update");
+  RunResult r = box.run({"instrument", "add", "IC-01"}, on(db, box));
+  INFO(r.describe());
+  CHECK(r.exit_code == 4);
+  CHECK_THAT(r.err, Catch::Contains("instruments_no_update"));
+  db.sql("ALTER TABLE instruments ENABLE TRIGGER instruments_no_update");
+  run_ok(box, {"instrument", "add", "IC-01"}, on(db, box));
+  // A trigger of the right name on the wrong table.
+  db.sql("DROP TRIGGER instruments_no_delete ON instruments");
+  db.sql(
+      "CREATE TRIGGER instruments_no_delete BEFORE DELETE ON lab_settings FOR EACH ROW "
+      "EXECUTE FUNCTION curvewarden_refuse_change()");
+  r = box.run({"instrument", "add", "IC-02"}, on(db, box));
+  INFO(r.describe());
+  CHECK(r.exit_code == 4);
+  CHECK_THAT(r.err, Catch::Contains("instruments_no_delete"));
+  CHECK(db.sql("SELECT count(*) FROM instruments") == "1");
 }

@@ -259,6 +259,22 @@ void configure(Database& d) {
   d.session->exec("SET client_encoding = 'UTF8'");
   d.session->exec("SET extra_float_digits = 3");
   d.session->exec("SET lock_timeout = " + std::to_string(std::max(1, d.busy_timeout_ms)));
+  // The store's schema, resolved once: where search_path finds its mark, else (a store still to
+  // create) the current schema. Every statement then names tables in it alone, whatever the
+  // role's own search_path ("$user" first) holds.
+  if (d.schema.empty()) {
+    const pqxx::result r = d.session->exec(
+        "SELECT coalesce((SELECT n.nspname FROM pg_class c JOIN pg_namespace n ON n.oid = "
+        "c.relnamespace WHERE c.oid = to_regclass('curvewarden_store')), current_schema())");
+    if (r[0][0].is_null()) {
+      throw StoreError("the PostgreSQL store '" + d.path +
+                           "' has no schema to use: the role's search_path names none that exists",
+                       "create a schema the role may use, or set its search_path; nothing was "
+                       "written");
+    }
+    d.schema = r[0][0].c_str();
+  }
+  d.session->exec("SET search_path = " + d.conn->quote_name(d.schema) + ", pg_catalog");
 }
 
 void reconnect(Database& d) {

@@ -97,6 +97,7 @@ class Statement {
 struct Database {
   std::string location;        ///< the URI as given (may hold a password; never shown)
   std::string path;            ///< the URI with its password masked: what messages show
+  std::string schema;          ///< the store's schema (the search_path of every session)
   std::string conninfo;        ///< the URI's settings with the tool's defaults, as libpq reads them
   bool timeout_given = false;  ///< the URI sets connect_timeout
   std::vector<std::string> secrets;                ///< the password as written and as decoded

@@ -142,10 +142,7 @@ std::vector<std::string> PgStore::missing_guards() {
 }
 
 std::string PgStore::privilege_statements() {
-  return guarded(*db_, [&] {
-    const pqxx::result r = db_->run("SELECT current_schema()");
-    return grants_for(kWorkstationRole, r[0][0].is_null() ? "public" : r[0][0].c_str());
-  });
+  return grants_for(kWorkstationRole, db_->schema);
 }
 
 bool is_uri(const std::string& location) {
