@@ -531,6 +531,17 @@ TEST_CASE("postgresql: with the grants init prints, the workstations' role only 
     }
   }
   CHECK(db.sql("SELECT count(*) FROM audit_log") == "3");
+  // A store that needs a migration: the workstations' role names the owner, not the grants.
+  db.sql(
+      "ALTER TABLE schema_migrations DISABLE TRIGGER schema_migrations_no_delete; "
+      "DELETE FROM schema_migrations WHERE version = 2; "
+      "ALTER TABLE schema_migrations ENABLE TRIGGER schema_migrations_no_delete");
+  const RunResult behind = box.run({"instrument", "list"}, app);
+  INFO(behind.describe());
+  CHECK(behind.exit_code == 4);
+  CHECK_THAT(behind.err, Catch::Contains("needs migration 2"));
+  CHECK_THAT(behind.err, Catch::Contains("as the owner role"));
+  CHECK(db.sql("SELECT count(*) FROM schema_migrations") == "1");
   db.sql("REASSIGN OWNED BY " + role + " TO CURRENT_USER; DROP OWNED BY " + role);
   pqxx::connection c(db.admin());
   pqxx::nontransaction n(c);

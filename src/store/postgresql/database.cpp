@@ -677,6 +677,24 @@ std::unique_ptr<Database> Database::open(const std::string& location, bool creat
     const int latest = migrations.empty() ? 0 : migrations.back().version;
     const int current = id.marked ? d->schema_version() : 0;
     if (current > latest) too_new(*d, current, latest);
+    if (current < latest && id.marked) {
+      // A role that may not create in the schema (the workstations' role) cannot migrate: say
+      // who can, rather than advising grants.
+      const pqxx::result may = d->run("SELECT has_schema_privilege(current_schema(), 'CREATE')");
+      if (!may[0][0].as<bool>()) {
+        int next = latest;
+        for (const auto& m : migrations) {
+          if (m.version > current) {
+            next = m.version;
+            break;
+          }
+        }
+        throw StoreError(
+            "the store '" + d->path + "' needs migration " + std::to_string(next) +
+                ": run `curvewarden init` (or any command) as the owner role",
+            "the connected role may not create in schema '" + d->schema + "'; nothing was written");
+      }
+    }
     if (current < latest) {
       // CURVEWARDEN_NOW replaces "now" everywhere (product.md §3), applied_at included.
       const auto clock = clock_from_environment();
