@@ -39,7 +39,7 @@ Session Session::open(const SessionSpec& spec) {
         zone = LabZone::named(settings->time_zone);
       } catch (const ValidationError&) {
         throw StoreError("the lab's time zone '" + settings->time_zone + "' in store '" +
-                             spec.location + "' is not known on this machine",
+                             store->location() + "' is not known on this machine",
                          "install the time-zone data (Debian package tzdata), or restore the "
                          "store from a backup if the zone name is damaged");
       }

@@ -89,16 +89,18 @@ std::vector<FactTable> tables_by_name() {
 }  // namespace
 
 std::vector<std::string> missing_guards(Database& db) {
-  std::set<std::string> present;
+  // A guard counts only enabled (always or on origin) and on its own table.
+  std::set<std::pair<std::string, std::string>> present;
   auto& s = db.statement(sql::kTriggerNames);
-  while (s.executeStep()) present.insert(s.getColumn(0).getString());
+  s.bind(":schema", db.schema);
+  while (s.executeStep()) present.emplace(s.getColumn(0).getString(), s.getColumn(1).getString());
   s.reset();
   std::vector<std::string> tables{"audit_log", "schema_migrations"};
   for (FactTable t : kAllFactTables) tables.emplace_back(table_name(t));
   std::vector<std::string> missing;
   for (const auto& t : tables) {
     for (const char* what : {"_no_update", "_no_delete", "_no_truncate"}) {
-      if (!present.count(t + what)) missing.push_back(t + what);
+      if (!present.count({t, t + what})) missing.push_back(t + what);
     }
   }
   return missing;

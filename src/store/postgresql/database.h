@@ -12,6 +12,7 @@
 
 #include <pqxx/pqxx>
 
+#include <chrono>
 #include <cstdint>
 #include <map>
 #include <memory>
@@ -94,8 +95,13 @@ class Statement {
 };
 
 struct Database {
-  std::string location;  ///< the URI as given (may hold a password; never shown)
-  std::string path;      ///< the URI with its password masked: what messages show
+  std::string location;        ///< the URI as given (may hold a password; never shown)
+  std::string path;            ///< the URI with its password masked: what messages show
+  std::string schema;          ///< the store's schema (the search_path of every session)
+  std::string conninfo;        ///< the URI's settings with the tool's defaults, as libpq reads them
+  bool timeout_given = false;  ///< the URI sets connect_timeout
+  std::vector<std::string> secrets;                ///< the password as written and as decoded
+  std::chrono::steady_clock::time_point deadline;  ///< connecting gives up after it
   std::unique_ptr<pqxx::connection> conn;
   std::unique_ptr<pqxx::nontransaction> session;
   bool created = false;
@@ -112,6 +118,10 @@ struct Database {
   /// migrations.
   static std::unique_ptr<Database> open(const std::string& location, bool create,
                                         int busy_timeout_ms, const std::string& os_login);
+
+  /// `text` with the password, in any form the URI holds it, replaced by "***": every message
+  /// that leaves the backend goes through it (libpq's own texts may echo the URI).
+  std::string scrubbed(std::string text) const;
 
   /// Runs SQL without parameters (BEGIN, COMMIT, migrations).
   pqxx::result run(const std::string& sql);

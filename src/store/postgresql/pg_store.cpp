@@ -61,11 +61,19 @@ class PgWriteUnit final : public WriteUnit {
         audit_(db),
         rows_(db) {
     if (actor_.clock == nullptr) throw std::logic_error("a write unit needs a clock");
-    guarded(db_, [&] {
-      db_.begin_write();
-      open_ = true;
-      audit_.start(state_);
-    });
+    guarded(db_, [&] { db_.begin_write(); });
+    try {
+      guarded(db_, [&] { audit_.start(state_); });
+    } catch (...) {
+      // The destructor of an object whose constructor throws never runs: release the lock here.
+      try {
+        db_.run("ROLLBACK");
+      } catch (...) {
+        // The server rolls back when the connection closes.
+      }
+      throw;
+    }
+    open_ = true;
   }
   ~PgWriteUnit() override {
     if (open_) {
@@ -92,7 +100,7 @@ class PgWriteUnit final : public WriteUnit {
       db_.run("COMMIT");
     } catch (const pqxx::broken_connection& e) {
       // The server may have committed before the connection went: say so, never "nothing".
-      std::string what = e.what();
+      std::string what = db_.scrubbed(e.what());
       what = what.substr(0, what.find('\n'));
       throw StoreError("the connection to the PostgreSQL store '" + db_.path +
                            "' was lost while committing: " + what,
@@ -156,10 +164,7 @@ std::vector<std::string> PgStore::missing_guards() {
 }
 
 std::string PgStore::privilege_statements() {
-  return guarded(*db_, [&] {
-    const pqxx::result r = db_->run("SELECT current_schema()");
-    return grants_for(kWorkstationRole, r[0][0].is_null() ? "public" : r[0][0].c_str());
-  });
+  return grants_for(kWorkstationRole, db_->schema);
 }
 
 bool is_uri(const std::string& location) {
@@ -188,16 +193,16 @@ std::string quoted(const std::string& name) {
 }  // namespace
 
 std::string grants_for(const std::string& role, const std::string& schema) {
-  std::string tables;
-  for (const char* t : {"curvewarden_store", "schema_migrations", "audit_log"}) {
-    tables += (tables.empty() ? "" : ", ") + quoted(schema) + "." + t;
-  }
+  // The store's mark and the migration record are only read; entries and facts are appended.
+  const std::string read_only =
+      quoted(schema) + ".curvewarden_store, " + quoted(schema) + ".schema_migrations";
+  std::string appended = quoted(schema) + ".audit_log";
   for (FactTable t : kAllFactTables)
-    tables += ", " + quoted(schema) + "." + std::string(table_name(t));
+    appended += ", " + quoted(schema) + "." + std::string(table_name(t));
   const std::string r = quoted(role);
   return "GRANT USAGE ON SCHEMA " + quoted(schema) + " TO " + r + ";\n" + "REVOKE ALL ON TABLE " +
-         tables + " FROM " + r + ";\n" + "GRANT SELECT, INSERT ON TABLE " + tables + " TO " + r +
-         ";\n";
+         read_only + ", " + appended + " FROM " + r + ";\n" + "GRANT SELECT ON TABLE " + read_only +
+         " TO " + r + ";\n" + "GRANT SELECT, INSERT ON TABLE " + appended + " TO " + r + ";\n";
 }
 
 }  // namespace cw::store::postgresql

@@ -450,8 +450,8 @@ inline constexpr const char* kInsertAudit =
     "VALUES (:seq, :recorded_at, :occurred_at, :actor, :action, :entity_kind, :entity_id, "
     ":reason, :clock_overridden, :tool_version, :payload, :prev_hash, :hash, :os_login)";
 inline constexpr const char* kTriggerNames =
-    "SELECT t.tgname FROM pg_trigger t JOIN pg_class c ON c.oid = t.tgrelid "
+    "SELECT c.relname, t.tgname FROM pg_trigger t JOIN pg_class c ON c.oid = t.tgrelid "
     "JOIN pg_namespace n ON n.oid = c.relnamespace "
-    "WHERE n.nspname = current_schema() AND NOT t.tgisinternal AND t.tgenabled <> 'D'";
+    "WHERE n.nspname = :schema AND NOT t.tgisinternal AND t.tgenabled IN ('O', 'A')";
 
 }  // namespace cw::store::postgresql::sql
