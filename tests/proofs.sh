@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
-# The proofs that need builds of their own, after tests/run.sh: the suites under AddressSanitizer
-# and UndefinedBehaviorSanitizer (build-asan/), then the libFuzzer targets, each run for a bounded
-# time from its seed corpus (build-fuzz/, clang). Not yet part of CI: see DEVELOPERS.md.
+# Longer proofs than CI runs, after tests/run.sh: every suite, the end-to-end one included, under
+# AddressSanitizer and UndefinedBehaviorSanitizer (build-asan/; tests/run.sh runs only the unit and
+# scenario suites there), then the libFuzzer targets, each run for a bounded time from a random
+# seed (build-fuzz/, clang).
 # Usage: tests/proofs.sh
 #        CURVEWARDEN_FUZZ_SECONDS=N   seconds per fuzz target (default 60)
 set -euo pipefail
@@ -21,8 +22,8 @@ cmake -S "$root" -B "$asan" -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCURVEWARDEN_WERR
 cmake --build "$asan" -j "$jobs"
 # The crash trials and the 100 000-row run measure the product, not the sanitizers: they run in
 # the main suite above.
-(cd "$asan" && ASAN_OPTIONS=detect_leaks=1 UBSAN_OPTIONS=halt_on_error=1:print_stacktrace=1 \
-  ctest --output-on-failure -j "$jobs" -E 'crash:|100 000 rows')
+(cd "$asan" && ASAN_OPTIONS=detect_leaks=1 LSAN_OPTIONS="suppressions=$root/tests/sanitizers/lsan.supp" \
+  UBSAN_OPTIONS=halt_on_error=1:print_stacktrace=1 ctest --output-on-failure -j "$jobs" -E 'crash:|100 000 rows')
 
 echo "== fuzzing the parsers (libFuzzer, ASan + UBSan)"
 fuzz="$build-fuzz"

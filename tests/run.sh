@@ -1,8 +1,9 @@
 #!/usr/bin/env bash
 # Installs missing packages, builds with warnings as errors and runs every test through ctest
-# (the crash trials and the concurrency test among them). The proofs that need builds of their
-# own: the parsers fuzzed for a fixed number of runs (below); the whole suite under the
-# sanitizers and longer fuzzing are in tests/proofs.sh.
+# (the crash trials and the concurrency test among them). Then the proofs that need builds of
+# their own: the parsers fuzzed for a fixed number of runs, and the unit and scenario suites
+# again under AddressSanitizer and UndefinedBehaviorSanitizer. tests/proofs.sh adds the
+# end-to-end suite under the sanitizers and longer fuzzing.
 # A throwaway PostgreSQL server (tests/pg/cluster.sh) runs for the duration of ctest; its URI is
 # exported as CURVEWARDEN_TEST_PG for the tests that run against PostgreSQL. When it cannot start
 # the run fails: those tests are never skipped silently.
@@ -48,3 +49,19 @@ for t in "${targets[@]}"; do
   grep -E '^Done' "$work.log" || true
   rm -rf "$work" "$work.log"
 done
+
+# The unit and scenario suites once more, built with AddressSanitizer and UndefinedBehaviorSanitizer
+# (build-asan/, CURVEWARDEN_SANITIZE); the scenario tests run the sanitized binary. Left out: the
+# crash trials and the 100 000-row run (they measure the product, not memory errors: the main
+# suite above runs them) and the end-to-end suite (label e2e; tests/proofs.sh runs it).
+echo "== the unit and scenario suites under ASan + UBSan (build-asan/)"
+asan="$build-asan"
+cmake -S "$root" -B "$asan" -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCURVEWARDEN_WERROR=ON \
+  -DCURVEWARDEN_BUILD_TESTS=ON -DCURVEWARDEN_SANITIZE=ON "${launcher[@]}" >/dev/null
+unit_targets=(cli_tests core_tests domain_tests fitting_tests import_tests plot_tests rules_tests
+  store_tests)
+cmake --build "$asan" -j "$jobs" --target curvewarden scenario_tests "${unit_targets[@]}"
+(cd "$asan" && ASAN_OPTIONS=detect_leaks=1:abort_on_error=0 \
+  LSAN_OPTIONS="suppressions=$root/tests/sanitizers/lsan.supp" \
+  UBSAN_OPTIONS=halt_on_error=1:print_stacktrace=1 \
+  ctest --output-on-failure -j "$jobs" -LE e2e -E 'NOT_BUILT|crash:|100 000 rows')

@@ -279,9 +279,11 @@ class CurvePlotDrawing {
     if (xs.empty()) xs = {0, 1};
     if (ys.empty()) ys = {0, 1};
     const auto with_origin = [](std::vector<double>& v) {
-      const auto [lo, hi] = std::minmax_element(v.begin(), v.end());
-      if (*lo >= 0 && *lo < 0.4 * *hi) v.push_back(0);
-      if (*hi <= 0 && *hi > 0.4 * *lo) v.push_back(0);
+      // Copied, not referenced: the push_back below may move the vector's storage.
+      const auto [lo_at, hi_at] = std::minmax_element(v.begin(), v.end());
+      const double lo = *lo_at;
+      const double hi = *hi_at;
+      if ((lo >= 0 && lo < 0.4 * hi) || (hi <= 0 && hi > 0.4 * lo)) v.push_back(0);
     };
     with_origin(xs);
     with_origin(ys);

@@ -1,13 +1,16 @@
 // SPDX-License-Identifier: Apache-2.0
 // File hygiene: a new store and its -wal and -shm files are private (0600), or shared with one
 // group (0660) with init --group; a store path that is a symbolic link is refused unless
-// --follow-symlink. All of it is about the store file: [sqlite-only].
+// --follow-symlink; a store this user cannot write is read without leaving side files behind and
+// refuses writes with one clear error. All of it is about the store file: [sqlite-only].
 #include <grp.h>
 #include <sys/stat.h>
 #include <unistd.h>
 
 #include <catch2/catch.hpp>
 #include <filesystem>
+#include <string>
+#include <vector>
 
 #include "harness.h"
 
@@ -91,4 +94,82 @@ TEST_CASE("e2e files: an init that fails on a new store leaves no file behind",
   INFO(r.describe());
   CHECK(r.exit_code == 0);
   CHECK(fs::exists(box.db()));
+}
+
+namespace {
+
+/// Runs the binary as a user who does not own the sandbox's store: as root (whom file modes do
+/// not stop) through `runuser -u nobody` with a copy of the binary the other user can execute;
+/// otherwise as this user, whom the modes set by the caller do stop.
+RunResult run_as_other_user(const Sandbox& box, const std::vector<std::string>& args) {
+  if (::geteuid() != 0) return box.run(args);
+  const fs::path binary = box.path("curvewarden-copy");
+  if (!fs::exists(binary)) {
+    fs::copy_file(cw::test::binary_path(), binary);
+    fs::permissions(binary, fs::perms::owner_all | fs::perms::group_read | fs::perms::group_exec |
+                                fs::perms::others_read | fs::perms::others_exec);
+  }
+  fs::path runuser;
+  for (const char* p : {"/usr/sbin/runuser", "/sbin/runuser", "/usr/bin/runuser"}) {
+    if (fs::exists(p)) runuser = p;
+  }
+  REQUIRE_FALSE(runuser.empty());  // util-linux, essential on Debian
+  std::vector<std::string> full = {"-u", "nobody", "--", binary.string()};
+  full.insert(full.end(), args.begin(), args.end());
+  RunResult r = cw::test::run_process(runuser, full, box.environment(), box.dir());
+  r.args = args;
+  return r;
+}
+
+void expect_read_only_store_behaves(const Sandbox& box, const std::string& before) {
+  // Reading works and leaves no side file behind.
+  RunResult r = run_as_other_user(box, {"status"});
+  INFO(r.describe());
+  CHECK(r.exit_code == 0);
+  CHECK_THAT(r.out, Catch::Contains("IC-01"));
+  r = run_as_other_user(box, {"audit", "verify"});
+  INFO(r.describe());
+  CHECK(r.exit_code == 0);
+  // A write is one clear refusal (exit 4) naming the cause; nothing is written.
+  r = run_as_other_user(box, {"instrument", "add", "IC-02", "--name", "Second"});
+  INFO(r.describe());
+  CHECK(r.exit_code == 4);
+  CHECK_THAT(r.err, Catch::Contains("is read-only for this user: nothing was written"));
+  CHECK_THAT(r.err, !Catch::Contains("SQLite code"));
+  CHECK_FALSE(fs::exists(box.db().string() + "-wal"));
+  CHECK_FALSE(fs::exists(box.db().string() + "-shm"));
+  CHECK(cw::test::read_file(box.db()) == before);
+}
+
+}  // namespace
+
+TEST_CASE("e2e files: a store this user cannot write is read, refuses writes, leaves no files",
+          "[e2e][sqlite-only]") {
+  Sandbox box;
+  REQUIRE(box.run({"init", "--tz", "UTC"}).exit_code == 0);
+  REQUIRE(box.run({"instrument", "add", "IC-01", "--name", "First"}).exit_code == 0);
+  // The owner's last command has checkpointed and removed the -wal and -shm files.
+  REQUIRE_FALSE(fs::exists(box.db().string() + "-wal"));
+  const std::string before = cw::test::read_file(box.db());
+  const auto read_all = fs::perms::owner_read | fs::perms::group_read | fs::perms::others_read;
+  const auto folder_open = fs::perms::owner_all | fs::perms::group_read | fs::perms::group_exec |
+                           fs::perms::others_read | fs::perms::others_exec;
+
+  SECTION("the file is read-only, its folder writable") {
+    fs::permissions(box.db(), read_all);
+    fs::permissions(box.dir(), folder_open | fs::perms::group_write | fs::perms::others_write);
+    expect_read_only_store_behaves(box, before);
+  }
+  SECTION("the file and its folder are read-only") {
+    fs::permissions(box.db(), read_all);
+    fs::permissions(box.dir(), folder_open & ~fs::perms::owner_write);
+    expect_read_only_store_behaves(box, before);
+  }
+  fs::permissions(box.dir(), fs::perms::owner_all);
+  fs::permissions(box.db(), fs::perms::owner_read | fs::perms::owner_write);
+  // The owner still writes it as before.
+  const RunResult r = box.run({"instrument", "add", "IC-03", "--name", "Third"});
+  INFO(r.describe());
+  CHECK(r.exit_code == 0);
+  CHECK(box.run({"audit", "verify"}).exit_code == 0);
 }

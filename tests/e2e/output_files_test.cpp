@@ -174,7 +174,8 @@ TEST_CASE("e2e output files: report curve writes a PDF a reviewer can sign", "[e
       // Every calibrator's response, as the points file gave it (echoed in shortest form).
       const RunResult shown = box.run({"curve", "show", "1", "--json"});
       REQUIRE(shown.exit_code == 0);
-      for (const auto& p : shown.json()["points"]) {
+      const nlohmann::json shown_json = shown.json();  // kept alive for the loop
+      for (const auto& p : shown_json["points"]) {
         CHECK_THAT(text, Catch::Contains(cw::format_shortest(p["response"].get<double>())));
       }
       // The head of the trail printed is the one `audit verify` recomputes.

@@ -4,6 +4,7 @@
 
 #include <sqlite3.h>
 #include <sys/stat.h>
+#include <unistd.h>
 
 #include <filesystem>
 
@@ -60,6 +61,38 @@ void migrate(Database& d, const std::vector<MigrationSpec>& migrations, const Cl
     tx.commit();
     d.created = d.created || current == 0;
   }
+}
+
+bool exists(const std::string& path) {
+  struct stat st {};
+  return ::stat(path.c_str(), &st) == 0;
+}
+
+/// True when this process cannot change the store at `path` (an existing file): the file is not
+/// writable for it (permissions, a read-only file system), or the folder cannot take the -wal
+/// and -shm files SQLite writes beside it and they are not there.
+bool cannot_write(const std::string& path) {
+  if (::access(path.c_str(), W_OK) != 0) return true;
+  if (exists(path + "-wal") && exists(path + "-shm")) return false;
+  const std::filesystem::path folder = std::filesystem::path(path).parent_path();
+  return ::access(folder.empty() ? "." : folder.c_str(), W_OK) != 0;
+}
+
+/// An SQLite URI naming the file at `path` read-only and immutable (no locks, no side files).
+std::string immutable_uri(const std::string& path) {
+  std::string uri = "file:";
+  for (const char c : path) {
+    if (c == '%' || c == '?' || c == '#') {
+      static constexpr char kHex[] = "0123456789ABCDEF";
+      const auto byte = static_cast<unsigned char>(c);
+      uri += '%';
+      uri += kHex[byte >> 4];
+      uri += kHex[byte & 0xF];
+    } else {
+      uri += c;
+    }
+  }
+  return uri + "?immutable=1";
 }
 
 }  // namespace
@@ -121,9 +154,17 @@ std::unique_ptr<Database> Database::open(const std::string& path, bool create, i
                        "point --db / CURVEWARDEN_DB at the store file");
     }
   }
+  d->read_only = !memory && exists(path) && cannot_write(path);
   try {
-    const int flags = SQLite::OPEN_READWRITE | (create ? SQLite::OPEN_CREATE : 0);
-    d->db = std::make_unique<SQLite::Database>(path, flags, busy_timeout_ms);
+    if (!d->read_only) {
+      const int flags = SQLite::OPEN_READWRITE | (create ? SQLite::OPEN_CREATE : 0);
+      d->db = std::make_unique<SQLite::Database>(path, flags, busy_timeout_ms);
+    } else if (exists(path + "-wal")) {
+      d->db = std::make_unique<SQLite::Database>(path, SQLite::OPEN_READONLY, busy_timeout_ms);
+    } else {
+      d->db = std::make_unique<SQLite::Database>(
+          immutable_uri(path), SQLite::OPEN_READONLY | SQLite::OPEN_URI, busy_timeout_ms);
+    }
     SQLite::Database& db = *d->db;
     // Identify the file before changing anything in it.
     const int app_id = read_int_pragma(db, "PRAGMA application_id");
@@ -140,12 +181,19 @@ std::unique_ptr<Database> Database::open(const std::string& path, bool create, i
     }
     const int latest = migrations.empty() ? 0 : migrations.back().version;
     if (user_version > latest) too_new(path, user_version, latest);
-    if (!memory) {
+    if (d->read_only && user_version < latest) {
+      throw StoreError("store '" + path + "' was written by an older curvewarden and needs " +
+                           "its schema upgraded, which this user cannot do: the store is " +
+                           "read-only here",
+                       "run any command once as a user who may write the store (its folder "
+                       "too), then read it again");
+    }
+    if (!memory && !d->read_only) {
       SQLite::Statement wal(db, "PRAGMA journal_mode = WAL");
       wal.executeStep();
     }
     db.exec("PRAGMA foreign_keys = ON");
-    db.exec("PRAGMA synchronous = NORMAL");
+    if (!d->read_only) db.exec("PRAGMA synchronous = NORMAL");
     // With recursive triggers, INSERT OR REPLACE fires the delete guards too.
     db.exec("PRAGMA recursive_triggers = ON");
     if (user_version < latest) {

@@ -24,12 +24,19 @@ struct Database {
   std::string path;
   std::unique_ptr<SQLite::Database> db;
   bool created = false;
+  /// This process cannot change the store (see Database::open): reads only, and no side files.
+  bool read_only = false;
   /// The operating-system login of the process (recorded by entries a migration writes).
   std::string os_login;
   std::map<const char*, std::unique_ptr<SQLite::Statement>> statements;
 
   /// Opens the file, checks that it is ours and not newer than `migrations`, sets the
   /// connection's pragmas and applies pending migrations (each in its own transaction).
+  /// A store this process cannot write (the file is not writable for it, or its folder cannot
+  /// take the -wal and -shm files and they do not exist) is opened read-only. When no -wal file
+  /// exists it is read as it stands on disk (SQLite's immutable mode), so that reading creates no
+  /// -wal or -shm file owned by this user that would then stand in the way of the store's owner;
+  /// when a writer's -wal exists, it is read through the writer's files.
   static std::unique_ptr<Database> open(const std::string& path, bool create, int busy_timeout_ms,
                                         const std::vector<MigrationSpec>& migrations,
                                         const std::string& os_login = {});

@@ -120,6 +120,12 @@ std::unique_ptr<ReadUnit> SqliteStore::read() {
 }
 
 void SqliteStore::require_guards() {
+  if (db_->read_only) {
+    throw StoreError("store '" + db_->path + "' is read-only for this user: nothing was written",
+                     "writing needs write permission on the store file and on its folder (for "
+                     "the -wal and -shm files beside it); ask whoever keeps the store, or run "
+                     "this as a user who may write it");
+  }
   if (const auto missing = missing_guards(); !missing.empty()) {
     std::string list;
     for (const auto& m : missing) list += (list.empty() ? "" : ", ") + m;
