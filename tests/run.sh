@@ -53,7 +53,8 @@ done
 # The unit and scenario suites once more, built with AddressSanitizer and UndefinedBehaviorSanitizer
 # (build-asan/, CURVEWARDEN_SANITIZE); the scenario tests run the sanitized binary. Left out: the
 # crash trials and the 100 000-row run (they measure the product, not memory errors: the main
-# suite above runs them) and the end-to-end suite (label e2e; tests/proofs.sh runs it).
+# suite above runs them), the benchmark smoke test (its generator is not built here) and the
+# end-to-end suite (label e2e; tests/proofs.sh runs it).
 echo "== the unit and scenario suites under ASan + UBSan (build-asan/)"
 asan="$build-asan"
 cmake -S "$root" -B "$asan" -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCURVEWARDEN_WERROR=ON \
@@ -64,4 +65,4 @@ cmake --build "$asan" -j "$jobs" --target curvewarden scenario_tests "${unit_tar
 (cd "$asan" && ASAN_OPTIONS=detect_leaks=1:abort_on_error=0 \
   LSAN_OPTIONS="suppressions=$root/tests/sanitizers/lsan.supp" \
   UBSAN_OPTIONS=halt_on_error=1:print_stacktrace=1 \
-  ctest --output-on-failure -j "$jobs" -LE e2e -E 'NOT_BUILT|crash:|100 000 rows')
+  ctest --output-on-failure -j "$jobs" -LE e2e -E 'NOT_BUILT|bench_|crash:|100 000 rows')
