@@ -56,9 +56,46 @@ CalendarDate from_ymd(date::year_month_day ymd) {
           static_cast<unsigned>(ymd.day())};
 }
 
+/// Two decimal digits of `v` (0–99) at `out`.
+void put2(char* out, unsigned v) {
+  out[0] = static_cast<char>('0' + v / 10);
+  out[1] = static_cast<char>('0' + v % 10);
+}
+
+/// The stored form `YYYY-MM-DDTHH:MM:SSZ` read without the general parser (the store holds only
+/// this form, and reading it is on every row's path); nullopt when `s` is anything else or not
+/// a valid moment, which the general parser then reports.
+std::optional<Instant> read_stored_form(std::string_view s) {
+  if (s.size() != 20 || s[4] != '-' || s[7] != '-' || s[10] != 'T' || s[13] != ':' ||
+      s[16] != ':' || s[19] != 'Z') {
+    return std::nullopt;
+  }
+  size_t pos = 0;
+  const auto y = read_digits(s, pos, 4);
+  pos = 5;
+  const auto mo = read_digits(s, pos, 2);
+  pos = 8;
+  const auto d = read_digits(s, pos, 2);
+  pos = 11;
+  const auto h = read_digits(s, pos, 2);
+  pos = 14;
+  const auto mi = read_digits(s, pos, 2);
+  pos = 17;
+  const auto sec = read_digits(s, pos, 2);
+  if (!y || !mo || !d || !h || !mi || !sec || *y < 1 || *h > 23 || *mi > 59 || *sec > 59) {
+    return std::nullopt;
+  }
+  const date::year_month_day ymd{date::year{*y}, date::month{static_cast<unsigned>(*mo)},
+                                 date::day{static_cast<unsigned>(*d)}};
+  if (!ymd.ok()) return std::nullopt;
+  return Instant{date::sys_days{ymd} + std::chrono::hours{*h} + std::chrono::minutes{*mi} +
+                 std::chrono::seconds{*sec}};
+}
+
 }  // namespace
 
 Instant parse_instant(std::string_view raw, std::string_view what) {
+  if (auto stored = read_stored_form(raw)) return *stored;
   const std::string text = trim(raw);
   const std::string expected =
       "expected an ISO-8601 time with its zone, e.g. 2026-12-01T09:30:00Z or "
@@ -144,7 +181,27 @@ bool in_supported_range(Instant t) {
 }
 
 std::string format_utc(Instant t) {
-  return date::format("%Y-%m-%dT%H:%M:%SZ", t);
+  if (!in_supported_range(t)) return date::format("%Y-%m-%dT%H:%M:%SZ", t);
+  // Written digit by digit: this runs for every instant bound to a statement or hashed.
+  const auto day = std::chrono::floor<date::days>(t);
+  const date::year_month_day ymd{day};
+  const date::hh_mm_ss<std::chrono::seconds> tod{t - day};
+  std::string out(20, ' ');
+  const auto year = static_cast<unsigned>(static_cast<int>(ymd.year()));
+  put2(out.data(), year / 100);
+  put2(out.data() + 2, year % 100);
+  out[4] = '-';
+  put2(out.data() + 5, static_cast<unsigned>(ymd.month()));
+  out[7] = '-';
+  put2(out.data() + 8, static_cast<unsigned>(ymd.day()));
+  out[10] = 'T';
+  put2(out.data() + 11, static_cast<unsigned>(tod.hours().count()));
+  out[13] = ':';
+  put2(out.data() + 14, static_cast<unsigned>(tod.minutes().count()));
+  out[16] = ':';
+  put2(out.data() + 17, static_cast<unsigned>(tod.seconds().count()));
+  out[19] = 'Z';
+  return out;
 }
 
 CalendarDate parse_date(std::string_view raw, std::string_view what) {

@@ -14,7 +14,9 @@
 //     the Monday of 2027-W01 (2027-01-01 is a Friday and belongs to 2026-W53).
 //   - 2026 is not a leap year (not divisible by 4); 2028 is (divisible by 4, not by 100).
 #include <catch2/catch.hpp>
+#include <cstdint>
 #include <string>
+#include <vector>
 
 #include "core/date_include.h"
 #include "core/error.h"
@@ -77,6 +79,44 @@ TEST_CASE("time: parse_instant accepts Z and numeric offsets", "[core]") {
 TEST_CASE("time: format_utc writes the stored form with Z", "[core]") {
   CHECK(cw::format_utc(utc(2026, 3, 2, 9, 0, 5)) == "2026-03-02T09:00:05Z");
   CHECK(cw::format_utc(cw::parse_instant("2026-03-29T03:00+02:00")) == "2026-03-29T01:00:00Z");
+}
+
+TEST_CASE("time: the stored form is read and written like the date library does, 0001 to 9999",
+          "[core]") {
+  // Reference: Howard Hinnant's date library (date::format / date::parse), the general-purpose
+  // library the fast paths of format_utc and parse_instant must agree with.
+  std::uint64_t x = 88172645463325252ULL;  // xorshift64, a fixed sequence
+  const auto next = [&x] {
+    x ^= x << 13;
+    x ^= x >> 7;
+    x ^= x << 17;
+    return x;
+  };
+  const cw::Instant first{date::sys_days{date::year{1} / 1 / 1}};
+  const cw::Instant last{date::sys_days{date::year{9999} / 12 / 31} + std::chrono::seconds{86399}};
+  const auto span = static_cast<std::uint64_t>((last - first).count());
+  std::vector<cw::Instant> moments{first, last};
+  for (int i = 0; i < 20000; ++i) {
+    moments.push_back(first + std::chrono::seconds{static_cast<long>(next() % (span + 1))});
+  }
+  for (const cw::Instant t : moments) {
+    const std::string reference = date::format("%Y-%m-%dT%H:%M:%SZ", t);
+    REQUIRE(cw::format_utc(t) == reference);
+    REQUIRE(cw::parse_instant(reference) == t);
+  }
+  // Leap days: 2028-02-29 exists, 2026-02-29 and 2100-02-29 do not (Gregorian rules).
+  CHECK(cw::format_utc(cw::parse_instant("2028-02-29T23:59:59Z")) == "2028-02-29T23:59:59Z");
+  CHECK_THROWS_AS(cw::parse_instant("2026-02-29T00:00:00Z"), cw::ValidationError);
+  CHECK_THROWS_AS(cw::parse_instant("2100-02-29T00:00:00Z"), cw::ValidationError);
+  CHECK_THROWS_AS(cw::parse_instant("0000-12-31T23:59:59Z"), cw::ValidationError);
+  CHECK_THROWS_AS(cw::parse_instant("2026-12-01T24:00:00Z"), cw::ValidationError);
+  CHECK_THROWS_AS(cw::parse_instant("2026-12-01T23:60:00Z"), cw::ValidationError);
+  CHECK_THROWS_AS(cw::parse_instant("2026-12-01T23:59:60Z"), cw::ValidationError);
+  CHECK_THROWS_AS(cw::parse_instant("2026-13-01T00:00:00Z"), cw::ValidationError);
+  CHECK_THROWS_AS(cw::parse_instant("2026-1a-01T00:00:00Z"), cw::ValidationError);
+  // Outside the supported range the general form is still written (never the fast path's).
+  const cw::Instant before = first - std::chrono::seconds{1};
+  CHECK(cw::format_utc(before) == date::format("%Y-%m-%dT%H:%M:%SZ", before));
 }
 
 TEST_CASE("time: parse_instant refuses times without a zone and impossible times", "[core]") {
