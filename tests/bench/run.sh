@@ -7,8 +7,15 @@
 # In-process figures (audit verify against a plain scan, run import against plain inserts)
 # come from the Google Benchmark executable.
 #
+# With --backend postgresql the same commands run against PostgreSQL: each generated store is
+# moved to its own database with `store copy` (once per server; the copy's time is reported), and
+# the baselines are `psql` answering the same queries on that database; run import is compared
+# with psql executing a prepared INSERT of the same result rows in one transaction into a table
+# with the results table's indexes. The server is --pg URI (a role that may create databases) or,
+# by default, a throwaway cluster started by tests/pg/cluster.sh and stopped at exit.
+#
 # Usage: tests/bench/run.sh [--sizes "10000 100000 1000000"] [--repeat N] [--import-repeat N]
-#                          [--seed N]
+#                          [--seed N] [--backend sqlite|postgresql] [--pg URI]
 # Stores go to $CURVEWARDEN_BENCH_DIR (default build-bench/stores). Not run by ctest.
 set -euo pipefail
 root=$(cd "$(dirname "${BASH_SOURCE[0]}")/../.." && pwd)
@@ -18,15 +25,27 @@ sizes="10000 100000 1000000"
 repeat=7
 import_repeat=2
 seed=1
+backend=sqlite
+pg_uri=""
 while [ $# -gt 0 ]; do
   case "$1" in
     --sizes) sizes="$2"; shift 2 ;;
     --repeat) repeat="$2"; shift 2 ;;
     --import-repeat) import_repeat="$2"; shift 2 ;;
     --seed) seed="$2"; shift 2 ;;
+    --backend) backend="$2"; shift 2 ;;
+    --pg) pg_uri="$2"; shift 2 ;;
     *) echo "run.sh: error: unknown option '$1'" >&2; exit 2 ;;
   esac
 done
+
+case "$backend" in
+  sqlite | postgresql) ;;
+  *) echo "run.sh: error: --backend must be sqlite or postgresql, not '$backend'" >&2; exit 2 ;;
+esac
+if [ -n "$pg_uri" ] && [ "$backend" != postgresql ]; then
+  echo "run.sh: error: --pg needs --backend postgresql" >&2; exit 2
+fi
 
 "$root/.ci/install-deps" >/dev/null
 launcher=()
@@ -44,7 +63,12 @@ largest=$(echo $sizes | tr ' ' '\n' | sort -n | tail -1)
 
 export TZ=UTC CURVEWARDEN_USER=bench-analyst
 work=$(mktemp -d)
-trap 'rm -rf "$work"' EXIT
+pg_cluster=""
+cleanup() {
+  if [ -n "$pg_cluster" ]; then "$root/tests/pg/cluster.sh" stop "$pg_cluster" || true; fi
+  rm -rf "$work"
+}
+trap cleanup EXIT
 
 # ---------------------------------------------------------------- stores
 for n in $sizes; do
@@ -59,6 +83,36 @@ for n in $sizes; do
     touch "$dir/done"
   fi
 done
+
+# ---------------------------------------------------------------- PostgreSQL databases
+# uri_for DB: the server's URI with its database replaced by DB (query parameters kept).
+uri_for() {
+  local base="${pg_uri%%\?*}" query="" rest
+  [[ "$pg_uri" == *\?* ]] && query="?${pg_uri#*\?}"
+  rest="${base#*://}"
+  echo "postgresql://${rest%%/*}/$1$query"
+}
+copy_report="$work/copies.txt"
+: >"$copy_report"
+if [ "$backend" = postgresql ]; then
+  command -v psql >/dev/null || { echo "run.sh: psql not found (package postgresql-client)" >&2; exit 1; }
+  if [ -z "$pg_uri" ]; then
+    # Under /tmp: the cluster's owner (nobody, when run as root) must reach its folder.
+    pg_cluster=$(mktemp -d /tmp/cw-bench-pg.XXXXXX)
+    pg_uri=$("$root/tests/pg/cluster.sh" start "$pg_cluster")
+  fi
+  for n in $sizes; do
+    name="cw_bench_${n}_seed$seed"
+    exists=$(psql -X -q -A -t -d "$pg_uri" -c "SELECT count(*) FROM pg_database WHERE datname = '$name'")
+    if [ "$exists" = 0 ]; then
+      echo "copying the $n-curve store to PostgreSQL ..." >&2
+      psql -X -q -d "$pg_uri" -c "CREATE DATABASE $name" >/dev/null
+      start=$EPOCHREALTIME
+      "$cw" store copy --from "$stores/$n-seed$seed/lab.db" --to "$(uri_for "$name")" >/dev/null
+      echo "store $n copied to PostgreSQL in $(awk -v a="$start" -v b="$EPOCHREALTIME" 'BEGIN{printf "%.1f", b-a}') s" >>"$copy_report"
+    fi
+  done
+fi
 
 # ---------------------------------------------------------------- timing helpers
 # time_once OUT CMD...: runs CMD, appends "milliseconds peak-KiB exit" to OUT.
@@ -93,8 +147,19 @@ for n in $sizes; do
   export CURVEWARDEN_NOW="$BENCH_NOW"
   week=$(date -u -d "$BENCH_NOW + 7 days" +%Y-%m-%dT%H:%M:%SZ)
   echo "timing the $n-curve store ($BENCH_ENTRIES entries) ..." >&2
+  if [ "$backend" = postgresql ]; then
+    db=$(uri_for "cw_bench_${n}_seed$seed")
+    export CURVEWARDEN_KEY="$dir/lab.db.key"
+    base_tool=(psql -X -q -A -t -d "$db" -c)
+    base_name="psql"
+    checks_index=""
+  else
+    base_tool=(sqlite3 -readonly "$db")
+    base_name="sqlite3"
+    checks_index="INDEXED BY checks_by_time"
+  fi
   c=(--db "$db")
-  # The baselines: the sqlite3 shell answering with an index what the command shows.
+  # The baselines: the sqlite3 shell (or psql) answering with an index what the command shows.
   expiring_sql="SELECT c.id, c.analyte, m.code, i.code, c.expires_at FROM curves c
     JOIN methods m ON m.id = c.method_id JOIN instruments i ON i.id = c.instrument_id
     WHERE c.expires_at >= '$BENCH_NOW' AND c.expires_at < '$week'
@@ -103,23 +168,23 @@ for n in $sizes; do
     JOIN curves c ON c.instrument_id = i.id AND c.expires_at > '$BENCH_NOW'
       AND c.acquired_at <= '$BENCH_NOW' GROUP BY i.code, c.verdict;
     $expiring_sql
-    SELECT k.id, k.curve_id, k.occurred_at FROM checks k INDEXED BY checks_by_time
+    SELECT k.id, k.curve_id, k.occurred_at FROM checks k $checks_index
     WHERE k.passed = 0 AND k.occurred_at <= '$BENCH_NOW' ORDER BY k.occurred_at DESC LIMIT 250;"
   verify_sql="SELECT * FROM audit_log;"
   for f in expiring status verify expiring.base status.base verify.base; do : >"$work/$n.$f"; done
   for ((r = 0; r < repeat; r++)); do
     time_once "$work/$n.expiring" "$cw" "${c[@]}" expiring --within "7 days"
-    time_once "$work/$n.expiring.base" sqlite3 -readonly "$db" "$expiring_sql"
+    time_once "$work/$n.expiring.base" "${base_tool[@]}" "$expiring_sql"
     time_once "$work/$n.status" "$cw" "${c[@]}" status
-    time_once "$work/$n.status.base" sqlite3 -readonly "$db" "$status_sql"
+    time_once "$work/$n.status.base" "${base_tool[@]}" "$status_sql"
   done
-  record expiring "$n" "$work/$n.expiring" "sqlite3 indexed query" "$work/$n.expiring.base"
-  record status "$n" "$work/$n.status" "sqlite3 indexed queries" "$work/$n.status.base"
+  record expiring "$n" "$work/$n.expiring" "$base_name indexed query" "$work/$n.expiring.base"
+  record status "$n" "$work/$n.status" "$base_name indexed queries" "$work/$n.status.base"
   for ((r = 0; r < (repeat > 3 ? 3 : repeat); r++)); do
     time_once "$work/$n.verify" "$cw" "${c[@]}" audit verify
-    time_once "$work/$n.verify.base" sqlite3 -readonly "$db" "$verify_sql"
+    time_once "$work/$n.verify.base" "${base_tool[@]}" "$verify_sql"
   done
-  record "audit verify" "$n" "$work/$n.verify" "sqlite3 scan of audit_log" "$work/$n.verify.base"
+  record "audit verify" "$n" "$work/$n.verify" "$base_name scan of audit_log" "$work/$n.verify.base"
 
   # Reads and writes of one curve or calibration: compared across store sizes below.
   for f in show quantify check log list; do : >"$work/$n.$f"; done
@@ -146,23 +211,57 @@ for n in $sizes; do
     for ((r = 0; r < import_repeat; r++)); do
       # The same file again needs --again (refused on a file never imported).
       again=()
-      if [ "$(sqlite3 -readonly "$db" "SELECT count(*) FROM runs WHERE file_sha256 = '$sha'")" != 0 ]; then
+      if [ "$("${base_tool[@]}" "SELECT count(*) FROM runs WHERE file_sha256 = '$sha'")" != 0 ]; then
         again=(--again --reason "benchmark repetition $r")
       fi
       time_once "$work/$n.import" "$cw" "${c[@]}" run import "$dir/run-100000.csv" \
         --method "$BENCH_METHOD" --instrument "$BENCH_INSTRUMENT" "${again[@]}"
     done
     record "run import 100000 rows" "$n" "$work/$n.import"
+    if [ "$backend" = postgresql ]; then
+      # The yardstick: psql executing a prepared INSERT of the same result rows (the values of
+      # the in-process SQLite yardstick) in one transaction, into a table with the results
+      # table's columns, checks and indexes (no foreign keys or triggers), dropped afterwards.
+      plain_sql="$work/plain-inserts.sql"
+      awk 'BEGIN {
+        u = "{\"combined\":0.0123,\"components\":[{\"relative_u\":0.011,\"source\":\"calibration\"},{\"relative_u\":0.0025,\"source\":\"lot RM-1\"}],\"expanded\":0.0246,\"k\":2}"
+        print "\\set ON_ERROR_STOP on"
+        print "DROP TABLE IF EXISTS bench_plain_results;"
+        print "CREATE TABLE bench_plain_results (LIKE results INCLUDING ALL);"
+        print "PREPARE ins (bigint, text, bigint, float8, float8, float8, float8, float8, float8, text) AS"
+        print "  INSERT INTO bench_plain_results (id, sample, analyte, status, curve_id, method_id,"
+        print "    instrument_id, response, replicates, dilution, x0, sd_x0, concentration, ci_low,"
+        print "    ci_high, flags, reasons, reason_details, analyst, occurred_at, uncertainty, audit_seq)"
+        print "  VALUES ($1, $2, '"'"'nitrate'"'"', '"'"'reported'"'"', $3, 1, 1, $4, 1, 1, $5, $6, $7, $8, $9,"
+        print "    '"'"'[]'"'"', '"'"'[]'"'"', '"'"'[]'"'"', '"'"'bench-analyst'"'"', '"'"'2026-12-01T12:00:00Z'"'"', $10, $1);"
+        print "BEGIN;"
+        for (i = 0; i < 100000; i++) {
+          x = 1.0 + (i % 400) * 0.1
+          printf "EXECUTE ins (%d, '"'"'W%d'"'"', %d, %.17g, %.17g, %.17g, %.17g, %.17g, %.17g, '"'"'%s'"'"');\n", \
+            i + 1, int(i / 30), 1 + i % 30, 0.5 * x, x, 0.01 * x, x, 0.98 * x, 1.02 * x, u
+        }
+        print "COMMIT;"
+        print "DROP TABLE bench_plain_results;"
+      }' >"$plain_sql"
+      : >"$work/$n.plain"
+      for ((r = 0; r < import_repeat; r++)); do
+        time_once "$work/$n.plain" psql -X -q -d "$db" -f "$plain_sql"
+      done
+      record "plain inserts 100000 rows" "$n" "$work/$n.plain"
+    fi
   fi
 done
 
 # ---------------------------------------------------------------- in-process figures
-"$inproc" --store "$stores/$largest-seed$seed/lab.db" --benchmark_repetitions=3 \
-  --benchmark_report_aggregates_only=true --benchmark_format=csv 2>/dev/null >"$work/inproc.csv"
+: >"$work/inproc.csv"
+if [ "$backend" = sqlite ]; then
+  "$inproc" --store "$stores/$largest-seed$seed/lab.db" --benchmark_repetitions=3 \
+    --benchmark_report_aggregates_only=true --benchmark_format=csv 2>/dev/null >"$work/inproc.csv"
+fi
 
 # ---------------------------------------------------------------- the table
 echo
-echo "Benchmarks on $(uname -m), $(nproc) cores, $(awk -F': ' '/model name/ {print $2; exit}' /proc/cpuinfo); repeat $repeat; medians"
+echo "Benchmarks ($backend backend) on $(uname -m), $(nproc) cores, $(awk -F': ' '/model name/ {print $2; exit}' /proc/cpuinfo); repeat $repeat; medians"
 echo
 printf "| %-40s | %9s | %10s | %9s | %-27s | %10s | %7s | %-34s | %-4s |\n" \
   benchmark curves "median ms" "peak MiB" baseline "base ms" ratio target mark
@@ -175,7 +274,7 @@ while IFS=$'\t' read -r name n med rss base base_med exits; do
   case "$name" in
     expiring | status)
       ratio=$(awk -v a="$med" -v b="$base_med" 'BEGIN{printf "%.1f", a/b}')
-      target="≤ 1.5× sqlite3 (1 M store)"
+      target="≤ 1.5× $base_name (1 M store)"
       [ "$n" = "$largest" ] && mark=$(awk -v r="$ratio" 'BEGIN{print (r <= 1.5 ? "pass" : "miss")}') ;;
     "audit verify")
       ratio=$(awk -v a="$med" -v b="$base_med" 'BEGIN{printf "%.1f", a/b}')
@@ -197,6 +296,8 @@ while IFS=$'\t' read -r name n med rss base base_med exits; do
       fi ;;
     "run import"*)
       target="≤ 64 MiB peak; throughput: below" ;;
+    "plain inserts"*)
+      target="(yardstick of run import)" ;;
   esac
   rss_mib=$(awk -v k="$rss" 'BEGIN{printf "%.0f", k/1024}')
   if [[ "$name" == "run import"* ]]; then
@@ -209,12 +310,18 @@ done <"$results"
 
 # Run import throughput against plain inserts, audit verify against a plain scan (in process).
 imp=$(awk -F'\t' -v n="$largest" '$1 ~ /^run import/ && $2 == n {print $3}' "$results")
-plain=$(awk -F, '/BM_PlainResultInserts.*_median/ {print $3}' "$work/inproc.csv")
+if [ "$backend" = sqlite ]; then
+  plain=$(awk -F, '/BM_PlainResultInserts.*_median/ {print $3}' "$work/inproc.csv")
+  plain_what="plain SQLite inserts of the same rows (in process)"
+else
+  plain=$(awk -F'\t' -v n="$largest" '$1 ~ /^plain inserts/ && $2 == n {print $3}' "$results")
+  plain_what="psql executing a prepared insert of the same rows"
+fi
 verify_in=$(awk -F, '/BM_AuditVerify.*_median/ {print $3}' "$work/inproc.csv")
 scan_in=$(awk -F, '/BM_AuditScan.*_median/ {print $3}' "$work/inproc.csv")
 echo
 if [ -n "$plain" ] && [ -n "$imp" ]; then
-  awk -v i="$imp" -v p="$plain" 'BEGIN{r = p / i; printf "run import, 100 000 rows: %.0f ms whole process; plain SQLite inserts of the same rows: %.0f ms; throughput %.2f× plain (target ≥ 0.5×): %s\n", i, p, r, (r >= 0.5 ? "pass" : "miss")}'
+  awk -v i="$imp" -v p="$plain" -v w="$plain_what" 'BEGIN{r = p / i; printf "run import, 100 000 rows: %.0f ms whole process; %s: %.0f ms; throughput %.2f× plain (target ≥ 0.5×): %s\n", i, w, p, r, (r >= 0.5 ? "pass" : "miss")}'
 fi
 if [ -n "$verify_in" ] && [ -n "$scan_in" ]; then
   awk -v v="$verify_in" -v s="$scan_in" 'BEGIN{r = v / s; printf "audit verify in process: %.0f ms; plain scan of every column: %.0f ms; %.1f× (target ≤ 2×): %s\n", v, s, r, (r <= 2 ? "pass" : "miss")}'
@@ -230,3 +337,4 @@ echo
 for n in $sizes; do
   echo "store $n: $(tr '\n' ' ' <"$stores/$n-seed$seed/report.txt")"
 done
+cat "$copy_report"
