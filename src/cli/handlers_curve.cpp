@@ -6,6 +6,7 @@
 #include "core/error.h"
 #include "core/text.h"
 #include "import/points_file.h"
+#include "plot/module.h"
 #include "plot/plot.h"
 #include "report/curve_plot_view.h"
 #include "report/curve_views.h"
@@ -86,7 +87,10 @@ int curve_list(Invocation& in) {
 int curve_show(Invocation& in) {
   const CurveId id = in.curve_id("id");
   const auto plot_path = in.optional_output_path("--plot");
-  if (plot_path) plot::output_format_for(*plot_path);  // a bad extension fails before anything
+  if (plot_path) {
+    plot::output_format_for(*plot_path);  // a bad extension fails before anything
+    plot::require_drawing();
+  }
   auto s = in.open_session();
   const auto v = app::show_curve(s, id);
   if (plot_path) plot::render_curve_plot(report::curve_plot_of(v, s.now()), *plot_path);

@@ -5,6 +5,7 @@
 #include "cli/handlers.h"
 #include "core/error.h"
 #include "plot/curve_report.h"
+#include "plot/module.h"
 #include "plot/run_report.h"
 #include "report/curve_report_view.h"
 #include "report/json.h"
@@ -38,6 +39,7 @@ report::ReportOrigin origin_of(app::Session& s) {
 int report_curve(Invocation& in) {
   const CurveId id = in.curve_id("id");
   const std::string out = pdf_path(in);
+  plot::require_drawing();
   auto s = in.open_session();
   const auto facts = app::curve_report_facts(s, id);
   const int pages =
@@ -61,6 +63,7 @@ int report_curve(Invocation& in) {
 int report_run(Invocation& in) {
   const RunId id = in.run_id("id");
   const std::string out = pdf_path(in);
+  plot::require_drawing();
   auto s = in.open_session();
   report::RunReportBuilder builder(s.zone());
   const auto context = app::show_run_for_report(s, id, builder);

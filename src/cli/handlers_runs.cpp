@@ -10,6 +10,7 @@
 #include "core/text.h"
 #include "import/run_file.h"
 #include "plot/control_chart.h"
+#include "plot/module.h"
 #include "report/control_chart_view.h"
 #include "report/run_views.h"
 
@@ -161,7 +162,10 @@ int trend(Invocation& in) {
   r.analyte = *in.optional_analyte("--analyte");
   r.last = in.optional_whole("--last", 1, 100000);
   const auto plot_path = in.optional_output_path("--plot");
-  if (plot_path) plot::output_format_for(*plot_path);  // a bad extension fails before anything
+  if (plot_path) {
+    plot::output_format_for(*plot_path);  // a bad extension fails before anything
+    plot::require_drawing();
+  }
   auto s = in.open_session();
   const auto t = app::trend(s, r);
   if (plot_path) {

@@ -93,6 +93,14 @@ class StoreError : public Error {
       : Error(ExitCode::Store, "store", message, std::move(hint)) {}
 };
 
+/// A part of the installation a command needs is missing or from another build (the modules of
+/// core/module_loader.h). Exit 4, like a store that cannot be used.
+class InstallationError : public Error {
+ public:
+  explicit InstallationError(const std::string& message, std::string hint = {})
+      : Error(ExitCode::Store, "installation", message, std::move(hint)) {}
+};
+
 /// The audit chain or a fact row does not match its recorded hash. Exit 5.
 class AuditBrokenError : public Error {
  public:

@@ -29,9 +29,6 @@ namespace cw::store::postgresql {
 /// write unit takes: 'CWRD', as SQLite's application_id.
 inline constexpr std::int64_t kApplicationId = 0x43575244;
 
-/// The location with any password replaced by "***", for every message.
-std::string masked_location(const std::string& uri);
-
 struct Database;
 
 /// One value of the current row; NULL reads as 0, 0.0 or "" (as SQLiteCpp's columns do).

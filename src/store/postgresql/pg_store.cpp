@@ -167,19 +167,6 @@ std::string PgStore::privilege_statements() {
   return grants_for(kWorkstationRole, db_->schema);
 }
 
-bool is_uri(const std::string& location) {
-  return location.rfind("postgresql://", 0) == 0 || location.rfind("postgres://", 0) == 0;
-}
-
-std::string masked(const std::string& location) {
-  return masked_location(location);
-}
-
-std::unique_ptr<Store> open_postgresql(const OpenOptions& options) {
-  return std::make_unique<PgStore>(
-      Database::open(options.location, options.create, options.busy_timeout_ms, options.os_login));
-}
-
 namespace {
 /// An identifier quoted as PostgreSQL quotes them.
 std::string quoted(const std::string& name) {
