@@ -3,9 +3,11 @@
 #include "store/sqlite/audit_repository.h"
 
 #include <algorithm>
+#include <exception>
 #include <memory>
 #include <set>
 
+#include "audit/chain_check.h"
 #include "core/error.h"
 #include "store/sqlite/bind.h"
 #include "store/sqlite/scan.h"
@@ -164,8 +166,10 @@ VerifyReport SqliteAudit::verify() {
     for (FactTable t : tables) cursors.push_back(std::make_unique<TableCursor>(db_, form_of(t)));
 
     Scan entries(*db_.db, sql::kAuditAll);
-    audit::AuditEntry e;
-    audit::EntryHasher hasher;
+    struct Failure {
+      std::int64_t seq;
+      std::string problem;
+    };
     std::string actual_text;
     // Where each row of actual_text lies: its table, offset and length.
     struct RowSpan {
@@ -174,25 +178,9 @@ VerifyReport SqliteAudit::verify() {
       std::size_t length;
     };
     std::vector<RowSpan> actual_rows;
-    std::string prev_hash = audit::kGenesisHash;
-    std::int64_t expected_seq = 1;
-    while (entries.step()) {
-      read_entry(entries.row(), e);
-      if (e.seq != expected_seq) {
-        return fail(expected_seq, "entry " + std::to_string(expected_seq) +
-                                      " is missing (the next entry is " + std::to_string(e.seq) +
-                                      ")");
-      }
-      if (e.prev_hash != prev_hash) {
-        return fail(e.seq,
-                    describe(e) + " does not link to the entry before it (prev_hash differs)");
-      }
-      if (hasher.hash(e) != e.hash) {
-        return fail(e.seq,
-                    describe(e) + " was changed after it was written (its hash does not match)");
-      }
-      // The rows that name this entry, table by table, as they are stored now, written as the
-      // payload's text (the canonical form, keys sorted, no spaces) and compared with it.
+    // The rows that name entry `e`, table by table, as they are stored now, written as the
+    // payload's text (the canonical form, keys sorted, no spaces) and compared with it.
+    const auto check_rows = [&](const audit::AuditEntry& e) -> std::optional<Failure> {
       actual_text.assign(1, '{');
       actual_rows.clear();
       for (std::size_t k = 0; k < tables.size(); ++k) {
@@ -202,10 +190,10 @@ VerifyReport SqliteAudit::verify() {
         while (!cursor.done() && cursor.audit_seq() <= e.seq) {
           if (cursor.audit_seq() < e.seq) {
             // A row claiming an earlier entry that did not list it.
-            return fail(cursor.audit_seq(), "row " + std::string(table_name(t)) + " id " +
-                                                std::to_string(cursor.id()) +
-                                                " has no audit entry (it was added behind the "
-                                                "tool's back)");
+            return Failure{cursor.audit_seq(), "row " + std::string(table_name(t)) + " id " +
+                                                   std::to_string(cursor.id()) +
+                                                   " has no audit entry (it was added behind the "
+                                                   "tool's back)"};
           }
           if (first_row) {
             if (actual_text.size() > 1) actual_text += ',';
@@ -236,7 +224,7 @@ VerifyReport SqliteAudit::verify() {
         try {
           recorded = nlohmann::json::parse(e.payload);
         } catch (const nlohmann::json::exception&) {
-          return fail(e.seq, describe(e) + " has a payload that is not JSON");
+          return Failure{e.seq, describe(e) + " has a payload that is not JSON"};
         }
         for (auto& [table, rows] : recorded.items()) {
           const nlohmann::json& now =
@@ -248,10 +236,11 @@ VerifyReport SqliteAudit::verify() {
             });
             const std::string name = table + " id " + id.dump();
             if (found == now.end()) {
-              return fail(e.seq, describe(e) + ": row " + name + " is missing from the store");
+              return Failure{e.seq, describe(e) + ": row " + name + " is missing from the store"};
             }
             if (*found != row) {
-              return fail(e.seq, describe(e) + ": row " + name + " differs from what was recorded");
+              return Failure{e.seq,
+                             describe(e) + ": row " + name + " differs from what was recorded"};
             }
           }
         }
@@ -263,27 +252,77 @@ VerifyReport SqliteAudit::verify() {
                                               return r.value("id", nlohmann::json()) == row["id"];
                                             });
             if (!listed) {
-              return fail(e.seq, "row " + table + " id " + row["id"].dump() +
-                                     " has no audit entry (it was added behind the tool's back)");
+              return Failure{e.seq,
+                             "row " + table + " id " + row["id"].dump() +
+                                 " has no audit entry (it was added behind the tool's back)"};
             }
           }
         }
-        return fail(e.seq, describe(e) + ": its rows differ from what was recorded");
+        return Failure{e.seq, describe(e) + ": its rows differ from what was recorded"};
       }
-      prev_hash = e.hash;
-      ++expected_seq;
+      return std::nullopt;
+    };
+    // Rows left after the last entry.
+    const auto check_leftover = [&]() -> std::optional<Failure> {
+      for (std::size_t k = 0; k < tables.size(); ++k) {
+        const TableCursor& cursor = *cursors[k];
+        if (!cursor.done()) {
+          return Failure{cursor.audit_seq(), "row " + std::string(table_name(tables[k])) + " id " +
+                                                 std::to_string(cursor.id()) +
+                                                 " has no audit entry (it was added behind the "
+                                                 "tool's back)"};
+        }
+      }
+      return std::nullopt;
+    };
+
+    // The links and hashes are checked on a second thread while this one reads the rows; of
+    // what both find, the first in the order of the trail counts (for one entry: a gap, then its
+    // link and hash, then its rows), as when one thread checked everything in that order.
+    audit::ChainCheck chain;
+    std::optional<Failure> found;  // a gap in the sequence or a row problem
+    std::exception_ptr error;      // a damaged store, met while reading the rows
+    try {
+      std::int64_t expected_seq = 1;
+      while (!chain.broken() && entries.step()) {
+        audit::AuditEntry e;
+        read_entry(entries.row(), e);
+        if (e.seq != expected_seq) {
+          found = Failure{expected_seq, "entry " + std::to_string(expected_seq) +
+                                            " is missing (the next entry is " +
+                                            std::to_string(e.seq) + ")"};
+          break;
+        }
+        try {
+          found = check_rows(e);
+        } catch (...) {
+          chain.add(std::move(e));
+          throw;
+        }
+        chain.add(std::move(e));
+        if (found) break;
+        ++expected_seq;
+      }
+      if (!found) found = check_leftover();
+    } catch (...) {
+      error = std::current_exception();
     }
-    for (std::size_t k = 0; k < tables.size(); ++k) {
-      const FactTable t = tables[k];
-      const TableCursor& cursor = *cursors[k];
-      if (!cursor.done()) {
-        return fail(cursor.audit_seq(), "row " + std::string(table_name(t)) + " id " +
-                                            std::to_string(cursor.id()) +
-                                            " has no audit entry (it was added behind the tool's "
-                                            "back)");
+    if (auto broken = chain.finish()) {
+      const audit::AuditEntry& e = broken->entry;
+      switch (broken->kind) {
+        case audit::ChainCheck::Break::Kind::Link:
+          return fail(e.seq,
+                      describe(e) + " does not link to the entry before it (prev_hash differs)");
+        case audit::ChainCheck::Break::Kind::Hash:
+          return fail(e.seq,
+                      describe(e) + " was changed after it was written (its hash does not match)");
+        case audit::ChainCheck::Break::Kind::Error:
+          std::rethrow_exception(broken->error);
       }
     }
-    report.head_hash = prev_hash;
+    if (error) std::rethrow_exception(error);
+    if (found) return fail(found->seq, std::move(found->problem));
+    report.head_hash = chain.head_hash();
     return report;
   });
 }
