@@ -14,10 +14,15 @@ void append_json_string(std::string& out, std::string_view text) {
   const std::size_t start = out.size();
   out += '"';
   // Runs of characters that need no escape are copied whole.
+  static constexpr auto kPlain = [] {
+    std::array<bool, 256> plain{};
+    for (int c = 0x20; c < 0x80; ++c) plain[static_cast<std::size_t>(c)] = c != '"' && c != '\\';
+    return plain;
+  }();
   std::size_t run = 0;
   for (std::size_t i = 0; i < text.size(); ++i) {
     const auto c = static_cast<unsigned char>(text[i]);
-    if (c >= 0x20 && c < 0x80 && c != '"' && c != '\\') continue;
+    if (kPlain[c]) continue;
     if (c >= 0x80) {
       out.resize(start);
       out += nlohmann::json(std::string(text)).dump();
