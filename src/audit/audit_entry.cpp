@@ -2,41 +2,54 @@
 // Canonical serialisation and hashing of audit entries.
 #include "audit/audit_entry.h"
 
-#include <nlohmann/json.hpp>
-
-#include "audit/sha256.h"
+#include "audit/json_text.h"
 
 namespace cw::audit {
 
-std::string canonical_header(const AuditEntry& e) {
-  nlohmann::json header = nlohmann::json::array();
-  header.push_back(e.seq);
-  header.push_back(e.recorded_at);
-  header.push_back(e.occurred_at);
-  header.push_back(e.actor);
-  header.push_back(e.action);
-  header.push_back(e.entity_kind);
-  header.push_back(e.entity_id);
-  if (e.reason) {
-    header.push_back(*e.reason);
-  } else {
-    header.push_back(nullptr);
+void append_canonical_header(std::string& out, const AuditEntry& e) {
+  // The compact JSON array nlohmann's dump() wrote when the chain was first hashed.
+  out += '[';
+  append_json_integer(out, e.seq);
+  for (const std::string* text :
+       {&e.recorded_at, &e.occurred_at, &e.actor, &e.action, &e.entity_kind, &e.entity_id}) {
+    out += ',';
+    append_json_string(out, *text);
   }
-  header.push_back(e.clock_overridden);
-  header.push_back(e.tool_version);
-  if (e.os_login) header.push_back(*e.os_login);
-  return header.dump();
+  out += ',';
+  if (e.reason) {
+    append_json_string(out, *e.reason);
+  } else {
+    out += "null";
+  }
+  out += e.clock_overridden ? ",true," : ",false,";
+  append_json_string(out, e.tool_version);
+  if (e.os_login) {
+    out += ',';
+    append_json_string(out, *e.os_login);
+  }
+  out += ']';
+}
+
+std::string canonical_header(const AuditEntry& e) {
+  std::string out;
+  append_canonical_header(out, e);
+  return out;
 }
 
 std::string compute_hash(const AuditEntry& e) {
-  std::string text;
-  text.reserve(e.prev_hash.size() + e.payload.size() + 256);
-  text += e.prev_hash;
-  text += '\n';
-  text += canonical_header(e);
-  text += '\n';
-  text += e.payload;
-  return sha256_hex(text);
+  return EntryHasher().hash(e);
+}
+
+std::string EntryHasher::hash(const AuditEntry& e) {
+  header_.clear();
+  append_canonical_header(header_, e);
+  digest_.restart();
+  digest_.update(e.prev_hash);
+  digest_.update("\n");
+  digest_.update(header_);
+  digest_.update("\n");
+  digest_.update(e.payload);
+  return digest_.hex();
 }
 
 }  // namespace cw::audit

@@ -17,6 +17,8 @@
 #include <optional>
 #include <string>
 
+#include "audit/sha256.h"
+
 namespace cw::audit {
 
 inline const std::string kGenesisHash(64, '0');
@@ -40,7 +42,21 @@ struct AuditEntry {
 
 /// The header line of the canonical form.
 std::string canonical_header(const AuditEntry& e);
+/// Appends the header line of the canonical form to `out`.
+void append_canonical_header(std::string& out, const AuditEntry& e);
 /// The hash of `e` given its prev_hash and payload (e.hash is ignored).
 std::string compute_hash(const AuditEntry& e);
+
+/// compute_hash for one entry after another (`audit verify`), with one SHA-256 context and one
+/// header buffer reused, and the canonical text fed to the digest in pieces, never joined.
+class EntryHasher {
+ public:
+  /// The hash of `e`, as compute_hash(e).
+  std::string hash(const AuditEntry& e);
+
+ private:
+  Sha256 digest_;
+  std::string header_;
+};
 
 }  // namespace cw::audit

@@ -19,6 +19,8 @@ class Sha256 {
   Sha256(const Sha256&) = delete;
   Sha256& operator=(const Sha256&) = delete;
 
+  /// Starts a new digest with the same context (cheaper than a new object per digest).
+  void restart();
   void update(std::string_view data);
   /// The digest of everything fed so far, as lowercase hex; the object is then spent.
   std::string hex();

@@ -138,6 +138,7 @@ VerifyReport PgAudit::verify() {
     for (FactTable t : tables) cursors.emplace(t, std::make_unique<TableCursor>(db_, form_of(t)));
 
     Statement entries(db_, sql::kAuditAll, Rows::Streamed);
+    audit::EntryHasher hasher;
     std::string actual_text;
     std::vector<std::pair<FactTable, std::string>> actual_rows;
     std::string prev_hash = audit::kGenesisHash;
@@ -153,7 +154,7 @@ VerifyReport PgAudit::verify() {
         return fail(e.seq,
                     describe(e) + " does not link to the entry before it (prev_hash differs)");
       }
-      if (audit::compute_hash(e) != e.hash) {
+      if (hasher.hash(e) != e.hash) {
         return fail(e.seq,
                     describe(e) + " was changed after it was written (its hash does not match)");
       }

@@ -3,12 +3,14 @@
 #include "store/sqlite/audit_repository.h"
 
 #include <algorithm>
-#include <map>
+#include <exception>
 #include <memory>
 #include <set>
 
+#include "audit/chain_check.h"
 #include "core/error.h"
 #include "store/sqlite/bind.h"
+#include "store/sqlite/scan.h"
 #include "store/sqlite/sql.h"
 
 namespace cw::store::sqlite {
@@ -33,16 +35,47 @@ audit::AuditEntry entry_of(SQLite::Statement& s) {
   return e;
 }
 
+/// Reads the current row of kAuditAll into `e`, reusing its strings' buffers (the C interface
+/// directly: `audit verify` reads every entry of the trail).
+void read_entry(sqlite3_stmt* s, audit::AuditEntry& e) {
+  const auto text = [s](int i, std::string& out) {
+    const auto* data = reinterpret_cast<const char*>(sqlite3_column_text(s, i));
+    out.assign(data != nullptr ? data : "", static_cast<std::size_t>(sqlite3_column_bytes(s, i)));
+  };
+  const auto opt = [&](int i, std::optional<std::string>& out) {
+    if (sqlite3_column_type(s, i) == SQLITE_NULL) {
+      out.reset();
+    } else {
+      if (!out) out.emplace();
+      text(i, *out);
+    }
+  };
+  e.seq = sqlite3_column_int64(s, 0);
+  text(1, e.recorded_at);
+  text(2, e.occurred_at);
+  text(3, e.actor);
+  text(4, e.action);
+  text(5, e.entity_kind);
+  text(6, e.entity_id);
+  opt(7, e.reason);
+  e.clock_overridden = sqlite3_column_int64(s, 8) != 0;
+  text(9, e.tool_version);
+  text(10, e.payload);
+  text(11, e.prev_hash);
+  text(12, e.hash);
+  opt(13, e.os_login);
+}
+
 std::string describe(const audit::AuditEntry& e) {
   return "entry " + std::to_string(e.seq) + " (" + e.action + " " + e.entity_kind + "/" +
          e.entity_id + ", recorded " + e.recorded_at + ")";
 }
 
-/// Streams one fact table in id order, one canonical row (as JSON text) at a time.
+/// Streams one fact table in id order; each row is written as canonical JSON text on demand.
 class TableCursor {
  public:
   TableCursor(Database& db, const TableForm& form)
-      : form_(form), path_(db.path), statement_(*db.db, select_of(form, " ORDER BY id")) {
+      : form_(form), path_(db.path), scan_(*db.db, select_of(form, " ORDER BY id")) {
     for (std::size_t i = 0; i < form.columns.size(); ++i) {
       if (form.columns[i].name == "id") id_column_ = static_cast<int>(i);
       if (form.columns[i].name == "audit_seq") seq_column_ = static_cast<int>(i);
@@ -51,26 +84,25 @@ class TableCursor {
   }
 
   bool done() const { return done_; }
-  /// The row under the cursor as canonical JSON text.
-  const std::string& text() const { return text_; }
   std::int64_t id() const { return id_; }
   std::int64_t audit_seq() const { return audit_seq_; }
+  /// Appends the row under the cursor to `out` as canonical JSON text.
+  void append_text(std::string& out) const {
+    append_canonical_row_text(out, scan_.row(), form_, path_);
+  }
   void advance() {
-    done_ = !statement_.executeStep();
+    done_ = !scan_.step();
     if (done_) return;
-    id_ = statement_.getColumn(id_column_).getInt64();
-    audit_seq_ = statement_.getColumn(seq_column_).getInt64();
-    text_.clear();
-    append_canonical_row_text(text_, statement_, form_, path_);
+    id_ = sqlite3_column_int64(scan_.row(), id_column_);
+    audit_seq_ = sqlite3_column_int64(scan_.row(), seq_column_);
   }
 
  private:
   const TableForm& form_;
   std::string path_;
-  SQLite::Statement statement_;
+  Scan scan_;
   int id_column_ = 0;
   int seq_column_ = 0;
-  std::string text_;
   std::int64_t id_ = 0;
   std::int64_t audit_seq_ = 0;
   bool done_ = false;
@@ -130,43 +162,38 @@ VerifyReport SqliteAudit::verify() {
       count.reset();
     }
     const std::vector<FactTable> tables = tables_by_name();
-    std::map<FactTable, std::unique_ptr<TableCursor>> cursors;
-    for (FactTable t : tables) cursors.emplace(t, std::make_unique<TableCursor>(db_, form_of(t)));
+    std::vector<std::unique_ptr<TableCursor>> cursors;  // in the order of `tables`
+    for (FactTable t : tables) cursors.push_back(std::make_unique<TableCursor>(db_, form_of(t)));
 
-    SQLite::Statement entries(*db_.db, sql::kAuditAll);
+    Scan entries(*db_.db, sql::kAuditAll);
+    struct Failure {
+      std::int64_t seq;
+      std::string problem;
+    };
     std::string actual_text;
-    std::vector<std::pair<FactTable, std::string>> actual_rows;
-    std::string prev_hash = audit::kGenesisHash;
-    std::int64_t expected_seq = 1;
-    while (entries.executeStep()) {
-      const audit::AuditEntry e = entry_of(entries);
-      if (e.seq != expected_seq) {
-        return fail(expected_seq, "entry " + std::to_string(expected_seq) +
-                                      " is missing (the next entry is " + std::to_string(e.seq) +
-                                      ")");
-      }
-      if (e.prev_hash != prev_hash) {
-        return fail(e.seq,
-                    describe(e) + " does not link to the entry before it (prev_hash differs)");
-      }
-      if (audit::compute_hash(e) != e.hash) {
-        return fail(e.seq,
-                    describe(e) + " was changed after it was written (its hash does not match)");
-      }
-      // The rows that name this entry, table by table, as they are stored now, written as the
-      // payload's text (the canonical form, keys sorted, no spaces) and compared with it.
-      actual_text = "{";
+    // Where each row of actual_text lies: its table, offset and length.
+    struct RowSpan {
+      FactTable table;
+      std::size_t offset;
+      std::size_t length;
+    };
+    std::vector<RowSpan> actual_rows;
+    // The rows that name entry `e`, table by table, as they are stored now, written as the
+    // payload's text (the canonical form, keys sorted, no spaces) and compared with it.
+    const auto check_rows = [&](const audit::AuditEntry& e) -> std::optional<Failure> {
+      actual_text.assign(1, '{');
       actual_rows.clear();
-      for (FactTable t : tables) {
-        TableCursor& cursor = *cursors.at(t);
+      for (std::size_t k = 0; k < tables.size(); ++k) {
+        const FactTable t = tables[k];
+        TableCursor& cursor = *cursors[k];
         bool first_row = true;
         while (!cursor.done() && cursor.audit_seq() <= e.seq) {
           if (cursor.audit_seq() < e.seq) {
             // A row claiming an earlier entry that did not list it.
-            return fail(cursor.audit_seq(), "row " + std::string(table_name(t)) + " id " +
-                                                std::to_string(cursor.id()) +
-                                                " has no audit entry (it was added behind the "
-                                                "tool's back)");
+            return Failure{cursor.audit_seq(), "row " + std::string(table_name(t)) + " id " +
+                                                   std::to_string(cursor.id()) +
+                                                   " has no audit entry (it was added behind the "
+                                                   "tool's back)"};
           }
           if (first_row) {
             if (actual_text.size() > 1) actual_text += ',';
@@ -177,8 +204,9 @@ VerifyReport SqliteAudit::verify() {
             actual_text += ',';
           }
           first_row = false;
-          actual_text += cursor.text();
-          actual_rows.emplace_back(t, cursor.text());
+          const std::size_t offset = actual_text.size();
+          cursor.append_text(actual_text);
+          actual_rows.push_back({t, offset, actual_text.size() - offset});
           cursor.advance();
         }
         if (!first_row) actual_text += ']';
@@ -187,15 +215,16 @@ VerifyReport SqliteAudit::verify() {
       if (actual_text != e.payload) {
         // Rebuild the rows as JSON to find what differs.
         nlohmann::json actual = nlohmann::json::object();
-        for (const auto& [t, text] : actual_rows) {
-          actual[std::string(table_name(t))].push_back(nlohmann::json::parse(text));
+        for (const RowSpan& row : actual_rows) {
+          actual[std::string(table_name(row.table))].push_back(
+              nlohmann::json::parse(actual_text.substr(row.offset, row.length)));
         }
         // Find what differs, in the words of the recorded payload.
         nlohmann::json recorded;
         try {
           recorded = nlohmann::json::parse(e.payload);
         } catch (const nlohmann::json::exception&) {
-          return fail(e.seq, describe(e) + " has a payload that is not JSON");
+          return Failure{e.seq, describe(e) + " has a payload that is not JSON"};
         }
         for (auto& [table, rows] : recorded.items()) {
           const nlohmann::json& now =
@@ -207,10 +236,11 @@ VerifyReport SqliteAudit::verify() {
             });
             const std::string name = table + " id " + id.dump();
             if (found == now.end()) {
-              return fail(e.seq, describe(e) + ": row " + name + " is missing from the store");
+              return Failure{e.seq, describe(e) + ": row " + name + " is missing from the store"};
             }
             if (*found != row) {
-              return fail(e.seq, describe(e) + ": row " + name + " differs from what was recorded");
+              return Failure{e.seq,
+                             describe(e) + ": row " + name + " differs from what was recorded"};
             }
           }
         }
@@ -222,26 +252,77 @@ VerifyReport SqliteAudit::verify() {
                                               return r.value("id", nlohmann::json()) == row["id"];
                                             });
             if (!listed) {
-              return fail(e.seq, "row " + table + " id " + row["id"].dump() +
-                                     " has no audit entry (it was added behind the tool's back)");
+              return Failure{e.seq,
+                             "row " + table + " id " + row["id"].dump() +
+                                 " has no audit entry (it was added behind the tool's back)"};
             }
           }
         }
-        return fail(e.seq, describe(e) + ": its rows differ from what was recorded");
+        return Failure{e.seq, describe(e) + ": its rows differ from what was recorded"};
       }
-      prev_hash = e.hash;
-      ++expected_seq;
+      return std::nullopt;
+    };
+    // Rows left after the last entry.
+    const auto check_leftover = [&]() -> std::optional<Failure> {
+      for (std::size_t k = 0; k < tables.size(); ++k) {
+        const TableCursor& cursor = *cursors[k];
+        if (!cursor.done()) {
+          return Failure{cursor.audit_seq(), "row " + std::string(table_name(tables[k])) + " id " +
+                                                 std::to_string(cursor.id()) +
+                                                 " has no audit entry (it was added behind the "
+                                                 "tool's back)"};
+        }
+      }
+      return std::nullopt;
+    };
+
+    // The links and hashes are checked on a second thread while this one reads the rows; of
+    // what both find, the first in the order of the trail counts (for one entry: a gap, then its
+    // link and hash, then its rows), as when one thread checked everything in that order.
+    audit::ChainCheck chain;
+    std::optional<Failure> found;  // a gap in the sequence or a row problem
+    std::exception_ptr error;      // a damaged store, met while reading the rows
+    try {
+      std::int64_t expected_seq = 1;
+      while (!chain.broken() && entries.step()) {
+        audit::AuditEntry e;
+        read_entry(entries.row(), e);
+        if (e.seq != expected_seq) {
+          found = Failure{expected_seq, "entry " + std::to_string(expected_seq) +
+                                            " is missing (the next entry is " +
+                                            std::to_string(e.seq) + ")"};
+          break;
+        }
+        try {
+          found = check_rows(e);
+        } catch (...) {
+          chain.add(std::move(e));
+          throw;
+        }
+        chain.add(std::move(e));
+        if (found) break;
+        ++expected_seq;
+      }
+      if (!found) found = check_leftover();
+    } catch (...) {
+      error = std::current_exception();
     }
-    for (FactTable t : tables) {
-      const TableCursor& cursor = *cursors.at(t);
-      if (!cursor.done()) {
-        return fail(cursor.audit_seq(), "row " + std::string(table_name(t)) + " id " +
-                                            std::to_string(cursor.id()) +
-                                            " has no audit entry (it was added behind the tool's "
-                                            "back)");
+    if (auto broken = chain.finish()) {
+      const audit::AuditEntry& e = broken->entry;
+      switch (broken->kind) {
+        case audit::ChainCheck::Break::Kind::Link:
+          return fail(e.seq,
+                      describe(e) + " does not link to the entry before it (prev_hash differs)");
+        case audit::ChainCheck::Break::Kind::Hash:
+          return fail(e.seq,
+                      describe(e) + " was changed after it was written (its hash does not match)");
+        case audit::ChainCheck::Break::Kind::Error:
+          std::rethrow_exception(broken->error);
       }
     }
-    report.head_hash = prev_hash;
+    if (error) std::rethrow_exception(error);
+    if (found) return fail(found->seq, std::move(found->problem));
+    report.head_hash = chain.head_hash();
     return report;
   });
 }

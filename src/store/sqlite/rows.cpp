@@ -2,11 +2,14 @@
 // Canonical rows read from SQLite.
 #include "store/sqlite/rows.h"
 
+#include <sqlite3.h>
+
 #include <algorithm>
 #include <array>
-#include <cmath>
 #include <stdexcept>
 #include <string_view>
+
+#include "audit/json_text.h"
 
 namespace cw::store::sqlite {
 
@@ -45,87 +48,45 @@ nlohmann::json canonical_row(SQLite::Statement& s, const TableForm& form, const 
 
 namespace {
 
-/// The columns of a form in key order (nlohmann's objects sort their keys), computed once.
+/// The columns of each form in key order (nlohmann's objects sort their keys), computed once.
 const std::vector<std::size_t>& key_order(const TableForm& form) {
-  static std::map<FactTable, std::vector<std::size_t>> orders;
-  auto [it, inserted] = orders.try_emplace(form.table);
-  if (inserted) {
-    for (std::size_t i = 0; i < form.columns.size(); ++i) it->second.push_back(i);
-    std::sort(it->second.begin(), it->second.end(), [&](std::size_t a, std::size_t b) {
-      return form.columns[a].name < form.columns[b].name;
-    });
-  }
-  return it->second;
-}
-
-/// A string as nlohmann's dump writes it (ensure_ascii off): quotes, backslashes and control
-/// characters escaped. Text beyond ASCII goes through nlohmann itself (which also refuses
-/// invalid UTF-8, as the JSON objects did).
-void append_json_string(std::string& out, std::string_view text) {
-  static constexpr char kHex[] = "0123456789abcdef";
-  const bool ascii = std::all_of(text.begin(), text.end(),
-                                 [](char c) { return static_cast<unsigned char>(c) < 0x80; });
-  if (!ascii) {
-    out += nlohmann::json(std::string(text)).dump();
-    return;
-  }
-  out += '"';
-  for (const char c : text) {
-    switch (c) {
-      case '"':
-        out += "\\\"";
-        break;
-      case '\\':
-        out += "\\\\";
-        break;
-      case '\b':
-        out += "\\b";
-        break;
-      case '\f':
-        out += "\\f";
-        break;
-      case '\n':
-        out += "\\n";
-        break;
-      case '\r':
-        out += "\\r";
-        break;
-      case '\t':
-        out += "\\t";
-        break;
-      default:
-        if (static_cast<unsigned char>(c) <= 0x1F) {
-          out += "\\u00";
-          out += kHex[(static_cast<unsigned char>(c) >> 4) & 0xF];
-          out += kHex[static_cast<unsigned char>(c) & 0xF];
-        } else {
-          out += c;
-        }
+  static const auto orders = [] {
+    std::array<std::vector<std::size_t>, kAllFactTables.size()> out;
+    for (const FactTable t : kAllFactTables) {
+      const TableForm& f = form_of(t);
+      auto& order = out[static_cast<std::size_t>(t)];
+      for (std::size_t i = 0; i < f.columns.size(); ++i) order.push_back(i);
+      std::sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
+        return f.columns[a].name < f.columns[b].name;
+      });
     }
-  }
-  out += '"';
+    return out;
+  }();
+  return orders[static_cast<std::size_t>(form.table)];
 }
 
 }  // namespace
 
-void append_canonical_row_text(std::string& out, SQLite::Statement& s, const TableForm& form,
+void append_canonical_row_text(std::string& out, sqlite3_stmt* row, const TableForm& form,
                                const std::string& path) {
+  // One type look-up per column, no Column objects.
   out += '{';
   bool first = true;
   for (const std::size_t i : key_order(form)) {
     const Column& column = form.columns[i];
-    const SQLite::Column c = s.getColumn(static_cast<int>(i));
+    const int index = static_cast<int>(i);
+    const int type = sqlite3_column_type(row, index);
     const auto wrong_kind = [&] {
       damaged(path, std::string(form.name) + ": a value of the wrong kind in column " +
                         std::string(column.name));
     };
-    if (c.isNull()) {
+    if (type == SQLITE_NULL) {
       if (column.added_later) continue;
       if (!column.nullable) {
         damaged(path, std::string(form.name) + ": NULL in the non-null column " +
                           std::string(column.name));
       }
-    } else if (!c.isInteger() && !c.isFloat() && !c.isText()) {
+    } else if (type == SQLITE_BLOB) {
       damaged(path, std::string(form.name) + "." + std::string(column.name) + " holds a blob");
     }
     if (!first) out += ',';
@@ -133,37 +94,30 @@ void append_canonical_row_text(std::string& out, SQLite::Statement& s, const Tab
     out += '"';
     out += column.name;
     out += "\":";
-    if (c.isNull()) {
+    if (type == SQLITE_NULL) {
       out += "null";
       continue;
     }
     switch (column.type) {
       case ColumnType::Integer:
       case ColumnType::Boolean:
-        if (!c.isInteger()) wrong_kind();
-        out += std::to_string(c.getInt64());
+        if (type != SQLITE_INTEGER) wrong_kind();
+        audit::append_json_integer(out, sqlite3_column_int64(row, index));
         break;
-      case ColumnType::Real: {
-        if (!c.isFloat()) wrong_kind();
-        const double v = c.getDouble();
-        if (!std::isfinite(v)) {
-          out += "null";
-        } else {
-          std::array<char, 64> buffer{};
-          const char* end =
-              nlohmann::detail::to_chars(buffer.data(), buffer.data() + buffer.size(), v);
-          out.append(buffer.data(), static_cast<std::size_t>(end - buffer.data()));
-        }
+      case ColumnType::Real:
+        if (type != SQLITE_FLOAT) wrong_kind();
+        audit::append_json_real(out, sqlite3_column_double(row, index));
         break;
-      }
       case ColumnType::Text:
       case ColumnType::Instant:
       case ColumnType::Date:
-      case ColumnType::Json:
-        if (!c.isText()) wrong_kind();
-        append_json_string(out,
-                           std::string_view(c.getText(), static_cast<std::size_t>(c.getBytes())));
+      case ColumnType::Json: {
+        if (type != SQLITE_TEXT) wrong_kind();
+        const auto* text = reinterpret_cast<const char*>(sqlite3_column_text(row, index));
+        const auto bytes = static_cast<std::size_t>(sqlite3_column_bytes(row, index));
+        audit::append_json_string(out, std::string_view(text, bytes));
         break;
+      }
     }
   }
   out += '}';

@@ -29,7 +29,7 @@ nlohmann::json canonical_row(SQLite::Statement& s, const TableForm& form, const 
 /// Appends the current row of `s` (selected with select_of) as canonical JSON text: exactly
 /// canonical_row(...).dump(), written straight from the columns without building a JSON object
 /// (the hot path of `audit verify`). Same checks and errors as canonical_row.
-void append_canonical_row_text(std::string& out, SQLite::Statement& s, const TableForm& form,
+void append_canonical_row_text(std::string& out, sqlite3_stmt* s, const TableForm& form,
                                const std::string& path);
 
 /// The payload of an audit entry: {"table": [row, ...], ...}, tables sorted by name, rows by id,

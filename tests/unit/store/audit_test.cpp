@@ -291,6 +291,64 @@ TEST_CASE("audit: verify names the first entry that no longer holds", "[store][a
   }
 }
 
+TEST_CASE("audit: verify reports the first break in the trail's order when there are several",
+          "[store][audit]") {
+  // Links and hashes are checked apart from the rows (on a thread of their own): over a trail
+  // long enough for both to be under way at once, the earlier break still counts, and within one
+  // entry its hash comes before its rows.
+  Fixture f;
+  constexpr int kEntries = 300;
+  for (int i = 1; i <= kEntries; ++i) {
+    f.add_instrument("IC-" + std::to_string(i), utc(2026, 3, 1, 8));
+  }
+  RawDb raw(f.path);
+  REQUIRE(raw.exec("DROP TRIGGER audit_log_no_update; DROP TRIGGER instruments_no_update;") ==
+          SQLITE_OK);
+  const auto change_entry = [&](int seq) {
+    REQUIRE(raw.exec("UPDATE audit_log SET actor = 'mallory' WHERE seq = " + std::to_string(seq)) ==
+            SQLITE_OK);
+  };
+  const auto change_row = [&](int seq) {
+    REQUIRE(raw.exec("UPDATE instruments SET name = 'Other' WHERE audit_seq = " +
+                     std::to_string(seq)) == SQLITE_OK);
+  };
+
+  SECTION("a changed entry before a changed row") {
+    change_entry(5);
+    change_row(kEntries - 1);
+    const auto r = f.c->read()->audit().verify();
+    CHECK(r.first_broken == 5);
+    CHECK_THAT(r.problem, Catch::Contains("its hash does not match"));
+  }
+  SECTION("a changed row before a changed entry") {
+    change_row(5);
+    change_entry(kEntries - 1);
+    const auto r = f.c->read()->audit().verify();
+    CHECK(r.first_broken == 5);
+    CHECK_THAT(r.problem, Catch::Contains("row instruments id 5 differs from what was recorded"));
+  }
+  SECTION("an entry changed together with its row") {
+    change_row(200);
+    change_entry(200);
+    const auto r = f.c->read()->audit().verify();
+    CHECK(r.first_broken == 200);
+    CHECK_THAT(r.problem, Catch::Contains("its hash does not match"));
+  }
+  SECTION("a changed last entry") {
+    change_entry(kEntries);
+    const auto r = f.c->read()->audit().verify();
+    CHECK(r.first_broken == kEntries);
+    CHECK_THAT(r.problem, Catch::Contains("its hash does not match"));
+  }
+  SECTION("an intact trail of several batches") {
+    const auto r = f.c->read()->audit().verify();
+    CHECK(r.ok);
+    CHECK(r.entries == kEntries);
+    CHECK(r.head_hash ==
+          raw.text("SELECT hash FROM audit_log WHERE seq = " + std::to_string(kEntries)));
+  }
+}
+
 TEST_CASE("audit: verify writes awkward text and numbers exactly as the payload holds them",
           "[store][audit]") {
   // verify writes each row's canonical text straight from the columns; the payload was written
