@@ -144,7 +144,27 @@ bool in_supported_range(Instant t) {
 }
 
 std::string format_utc(Instant t) {
-  return date::format("%Y-%m-%dT%H:%M:%SZ", t);
+  // Written digit by digit: the hot path of every stored row and audit entry. Years outside
+  // 0000-9999 (never stored) go through date::format.
+  const auto day = date::floor<date::days>(t);
+  const date::year_month_day ymd{day};
+  const int year = static_cast<int>(ymd.year());
+  if (year < 0 || year > 9999) return date::format("%Y-%m-%dT%H:%M:%SZ", t);
+  const long seconds = static_cast<long>((t - day).count());
+  std::string out = "0000-00-00T00:00:00Z";
+  const auto put = [&out](std::size_t at, int value, int width) {
+    for (int i = width - 1; i >= 0; --i) {
+      out[at + static_cast<std::size_t>(i)] = static_cast<char>('0' + value % 10);
+      value /= 10;
+    }
+  };
+  put(0, year, 4);
+  put(5, static_cast<int>(static_cast<unsigned>(ymd.month())), 2);
+  put(8, static_cast<int>(static_cast<unsigned>(ymd.day())), 2);
+  put(11, static_cast<int>(seconds / 3600), 2);
+  put(14, static_cast<int>(seconds / 60 % 60), 2);
+  put(17, static_cast<int>(seconds % 60), 2);
+  return out;
 }
 
 CalendarDate parse_date(std::string_view raw, std::string_view what) {
