@@ -21,12 +21,26 @@ std::string to_hex(const unsigned char* digest, unsigned int length) {
   return out;
 }
 
+/// SHA-256 looked up once: EVP_sha256() makes every digest look the algorithm up again in
+/// OpenSSL 3, which costs as much as hashing an audit entry.
+const EVP_MD* sha256_md() {
+#if OPENSSL_VERSION_NUMBER >= 0x30000000L
+  static const EVP_MD* const md = [] {
+    const EVP_MD* fetched = EVP_MD_fetch(nullptr, "SHA256", nullptr);
+    return fetched != nullptr ? fetched : EVP_sha256();
+  }();
+  return md;
+#else
+  return EVP_sha256();
+#endif
+}
+
 }  // namespace
 
 std::string sha256_hex(std::string_view data) {
   std::array<unsigned char, EVP_MAX_MD_SIZE> digest{};
   unsigned int length = 0;
-  if (EVP_Digest(data.data(), data.size(), digest.data(), &length, EVP_sha256(), nullptr) != 1) {
+  if (EVP_Digest(data.data(), data.size(), digest.data(), &length, sha256_md(), nullptr) != 1) {
     throw std::runtime_error("SHA-256 computation failed");
   }
   return to_hex(digest.data(), length);
@@ -39,7 +53,7 @@ struct Sha256::Context {
 
 Sha256::Sha256() : context_(std::make_unique<Context>()) {
   context_->ctx = EVP_MD_CTX_new();
-  if (context_->ctx == nullptr || EVP_DigestInit_ex(context_->ctx, EVP_sha256(), nullptr) != 1) {
+  if (context_->ctx == nullptr || EVP_DigestInit_ex(context_->ctx, sha256_md(), nullptr) != 1) {
     EVP_MD_CTX_free(context_->ctx);
     throw std::runtime_error("SHA-256 initialisation failed");
   }

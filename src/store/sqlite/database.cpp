@@ -155,6 +155,11 @@ std::unique_ptr<Database> Database::open(const std::string& path, bool create, i
     }
   }
   d->read_only = !memory && exists(path) && cannot_write(path);
+  // No allocation statistics (nothing reads them): SQLite otherwise takes a global mutex around
+  // every allocation. Only possible before SQLite's first use in the process; later it is a
+  // no-op.
+  static const int configured = sqlite3_config(SQLITE_CONFIG_MEMSTATUS, 0);
+  static_cast<void>(configured);
   try {
     if (!d->read_only) {
       const int flags = SQLite::OPEN_READWRITE | (create ? SQLite::OPEN_CREATE : 0);
