@@ -2,30 +2,37 @@
 // Canonical serialisation and hashing of audit entries.
 #include "audit/audit_entry.h"
 
-#include <nlohmann/json.hpp>
-
+#include "audit/json_text.h"
 #include "audit/sha256.h"
 
 namespace cw::audit {
 
 std::string canonical_header(const AuditEntry& e) {
-  nlohmann::json header = nlohmann::json::array();
-  header.push_back(e.seq);
-  header.push_back(e.recorded_at);
-  header.push_back(e.occurred_at);
-  header.push_back(e.actor);
-  header.push_back(e.action);
-  header.push_back(e.entity_kind);
-  header.push_back(e.entity_id);
-  if (e.reason) {
-    header.push_back(*e.reason);
-  } else {
-    header.push_back(nullptr);
+  // The compact dump of a JSON array, written directly (one per entry written or verified).
+  std::string out;
+  out.reserve(160 + e.actor.size() + e.action.size() + e.entity_id.size() +
+              (e.reason ? e.reason->size() : 0));
+  out += '[';
+  out += std::to_string(e.seq);
+  for (const std::string* text :
+       {&e.recorded_at, &e.occurred_at, &e.actor, &e.action, &e.entity_kind, &e.entity_id}) {
+    out += ',';
+    append_json_string(out, *text);
   }
-  header.push_back(e.clock_overridden);
-  header.push_back(e.tool_version);
-  if (e.os_login) header.push_back(*e.os_login);
-  return header.dump();
+  out += ',';
+  if (e.reason) {
+    append_json_string(out, *e.reason);
+  } else {
+    out += "null";
+  }
+  out += e.clock_overridden ? ",true," : ",false,";
+  append_json_string(out, e.tool_version);
+  if (e.os_login) {
+    out += ',';
+    append_json_string(out, *e.os_login);
+  }
+  out += ']';
+  return out;
 }
 
 std::string compute_hash(const AuditEntry& e) {

@@ -11,6 +11,8 @@
 #include <stdexcept>
 #include <string_view>
 
+#include "audit/json_text.h"
+
 namespace cw::store::sqlite {
 
 std::string select_of(const TableForm& form, const std::string& tail) {
@@ -59,54 +61,6 @@ const std::vector<std::size_t>& key_order(const TableForm& form) {
     });
   }
   return it->second;
-}
-
-/// A string as nlohmann's dump writes it (ensure_ascii off): quotes, backslashes and control
-/// characters escaped. Text beyond ASCII goes through nlohmann itself (which also refuses
-/// invalid UTF-8, as the JSON objects did).
-void append_json_string(std::string& out, std::string_view text) {
-  static constexpr char kHex[] = "0123456789abcdef";
-  const bool ascii = std::all_of(text.begin(), text.end(),
-                                 [](char c) { return static_cast<unsigned char>(c) < 0x80; });
-  if (!ascii) {
-    out += nlohmann::json(std::string(text)).dump();
-    return;
-  }
-  out += '"';
-  for (const char c : text) {
-    switch (c) {
-      case '"':
-        out += "\\\"";
-        break;
-      case '\\':
-        out += "\\\\";
-        break;
-      case '\b':
-        out += "\\b";
-        break;
-      case '\f':
-        out += "\\f";
-        break;
-      case '\n':
-        out += "\\n";
-        break;
-      case '\r':
-        out += "\\r";
-        break;
-      case '\t':
-        out += "\\t";
-        break;
-      default:
-        if (static_cast<unsigned char>(c) <= 0x1F) {
-          out += "\\u00";
-          out += kHex[(static_cast<unsigned char>(c) >> 4) & 0xF];
-          out += kHex[static_cast<unsigned char>(c) & 0xF];
-        } else {
-          out += c;
-        }
-    }
-  }
-  out += '"';
 }
 
 }  // namespace
@@ -171,8 +125,8 @@ void append_canonical_row_text(std::string& out, SQLite::Statement& s, const Tab
       case ColumnType::Date:
       case ColumnType::Json: {
         if (type != SQLITE_TEXT) wrong_kind();
-        append_json_string(out,
-                           std::string_view(c.getText(), static_cast<std::size_t>(c.getBytes())));
+        audit::append_json_string(
+            out, std::string_view(c.getText(), static_cast<std::size_t>(c.getBytes())));
         break;
       }
     }
