@@ -3,6 +3,8 @@
 #include "audit/json_text.h"
 
 #include <algorithm>
+#include <array>
+#include <cmath>
 #include <nlohmann/json.hpp>
 
 namespace cw::audit {
@@ -50,6 +52,16 @@ void append_json_string(std::string& out, std::string_view text) {
     }
   }
   out += '"';
+}
+
+void append_json_number(std::string& out, double value) {
+  if (!std::isfinite(value)) {
+    out += "null";
+    return;
+  }
+  std::array<char, 64> buffer{};
+  const char* end = nlohmann::detail::to_chars(buffer.data(), buffer.data() + buffer.size(), value);
+  out.append(buffer.data(), static_cast<std::size_t>(end - buffer.data()));
 }
 
 }  // namespace cw::audit

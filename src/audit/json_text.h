@@ -12,4 +12,8 @@ namespace cw::audit {
 /// beyond ASCII goes through nlohmann itself (which also refuses invalid UTF-8).
 void append_json_string(std::string& out, std::string_view text);
 
+/// Appends `value` as a JSON number: the shortest text that reads back as the same double, as
+/// nlohmann writes it ("2.0", "0.0025", "1e-07"); null when it is not finite.
+void append_json_number(std::string& out, double value);
+
 }  // namespace cw::audit

@@ -109,15 +109,7 @@ void append_canonical_row_text(std::string& out, SQLite::Statement& s, const Tab
       }
       case ColumnType::Real: {
         if (type != SQLITE_FLOAT) wrong_kind();
-        const double v = c.getDouble();
-        if (!std::isfinite(v)) {
-          out += "null";
-        } else {
-          std::array<char, 64> buffer{};
-          const char* end =
-              nlohmann::detail::to_chars(buffer.data(), buffer.data() + buffer.size(), v);
-          out.append(buffer.data(), static_cast<std::size_t>(end - buffer.data()));
-        }
+        audit::append_json_number(out, c.getDouble());
         break;
       }
       case ColumnType::Text:
