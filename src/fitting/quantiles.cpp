@@ -1,8 +1,10 @@
 // SPDX-License-Identifier: Apache-2.0
 // Student-t and Fisher F quantiles; the only translation unit that sees Boost.Math.
+#include <array>
 #include <boost/math/distributions/fisher_f.hpp>
 #include <boost/math/distributions/students_t.hpp>
 #include <cmath>
+#include <cstddef>
 
 #include "fitting/fit.h"
 #include "fitting/number_format.h"
@@ -29,7 +31,23 @@ void check_dof(double dof) {
 double student_t_quantile(double p, double dof) {
   check_probability(p);
   check_dof(dof);
-  return boost::math::quantile(boost::math::students_t_distribution<double>(dof), p);
+  // Remembered per thread: a run's samples ask for the same few quantiles thousands of times,
+  // and Boost's inverse incomplete beta costs microseconds each time.
+  struct Remembered {
+    double p = 0;
+    double dof = 0;
+    double value = 0;
+  };
+  constexpr std::size_t kRemembered = 8;
+  thread_local std::array<Remembered, kRemembered> remembered{};
+  thread_local std::size_t next = 0;
+  for (const Remembered& r : remembered) {
+    if (r.p == p && r.dof == dof) return r.value;
+  }
+  const double value = boost::math::quantile(boost::math::students_t_distribution<double>(dof), p);
+  remembered[next] = {p, dof, value};
+  next = (next + 1) % kRemembered;
+  return value;
 }
 
 double f_quantile(double p, double dof1, double dof2) {

@@ -380,4 +380,26 @@ CalendarDate stored_date(const std::string& text, const std::string& where,
   }
 }
 
+std::string uncertainty_json(const ResultUncertainty& u) {
+  // Written as nlohmann's dump of {"combined", "components": [{"relative_u", "source"}],
+  // "expanded", "k"} writes it (the text every stored budget has).
+  std::string out = "{\"combined\":";
+  audit::append_json_real(out, u.combined);
+  out += ",\"components\":[";
+  for (std::size_t i = 0; i < u.components.size(); ++i) {
+    if (i > 0) out += ',';
+    out += "{\"relative_u\":";
+    audit::append_json_real(out, u.components[i].relative_u);
+    out += ",\"source\":";
+    audit::append_json_string(out, u.components[i].source);
+    out += '}';
+  }
+  out += "],\"expanded\":";
+  audit::append_json_real(out, u.expanded);
+  out += ",\"k\":";
+  audit::append_json_real(out, u.k);
+  out += '}';
+  return out;
+}
+
 }  // namespace cw::store::sqlite

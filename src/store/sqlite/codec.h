@@ -6,6 +6,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "domain/check.h"
 #include "domain/method.h"
 #include "domain/run.h"
 #include "fitting/acceptance.h"
@@ -14,6 +15,7 @@
 #include <string>
 #include <vector>
 
+#include "audit/json_text.h"
 #include "core/time.h"
 
 namespace cw::store::sqlite {
@@ -44,10 +46,16 @@ nlohmann::json parse_stored_json(const std::string& text, const std::string& whe
 /// A JSON array of the text forms of `values`.
 template <class E>
 std::string tokens_json(const std::vector<E>& values) {
-  nlohmann::json list = nlohmann::json::array();
-  for (const auto& v : values) list.push_back(std::string(to_string(v)));
-  return list.dump();
+  std::string out = "[";
+  for (const auto& v : values) {
+    if (out.size() > 1) out += ',';
+    audit::append_json_string(out, to_string(v));
+  }
+  return out + "]";
 }
+
+/// A result's uncertainty budget as stored: compact JSON, keys sorted.
+std::string uncertainty_json(const ResultUncertainty& u);
 
 /// Parses a stored enum token with `parse`; a StoreError naming `where` when it is unknown.
 template <class Parse>

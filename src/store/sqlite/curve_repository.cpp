@@ -696,16 +696,7 @@ ResultId SqliteCurves::add_result(const Result& r) {
     bind_opt_real(s, ":limit", r.reporting_limit);
     bind_opt_real(s, ":computed", r.computed_concentration);
     if (r.uncertainty) {
-      json components = json::array();
-      for (const auto& c : r.uncertainty->components) {
-        components.push_back({{"source", c.source}, {"relative_u", c.relative_u}});
-      }
-      bind_text(s, ":uncertainty",
-                json{{"components", components},
-                     {"combined", r.uncertainty->combined},
-                     {"expanded", r.uncertainty->expanded},
-                     {"k", r.uncertainty->k}}
-                    .dump());
+      bind_text(s, ":uncertainty", uncertainty_json(*r.uncertainty));
     } else {
       bind_opt_text(s, ":uncertainty", std::nullopt);
     }

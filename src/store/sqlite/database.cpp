@@ -155,6 +155,11 @@ std::unique_ptr<Database> Database::open(const std::string& path, bool create, i
     }
   }
   d->read_only = !memory && exists(path) && cannot_write(path);
+  // No allocation statistics (nothing reads them): SQLite otherwise takes a global mutex around
+  // every allocation. Only possible before SQLite's first use in the process; later it is a
+  // no-op.
+  static const int configured = sqlite3_config(SQLITE_CONFIG_MEMSTATUS, 0);
+  static_cast<void>(configured);
   try {
     // A connection serves one thread only: no per-call locking of the connection (every column
     // read takes a mutex otherwise, a tenth of a full scan such as `audit verify`).

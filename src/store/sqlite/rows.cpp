@@ -124,34 +124,46 @@ void append_canonical_row_text(std::string& out, sqlite3_stmt* row, const TableF
 }
 
 std::string PayloadBuilder::payload(const std::vector<std::pair<FactTable, std::int64_t>>& rows) {
-  std::map<std::string, std::pair<FactTable, std::vector<std::int64_t>>> by_table;
-  for (const auto& [table, id] : rows) {
-    auto& slot = by_table[std::string(table_name(table))];
-    slot.first = table;
-    slot.second.push_back(id);
-  }
-  nlohmann::json payload = nlohmann::json::object();
-  for (auto& [name, entry] : by_table) {
-    auto& [table, ids] = entry;
-    std::sort(ids.begin(), ids.end());
+  // Tables by name, rows by id: the order of the canonical JSON object's keys and of its arrays.
+  struct Named {
+    std::string_view name;
+    std::int64_t id;
+    FactTable table;
+  };
+  std::vector<Named> named;
+  named.reserve(rows.size());
+  for (const auto& [table, id] : rows) named.push_back({table_name(table), id, table});
+  std::sort(named.begin(), named.end(), [](const Named& a, const Named& b) {
+    return a.name != b.name ? a.name < b.name : a.id < b.id;
+  });
+  std::string out = "{";
+  for (std::size_t i = 0; i < named.size();) {
+    const std::string_view name = named[i].name;
+    const FactTable table = named[i].table;
     const TableForm& form = form_of(table);
     auto& select = by_id_[table];
     if (!select) {
       select = std::make_unique<SQLite::Statement>(*db_.db, select_of(form, " WHERE id = :id"));
     }
-    nlohmann::json list = nlohmann::json::array();
-    for (auto id : ids) {
+    if (out.size() > 1) out += ',';
+    out += '"';
+    out += name;
+    out += "\":[";
+    for (bool first = true; i < named.size() && named[i].name == name; ++i, first = false) {
       select->reset();
-      select->bind(":id", id);
+      select->bind(1, named[i].id);
       if (!select->executeStep()) {
-        throw std::logic_error("row " + name + "/" + std::to_string(id) + " vanished before audit");
+        throw std::logic_error("row " + std::string(name) + "/" + std::to_string(named[i].id) +
+                               " vanished before audit");
       }
-      list.push_back(canonical_row(*select, form, db_.path));
+      if (!first) out += ',';
+      append_canonical_row_text(out, select->getPreparedStatement(), form, db_.path);
     }
     select->reset();
-    payload[name] = std::move(list);
+    out += ']';
   }
-  return payload.dump();
+  out += '}';
+  return out;
 }
 
 }  // namespace cw::store::sqlite

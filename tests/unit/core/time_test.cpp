@@ -79,6 +79,18 @@ TEST_CASE("time: parse_instant accepts Z and numeric offsets", "[core]") {
 TEST_CASE("time: format_utc writes the stored form with Z", "[core]") {
   CHECK(cw::format_utc(utc(2026, 3, 2, 9, 0, 5)) == "2026-03-02T09:00:05Z");
   CHECK(cw::format_utc(cw::parse_instant("2026-03-29T03:00+02:00")) == "2026-03-29T01:00:00Z");
+  // Written digit by digit: the same text as date::format over the supported years, leap days,
+  // the ends of days and times before 1970 included.
+  std::int64_t step = 0;
+  for (std::int64_t s = -62135596800; s <= 253402300799; s += 86400 * 97 + 3607 + step++ % 53) {
+    const cw::Instant t{std::chrono::seconds(s)};
+    INFO(s);
+    CHECK(cw::format_utc(t) == date::format("%Y-%m-%dT%H:%M:%SZ", t));
+  }
+  for (const char* text :
+       {"2028-02-29T23:59:59Z", "1969-12-31T23:59:59Z", "2000-01-01T00:00:00Z"}) {
+    CHECK(cw::format_utc(cw::parse_instant(text)) == text);
+  }
 }
 
 TEST_CASE("time: the stored form is read and written like the date library does, 0001 to 9999",

@@ -6,6 +6,8 @@
 // is written out by hand from the layout documented in src/audit/audit_entry.h, and SHA-256 is
 // computed with OpenSSL's EVP interface directly (not with audit::compute_hash / sha256_hex).
 #include <catch2/catch.hpp>
+#include <nlohmann/json.hpp>
+#include <optional>
 #include <stdexcept>
 #include <string>
 
@@ -79,6 +81,40 @@ TEST_CASE("audit: sha256_hex matches the FIPS 180-2 test vectors", "[store][audi
   CHECK(cw::audit::sha256_hex("") ==
         "e3b0c44298fc1c149afbf4c8996fb92427ae41e4649b934ca495991b7852b855");
   CHECK(evp_sha256_hex("abc") == cw::audit::sha256_hex("abc"));
+}
+
+TEST_CASE("audit: the canonical header is the compact JSON dump of its fields, awkward text too",
+          "[store][audit]") {
+  // Written by hand for speed: it must stay byte for byte what nlohmann's dump() writes.
+  cw::audit::AuditEntry e;
+  e.seq = 9007199254740993;
+  e.recorded_at = "2026-12-01T12:00:00Z";
+  e.occurred_at = "2026-11-30T23:59:59Z";
+  e.actor = "Zoë \"Q\" O'Brien\\lab";
+  e.action = "result.report";
+  e.entity_kind = "result";
+  e.entity_id = std::string("tab\tnew\nline\rcr\bbs\fff\x01\x1f\x7f") + "\xe2\x82\xac";
+  e.tool_version = "0.9.0";
+  for (const bool overridden : {false, true}) {
+    for (const auto& reason :
+         {std::optional<std::string>(), std::optional<std::string>("re: \u00b5g/L")}) {
+      for (const auto& login :
+           {std::optional<std::string>(), std::optional<std::string>("analyst")}) {
+        e.clock_overridden = overridden;
+        e.reason = reason;
+        e.os_login = login;
+        nlohmann::json expected = nlohmann::json::array(
+            {e.seq, e.recorded_at, e.occurred_at, e.actor, e.action, e.entity_kind, e.entity_id});
+        expected.push_back(reason ? nlohmann::json(*reason) : nlohmann::json(nullptr));
+        expected.push_back(overridden);
+        expected.push_back(e.tool_version);
+        if (login) expected.push_back(*login);
+        CHECK(cw::audit::canonical_header(e) == expected.dump());
+      }
+    }
+  }
+  e.actor = "\xff\xfe";  // not UTF-8: refused as nlohmann refuses it
+  CHECK_THROWS(cw::audit::canonical_header(e));
 }
 
 TEST_CASE("audit: a write transaction commits its rows together with their entry",
