@@ -143,7 +143,7 @@ std::string PayloadBuilder::payload(const std::vector<std::pair<FactTable, std::
     const TableForm& form = form_of(table);
     auto& select = by_id_[table];
     if (!select) {
-      select = std::make_unique<SQLite::Statement>(*db_.db, select_of(form, " WHERE id = :id"));
+      select = std::make_unique<Scan>(*db_.db, select_of(form, " WHERE id = :id"));
     }
     if (out.size() > 1) out += ',';
     out += '"';
@@ -152,12 +152,12 @@ std::string PayloadBuilder::payload(const std::vector<std::pair<FactTable, std::
     for (bool first = true; i < named.size() && named[i].name == name; ++i, first = false) {
       select->reset();
       select->bind(1, named[i].id);
-      if (!select->executeStep()) {
+      if (!select->step()) {
         throw std::logic_error("row " + std::string(name) + "/" + std::to_string(named[i].id) +
                                " vanished before audit");
       }
       if (!first) out += ',';
-      append_canonical_row_text(out, select->getPreparedStatement(), form, db_.path);
+      append_canonical_row_text(out, select->row(), form, db_.path);
     }
     select->reset();
     out += ']';

@@ -16,6 +16,7 @@
 #include "store/fact_table.h"
 #include "store/row_form.h"
 #include "store/sqlite/database.h"
+#include "store/sqlite/scan.h"
 
 namespace cw::store::sqlite {
 
@@ -41,7 +42,7 @@ class PayloadBuilder {
 
  private:
   Database& db_;
-  std::map<FactTable, std::unique_ptr<SQLite::Statement>> by_id_;
+  std::map<FactTable, std::unique_ptr<Scan>> by_id_;
 };
 
 }  // namespace cw::store::sqlite

@@ -24,4 +24,13 @@ bool Scan::step() {
   throw SQLite::Exception(db_, rc);
 }
 
+void Scan::reset() {
+  sqlite3_reset(statement_);
+}
+
+void Scan::bind(int index, std::int64_t value) {
+  const int rc = sqlite3_bind_int64(statement_, index, value);
+  if (rc != SQLITE_OK) throw SQLite::Exception(db_, rc);
+}
+
 }  // namespace cw::store::sqlite
