@@ -44,8 +44,9 @@ namespace cw::test {
 using EnvOverrides = std::map<std::string, std::optional<std::string>>;
 
 /// How long one run may take before the harness kills it (a hang fails the test, it does not
-/// stall the suite).
-inline constexpr std::chrono::seconds kRunTimeout{120};
+/// stall the suite). The longest legitimate run is the 100 000-row import on PostgreSQL (one
+/// round trip per statement: about 100 s on a loaded 2-core machine), hence the margin.
+inline constexpr std::chrono::seconds kRunTimeout{300};
 
 /// What one run of the binary produced.
 struct RunResult {
