@@ -261,8 +261,35 @@ LabZone LabZone::system_default() {
 }
 
 std::string LabZone::format_local(Instant t) const {
-  const auto zoned = date::make_zoned(zone_, t);
-  return date::format("%Y-%m-%d %H:%M %Ez", zoned);
+  const date::sys_info info = zone_->get_info(t);
+  const Instant local{t + info.offset};                  // the wall clock, read as if it were UTC
+  const auto offset_minutes = info.offset.count() / 60;  // truncated, as %Ez writes it
+  if (!in_supported_range(t) || !in_supported_range(local) || offset_minutes <= -24 * 60 ||
+      offset_minutes >= 24 * 60) {
+    return date::format("%Y-%m-%d %H:%M %Ez", date::make_zoned(zone_, t));
+  }
+  // Written digit by digit: the rules engine words every finding with the lab's local time.
+  const auto day = std::chrono::floor<date::days>(local);
+  const date::year_month_day ymd{day};
+  const date::hh_mm_ss<std::chrono::seconds> tod{local - day};
+  std::string out(23, ' ');
+  const auto year = static_cast<unsigned>(static_cast<int>(ymd.year()));
+  put2(out.data(), year / 100);
+  put2(out.data() + 2, year % 100);
+  out[4] = '-';
+  put2(out.data() + 5, static_cast<unsigned>(ymd.month()));
+  out[7] = '-';
+  put2(out.data() + 8, static_cast<unsigned>(ymd.day()));
+  put2(out.data() + 11, static_cast<unsigned>(tod.hours().count()));
+  out[13] = ':';
+  put2(out.data() + 14, static_cast<unsigned>(tod.minutes().count()));
+  const auto magnitude =
+      static_cast<unsigned>(offset_minutes < 0 ? -offset_minutes : offset_minutes);
+  out[17] = info.offset.count() < 0 ? '-' : '+';
+  put2(out.data() + 18, magnitude / 60);
+  out[20] = ':';
+  put2(out.data() + 21, magnitude % 60);
+  return out;
 }
 
 CalendarDate LabZone::local_date(Instant t) const {

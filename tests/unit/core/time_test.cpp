@@ -131,6 +131,53 @@ TEST_CASE("time: the stored form is read and written like the date library does,
   CHECK(cw::format_utc(before) == date::format("%Y-%m-%dT%H:%M:%SZ", before));
 }
 
+TEST_CASE("time: format_local writes what the date library writes, in zones of every kind",
+          "[core]") {
+  // Reference: the date library's zoned formatting (%Y-%m-%d %H:%M %Ez), which format_local's
+  // digit-by-digit path must match: whole-hour, half-hour and 45-minute offsets, negative ones,
+  // +14:00, DST, and the local mean times of the 19th century whose offsets have seconds.
+  std::uint64_t x = 2463534242ULL;  // xorshift64, a fixed sequence
+  const auto next = [&x] {
+    x ^= x << 13;
+    x ^= x >> 7;
+    x ^= x << 17;
+    return x;
+  };
+  const cw::Instant first{date::sys_days{date::year{1} / 1 / 2}};
+  const cw::Instant last{date::sys_days{date::year{9999} / 12 / 30}};
+  const auto span = static_cast<std::uint64_t>((last - first).count());
+  const char* zones[] = {"UTC",
+                         "Europe/Berlin",
+                         "America/New_York",
+                         "Asia/Kolkata",
+                         "Australia/Eucla",
+                         "America/St_Johns",
+                         "Pacific/Kiritimati",
+                         "Europe/Amsterdam",
+                         "Africa/Monrovia",
+                         "America/Sao_Paulo"};
+  for (const char* name : zones) {
+    const LabZone zone = LabZone::named(name);
+    std::vector<cw::Instant> moments{first, last, utc(1900, 1, 1), utc(2026, 3, 29, 1),
+                                     utc(2026, 11, 1, 6)};
+    for (int i = 0; i < 3000; ++i) {
+      moments.push_back(first + std::chrono::seconds{static_cast<long>(next() % (span + 1))});
+      // and as many in the years of real zone history
+      moments.push_back(utc(1850, 1, 1) +
+                        std::chrono::seconds{static_cast<long>(next() % (200ULL * 366 * 86400))});
+    }
+    for (const cw::Instant t : moments) {
+      INFO(name << " " << date::format("%FT%TZ", t));
+      REQUIRE(zone.format_local(t) ==
+              date::format("%Y-%m-%d %H:%M %Ez", date::make_zoned(zone.zone(), t)));
+    }
+  }
+  CHECK(LabZone::named("Asia/Kolkata").format_local(utc(2026, 12, 1, 23, 59, 59)) ==
+        "2026-12-02 05:29 +05:30");
+  CHECK(LabZone::named("America/St_Johns").format_local(utc(2026, 1, 1, 2, 0)) ==
+        "2025-12-31 22:30 -03:30");
+}
+
 TEST_CASE("time: parse_instant refuses times without a zone and impossible times", "[core]") {
   struct Case {
     const char* text;
