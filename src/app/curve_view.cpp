@@ -19,7 +19,7 @@ CurveView make_view(FactSet& facts, CurveId id, const CurveStatus& status, Insta
 
 std::vector<CurveView> make_views(FactSet& facts, const std::vector<CurveId>& ids, Instant at,
                                   bool with_points) {
-  facts.load(ids, with_points);
+  facts.load(ids, with_points ? store::CurveDetail::Points : store::CurveDetail::Statistics);
   const auto states = facts.statuses(ids, at);
   std::vector<CurveView> out;
   out.reserve(ids.size());

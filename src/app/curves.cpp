@@ -340,7 +340,7 @@ std::vector<CurveView> list_curves(Session& s, const CurveListRequest& r) {
 CurveView show_curve(Session& s, CurveId id) {
   auto unit = s.read();
   FactSet facts(*unit, s.zone());
-  require_acquired(s.at(), facts.curve(id, /*with_points=*/true), s.zone());
+  require_acquired(s.at(), facts.curve(id, store::CurveDetail::Points), s.zone());
   return make_views(facts, {id}, s.at(), true).front();
 }
 

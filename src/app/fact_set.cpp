@@ -3,6 +3,7 @@
 #include "app/fact_set.h"
 
 #include <algorithm>
+#include <set>
 #include <tuple>
 
 #include "core/error.h"
@@ -11,10 +12,22 @@
 namespace cw::app {
 namespace {
 
-template <class Map, class Id>
-void add_missing(const Map& map, Id id, std::vector<Id>& out) {
-  if (!map.count(id) && std::find(out.begin(), out.end(), id) == out.end()) out.push_back(id);
-}
+/// Ids not yet in a map, each once, in the order first met (sets keep this linear in the
+/// thousands of ids `status` and `expiring` load).
+template <class Id>
+class Missing {
+ public:
+  template <class Map>
+  void add(const Map& map, Id id) {
+    if (!map.count(id) && seen_.insert(id).second) ids_.push_back(id);
+  }
+  const std::vector<Id>& ids() const { return ids_; }
+  bool empty() const { return ids_.empty(); }
+
+ private:
+  std::set<Id> seen_;
+  std::vector<Id> ids_;
+};
 
 [[noreturn]] void damaged_reference(const std::string& what) {
   throw StoreError("the store is damaged: " + what,
@@ -23,62 +36,70 @@ void add_missing(const Map& map, Id id, std::vector<Id>& out) {
 
 }  // namespace
 
-void FactSet::load(const std::vector<CurveId>& ids, bool with_points) {
+void FactSet::load(const std::vector<CurveId>& ids, store::CurveDetail detail) {
   std::vector<CurveId> wanted;
+  std::set<CurveId> seen;
   for (CurveId id : ids) {
-    const bool have = curves_.count(id) && (!with_points || with_points_.count(id));
-    if (!have && std::find(wanted.begin(), wanted.end(), id) == wanted.end()) wanted.push_back(id);
+    const auto have = detail_.find(id);
+    if (have != detail_.end() && have->second >= detail) continue;
+    if (seen.insert(id).second) wanted.push_back(id);
   }
   if (wanted.empty()) return;
   std::vector<CurveId> fresh;
-  for (auto& c : unit_.curves().curves(wanted, with_points)) {
+  for (auto& c : unit_.curves().curves(wanted, detail)) {
     const CurveId id = c.id;
-    if (with_points) with_points_.insert(id);
     if (auto it = curves_.find(id); it != curves_.end()) {
-      // Loaded before without points: add them, keeping the object others refer to.
-      it->second->points = std::move(c.points);
+      // Loaded before with less: complete it, keeping the object others refer to.
+      const store::CurveDetail had = detail_.at(id);
+      if (had < store::CurveDetail::Statistics) {
+        it->second->fit = std::move(c.fit);
+        it->second->acceptance = std::move(c.acceptance);
+      }
+      if (detail == store::CurveDetail::Points) it->second->points = std::move(c.points);
+      detail_[id] = detail;
       continue;
     }
     fresh.push_back(id);
+    detail_[id] = detail;
     curves_[id] = std::make_unique<Curve>(std::move(c));
   }
   if (fresh.empty()) return;
   for (auto& k : unit_.curves().checks_of(fresh)) checks_[k.curve_id].push_back(std::move(k));
-  std::vector<CalibrationId> calibrations;
-  std::vector<MethodId> methods;
-  std::vector<InstrumentId> instruments;
+  Missing<CalibrationId> calibrations;
+  Missing<MethodId> methods;
+  Missing<InstrumentId> instruments;
   for (CurveId id : fresh) {
     const Curve& c = *curves_.at(id);
-    add_missing(calibrations_, c.calibration_id, calibrations);
-    add_missing(methods_, c.method_id, methods);
-    add_missing(instruments_, c.instrument_id, instruments);
+    calibrations.add(calibrations_, c.calibration_id);
+    methods.add(methods_, c.method_id);
+    instruments.add(instruments_, c.instrument_id);
   }
   if (!calibrations.empty()) {
-    for (auto& k : unit_.curves().calibrations(calibrations)) {
+    for (auto& k : unit_.curves().calibrations(calibrations.ids())) {
       const CalibrationId id = k.id;
       calibrations_[id] = std::make_unique<Calibration>(std::move(k));
     }
   }
-  std::vector<LotId> lots;
-  for (CalibrationId id : calibrations) {
+  Missing<LotId> lots;
+  for (CalibrationId id : calibrations.ids()) {
     if (!calibrations_.count(id))
       damaged_reference("calibration " + std::to_string(id.value) + " is missing");
-    for (LotId lot : calibrations_.at(id)->lots) add_missing(lots_, lot, lots);
+    for (LotId lot : calibrations_.at(id)->lots) lots.add(lots_, lot);
   }
   if (!methods.empty()) {
-    for (auto& m : unit_.registry().methods(methods)) {
+    for (auto& m : unit_.registry().methods(methods.ids())) {
       const MethodId id = m.id;
       methods_[id] = std::make_unique<Method>(std::move(m));
     }
   }
   if (!instruments.empty()) {
-    for (auto& i : unit_.registry().instruments(instruments)) {
+    for (auto& i : unit_.registry().instruments(instruments.ids())) {
       const InstrumentId id = i.id;
       instruments_[id] = std::make_unique<Instrument>(std::move(i));
     }
   }
   if (!lots.empty()) {
-    for (auto& l : unit_.registry().lots(lots)) {
+    for (auto& l : unit_.registry().lots(lots.ids())) {
       const LotId id = l.id;
       lots_[id] = std::make_unique<Lot>(std::move(l));
     }
@@ -102,8 +123,8 @@ void FactSet::load(const std::vector<CurveId>& ids, bool with_points) {
   }
 }
 
-const Curve& FactSet::curve(CurveId id, bool with_points) {
-  load({id}, with_points);
+const Curve& FactSet::curve(CurveId id, store::CurveDetail detail) {
+  load({id}, std::max(detail, store::CurveDetail::Statistics));
   auto it = curves_.find(id);
   if (it == curves_.end()) {
     throw NotFoundError("no curve " + std::to_string(id.value),
@@ -145,9 +166,14 @@ const Calibration& FactSet::calibration(CalibrationId id) {
 }
 
 const rules::CurveFacts& FactSet::facts(CurveId id) {
+  curve(id);
+  return state_facts(id);
+}
+
+const rules::CurveFacts& FactSet::state_facts(CurveId id) {
   auto& slot = facts_[id];
   if (!slot) {
-    const Curve& c = curve(id);
+    const Curve& c = *curves_.at(id);
     auto f = std::make_unique<rules::CurveFacts>();
     f->curve = &c;
     f->method = &method(c.method_id);
@@ -190,8 +216,10 @@ CurveStatus FactSet::status(CurveId id, Instant at) {
 }
 
 std::map<CurveId, CurveStatus> FactSet::statuses(const std::vector<CurveId>& ids, Instant at) {
-  load(ids);
-  for (CurveId id : ids) curve(id);  // NotFoundError for an unknown id
+  load(ids, store::CurveDetail::State);
+  for (CurveId id : ids) {
+    if (!curves_.count(id)) curve(id);  // NotFoundError for an unknown id
+  }
   // One query per group: the live curves acquired since the group's oldest curve asked about.
   using Group = std::tuple<MethodId, InstrumentId, std::string>;
   std::map<Group, Instant> oldest;
@@ -210,16 +238,16 @@ std::map<CurveId, CurveStatus> FactSet::statuses(const std::vector<CurveId>& ids
     all.insert(all.end(), live.begin(), live.end());
     members[g] = std::move(live);
   }
-  load(all);
+  load(all, store::CurveDetail::State);
   std::map<CurveId, CurveStatus> out;
   for (CurveId id : ids) {
-    const rules::CurveFacts& own = facts(id);
+    const rules::CurveFacts& own = state_facts(id);
     std::vector<const rules::CurveFacts*> newer;
     const Curve& c = *own.curve;
     if (c.acquired_at <= at) {
       for (CurveId other : members[{c.method_id, c.instrument_id, c.analyte}]) {
         const Curve& o = *curves_.at(other);
-        if (other != id && o.acquired_at >= c.acquired_at) newer.push_back(&facts(other));
+        if (other != id && o.acquired_at >= c.acquired_at) newer.push_back(&state_facts(other));
       }
     }
     out.emplace(id, rules::evaluate(own, at, zone_, newer));

@@ -5,7 +5,6 @@
 
 #include <map>
 #include <memory>
-#include <set>
 #include <string>
 #include <tuple>
 #include <vector>
@@ -21,12 +20,15 @@ class FactSet {
   FactSet(store::ReadUnit& unit, const LabZone& zone) : unit_(unit), zone_(zone) {}
 
   /// Loads the curves and everything their state needs in a handful of queries, whatever their
-  /// number (one more per group whose method names trend rules: the group's checks); with
-  /// `with_points` their calibration points too. Unknown ids are skipped.
-  void load(const std::vector<CurveId>& ids, bool with_points = false);
+  /// number (one more per group whose method names trend rules: the group's checks), with as
+  /// much of each curve as `detail` asks. Unknown ids are skipped.
+  void load(const std::vector<CurveId>& ids,
+            store::CurveDetail detail = store::CurveDetail::Statistics);
 
-  /// The curve (loaded on demand); NotFoundError naming it when there is none.
-  const Curve& curve(CurveId id, bool with_points = false);
+  /// The curve with at least its statistics (loaded on demand); NotFoundError naming it when
+  /// there is none.
+  const Curve& curve(CurveId id, store::CurveDetail detail = store::CurveDetail::Statistics);
+  /// The facts of a curve whose statistics are loaded.
   const rules::CurveFacts& facts(CurveId id);
   const Method& method(MethodId id);
   const Instrument& instrument(InstrumentId id);
@@ -44,11 +46,16 @@ class FactSet {
 
  private:
   std::vector<CurveId> newer_live_in_group(const Curve& c, Instant at);
+  /// The facts of a loaded curve as they are: its statistics may be absent (what the rules
+  /// engine reads does not include them).
+  const rules::CurveFacts& state_facts(CurveId id);
 
   store::ReadUnit& unit_;
   const LabZone& zone_;
+  /// Every curve loaded, with how much of it: the state of many curves is decided without
+  /// their statistics; those shown are completed in place (CurveFacts point at them).
   std::map<CurveId, std::unique_ptr<Curve>> curves_;
-  std::set<CurveId> with_points_;
+  std::map<CurveId, store::CurveDetail> detail_;
   std::map<CurveId, std::vector<Check>> checks_;
   std::map<MethodId, std::unique_ptr<Method>> methods_;
   std::map<InstrumentId, std::unique_ptr<Instrument>> instruments_;

@@ -16,14 +16,13 @@ namespace {
 
 std::vector<ExpiringCurve> active_expiring(store::ReadUnit& unit, FactSet& facts,
                                            const LabZone& zone, Instant now, Instant to) {
-  std::vector<CurveId> candidates;
-  for (CurveId id : unit.curves().expiring_between(now, to)) candidates.push_back(id);
-  facts.load(candidates);
+  // The state of every candidate is decided without its fit statistics; only the active ones
+  // are read in full to be shown. (Active implies acquired by `now` and not yet expired.)
+  const std::vector<CurveId> candidates = unit.curves().expiring_between(now, to);
+  const auto states = facts.statuses(candidates, now);
   std::vector<CurveId> ids;
   for (CurveId id : candidates) {
-    const Curve& c = facts.curve(id);
-    if (c.expires_at <= now || c.acquired_at > now) continue;
-    ids.push_back(id);
+    if (states.at(id).state == CurveState::Active) ids.push_back(id);
   }
   std::vector<ExpiringCurve> out;
   for (auto& v : make_views(facts, ids, now)) {
@@ -114,7 +113,7 @@ ResultTrace trace_result(Session& s, ResultId id) {
   if (result->instrument_id) t.instrument = facts.instrument(*result->instrument_id);
   if (result->curve_id) {
     const CurveId cid = *result->curve_id;
-    facts.load({cid}, /*with_points=*/true);
+    facts.load({cid}, store::CurveDetail::Points);
     t.curve = make_views(facts, {cid}, result->occurred_at, true).front();
     t.calibration = facts.calibration(facts.curve(cid).calibration_id);
     t.method_version = facts.version_of(cid);
@@ -158,7 +157,7 @@ ResultTrace trace_result(Session& s, ResultId id) {
 CurveTrace trace_curve(Session& s, CurveId id) {
   auto unit = s.read();
   FactSet facts(*unit, s.zone());
-  require_acquired(s.at(), facts.curve(id, true), s.zone());
+  require_acquired(s.at(), facts.curve(id, store::CurveDetail::Points), s.zone());
   CurveTrace t;
   t.curve = make_views(facts, {id}, s.at(), true).front();
   t.checks = facts.facts(id).checks;

@@ -22,7 +22,7 @@ void add_entries(store::ReadUnit& unit, const std::string& kind, const std::stri
 CurveReportFacts curve_report_facts(Session& s, CurveId id) {
   auto unit = s.read();
   FactSet facts(*unit, s.zone());
-  require_acquired(s.at(), facts.curve(id, true), s.zone());
+  require_acquired(s.at(), facts.curve(id, store::CurveDetail::Points), s.zone());
   CurveReportFacts r;
   if (const auto settings = unit->registry().settings()) r.lab_name = settings->lab_name;
   r.view = make_views(facts, {id}, s.at(), true).front();

@@ -234,6 +234,7 @@ RunImportOutcome import_run(Session& s, const RunImportRequest& r) {
     AnalyteRun a;
     a.analyte = analyte;
     a.curve = *chosen;
+    facts.load(live);  // in one batch: the chosen curve and its newer ones are read in full
     a.facts = facts.facts(*chosen);
     for (CurveId other : live) {
       const Curve& o = facts.curve(other);

@@ -24,6 +24,13 @@ struct Refusal {
   Instant occurred_at;
 };
 
+/// How much of each curve `CurveReader::curves` reads; each level includes the one before.
+enum class CurveDetail {
+  State,       ///< what its state needs: the row, reviews, retirements (acceptance if rejected)
+  Statistics,  ///< and its fit statistics and acceptance (parsed from JSON: most of the cost)
+  Points,      ///< and its calibration points
+};
+
 struct CurveFilter {
   std::optional<MethodId> method;
   std::optional<InstrumentId> instrument;
@@ -48,9 +55,10 @@ class CurveReader {
 
   virtual std::optional<Calibration> calibration(CalibrationId id) = 0;
   virtual std::vector<Calibration> calibrations(const std::vector<CalibrationId>& ids) = 0;
-  /// Curves with reviews and retirements and, with `with_points`, their points; missing ids are
-  /// left out. One query per kind of row, whatever the number of ids.
-  virtual std::vector<Curve> curves(const std::vector<CurveId>& ids, bool with_points) = 0;
+  /// Curves with reviews and retirements and, as `detail` asks, their fit statistics (left
+  /// default-constructed otherwise) and points; missing ids are left out. One query per kind of
+  /// row, whatever the number of ids.
+  virtual std::vector<Curve> curves(const std::vector<CurveId>& ids, CurveDetail detail) = 0;
   /// Checks of the curves, each curve's in time order.
   virtual std::vector<Check> checks_of(const std::vector<CurveId>& ids) = 0;
   /// Checks (and blanks) of every curve of a method, instrument and analyte, in time order.

@@ -206,7 +206,7 @@ std::vector<Calibration> PgCurves::calibrations(const std::vector<CalibrationId>
   });
 }
 
-std::vector<Curve> PgCurves::curves(const std::vector<CurveId>& ids, bool with_points) {
+std::vector<Curve> PgCurves::curves(const std::vector<CurveId>& ids, CurveDetail detail) {
   return guarded(db_, [&] {
     std::vector<Curve> out;
     if (ids.empty()) return out;
@@ -230,10 +230,16 @@ std::vector<Curve> PgCurves::curves(const std::vector<CurveId>& ids, bool with_p
         c.failed_criteria = stored_enum_list(fitting::parse_criterion, s.getColumn(9).getString(),
                                              "curves.failed_criteria", db_.path);
         try {
-          c.fit = fit_from_json(
-              parse_stored_json(s.getColumn(10).getString(), "curves.statistics", db_.path));
-          c.acceptance = acceptance_from_json(
-              parse_stored_json(s.getColumn(11).getString(), "curves.acceptance", db_.path));
+          if (detail != CurveDetail::State) {
+            c.fit = fit_from_json(
+                parse_stored_json(s.getColumn(10).getString(), "curves.statistics", db_.path));
+          }
+          // A rejected curve's state is worded with its failed criteria; an accepted one's
+          // acceptance (its warnings) is shown only with its statistics.
+          if (detail != CurveDetail::State || c.verdict == Verdict::Rejected) {
+            c.acceptance = acceptance_from_json(
+                parse_stored_json(s.getColumn(11).getString(), "curves.acceptance", db_.path));
+          }
         } catch (const nlohmann::json::exception& e) {
           damaged(db_.path, "the statistics of " + where + " do not read back (" + e.what() + ")");
         }
@@ -246,7 +252,7 @@ std::vector<Curve> PgCurves::curves(const std::vector<CurveId>& ids, bool with_p
     const auto curve_at = [&](Statement& s) -> Curve& {
       return out[index.at(CurveId{s.getColumn(0).getInt64()})];
     };
-    if (with_points) {
+    if (detail == CurveDetail::Points) {
       auto& s = db_.statement(sql::kPointsOf);
       bind_ids(s, ":ids", ids);
       while (s.executeStep()) {

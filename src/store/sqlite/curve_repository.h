@@ -28,7 +28,7 @@ class SqliteCurves final : public CurveReader, public CurveWriter {
 
   std::optional<Calibration> calibration(CalibrationId id) override;
   std::vector<Calibration> calibrations(const std::vector<CalibrationId>& ids) override;
-  std::vector<Curve> curves(const std::vector<CurveId>& ids, bool with_points) override;
+  std::vector<Curve> curves(const std::vector<CurveId>& ids, CurveDetail detail) override;
   std::vector<Check> checks_of(const std::vector<CurveId>& ids) override;
   std::vector<Check> checks_of_group(MethodId method, InstrumentId instrument,
                                      const std::string& analyte) override;

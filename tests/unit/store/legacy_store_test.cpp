@@ -53,7 +53,8 @@ TEST_CASE("store: a store of the previous version opens and verifies with its he
   CHECK(unit->registry().settings()->time_zone == "Europe/Berlin");
   CHECK(unit->registry().methods().front().versions.size() == 2);
   CHECK(unit->registry().lot("CRM-AN-0419")->withdrawal.has_value());
-  const auto curves = unit->curves().curves({cw::CurveId{1}, cw::CurveId{3}}, true);
+  const auto curves =
+      unit->curves().curves({cw::CurveId{1}, cw::CurveId{3}}, cw::store::CurveDetail::Points);
   REQUIRE(curves.size() == 2);
   CHECK(curves[0].verdict == cw::Verdict::Accepted);
   CHECK(curves[0].reviews.size() == 1);
