@@ -3,6 +3,7 @@
 #include "app/queries.h"
 
 #include <algorithm>
+#include <tuple>
 
 #include "app/curves.h"
 #include "app/registry.h"
@@ -14,28 +15,44 @@
 namespace cw::app {
 namespace {
 
-std::vector<ExpiringCurve> active_expiring(store::ReadUnit& unit, FactSet& facts,
-                                           const LabZone& zone, Instant now, Instant to) {
-  // The state of every candidate is decided without its fit statistics; only the active ones
-  // are read in full to be shown. (Active implies acquired by `now` and not yet expired.)
+// `chunk_size` candidates share one FactSet: memory stays bounded however many curves a busy
+// store has expiring in the window. The candidates come group by group, so a group's live
+// curves and checks are read once (twice for the group a chunk boundary splits); each chunk's
+// states are exact, as statuses() reads the groups it needs.
+std::vector<ExpiringCurve> active_expiring(store::ReadUnit& unit, const LabZone& zone, Instant now,
+                                           Instant to, std::size_t chunk_size) {
+  chunk_size = std::max<std::size_t>(chunk_size, 1);
   const std::vector<CurveId> candidates = unit.curves().expiring_between(now, to);
-  const auto states = facts.statuses(candidates, now);
-  std::vector<CurveId> ids;
-  for (CurveId id : candidates) {
-    if (states.at(id).state == CurveState::Active) ids.push_back(id);
-  }
   std::vector<ExpiringCurve> out;
-  for (auto& v : make_views(facts, ids, now)) {
-    if (v.status.state != CurveState::Active) continue;
-    ExpiringCurve e;
-    const CurveExpiry expiry =
-        expiry_of(v.curve.acquired_at, v.version, facts.lots_of(v.curve.id), zone);
-    e.limited_by = expiry.limiting_lot != nullptr
-                       ? "lot " + expiry.limiting_lot->code + " expiry"
-                       : "valid for " + to_string(v.version.definition.calibration.valid_for);
-    e.curve = std::move(v);
-    out.push_back(std::move(e));
+  for (std::size_t begin = 0; begin < candidates.size(); begin += chunk_size) {
+    const std::vector<CurveId> chunk(
+        candidates.begin() + static_cast<std::ptrdiff_t>(begin),
+        candidates.begin() +
+            static_cast<std::ptrdiff_t>(std::min(candidates.size(), begin + chunk_size)));
+    FactSet facts(unit, zone);
+    // The state of every candidate is decided without its fit statistics; only the active ones
+    // are read in full to be shown. (Active implies acquired by `now` and not yet expired.)
+    const auto states = facts.statuses(chunk, now);
+    std::vector<CurveId> ids;
+    for (CurveId id : chunk) {
+      if (states.at(id).state == CurveState::Active) ids.push_back(id);
+    }
+    for (auto& v : make_views(facts, ids, now)) {
+      if (v.status.state != CurveState::Active) continue;
+      ExpiringCurve e;
+      const CurveExpiry expiry =
+          expiry_of(v.curve.acquired_at, v.version, facts.lots_of(v.curve.id), zone);
+      e.limited_by = expiry.limiting_lot != nullptr
+                         ? "lot " + expiry.limiting_lot->code + " expiry"
+                         : "valid for " + to_string(v.version.definition.calibration.valid_for);
+      e.curve = std::move(v);
+      out.push_back(std::move(e));
+    }
   }
+  std::sort(out.begin(), out.end(), [](const ExpiringCurve& a, const ExpiringCurve& b) {
+    return std::tie(a.curve.curve.expires_at, a.curve.curve.id) <
+           std::tie(b.curve.curve.expires_at, b.curve.curve.id);
+  });  // soonest first
   return out;
 }
 
@@ -51,8 +68,7 @@ ExpiringOutcome expiring(Session& s, const ExpiringRequest& r) {
     out.to = add_duration(now, r.within.value_or(Duration{7, Duration::Unit::Days}), s.zone());
   }
   auto unit = s.read();
-  FactSet facts(*unit, s.zone());
-  out.curves = active_expiring(*unit, facts, s.zone(), std::max(now, out.from), out.to);
+  out.curves = active_expiring(*unit, s.zone(), std::max(now, out.from), out.to, r.chunk);
   return out;
 }
 
@@ -60,12 +76,12 @@ std::vector<InstrumentStatus> status_board(Session& s) {
   const Instant now = s.at();
   const Instant week = add_duration(now, Duration{7, Duration::Unit::Days}, s.zone());
   auto unit = s.read();
-  FactSet facts(*unit, s.zone());
   // The week's expiring curves of the whole lab, found once and shared out by instrument.
   const std::vector<ExpiringCurve> expiring_week =
-      active_expiring(*unit, facts, s.zone(), now, week);
+      active_expiring(*unit, s.zone(), now, week, ExpiringRequest{}.chunk);
   std::vector<InstrumentStatus> out;
   for (const auto& instrument : unit->registry().instruments()) {
+    FactSet facts(*unit, s.zone());  // one instrument's live curves at a time
     InstrumentStatus st;
     st.instrument = instrument;
     for (CurveState state : kAllCurveStates) st.counts[state] = 0;

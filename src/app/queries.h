@@ -19,6 +19,9 @@ namespace cw::app {
 struct ExpiringRequest {
   bool this_week = false;
   std::optional<Duration> within;  ///< default 7 days
+  /// How many candidates are evaluated together: bounds memory whatever the window holds (the
+  /// answer does not depend on it; tests vary it).
+  std::size_t chunk = 512;
 };
 struct ExpiringCurve {
   CurveView curve;

@@ -78,7 +78,8 @@ class CurveReader {
   virtual std::optional<CurveId> latest_in_group(MethodId method, InstrumentId instrument,
                                                  const std::string& analyte, Instant by,
                                                  bool accepted_only) = 0;
-  /// Curves whose expiry moment lies in [from, to), soonest first.
+  /// Curves whose expiry moment lies in [from, to), group by group (method, instrument,
+  /// analyte), each group's soonest first.
   virtual std::vector<CurveId> expiring_between(Instant from, Instant to) = 0;
   /// Curves of an instrument acquired by `t` whose expiry is after `t`.
   virtual std::vector<CurveId> live_of_instrument(InstrumentId instrument, Instant t) = 0;

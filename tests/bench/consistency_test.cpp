@@ -10,6 +10,7 @@
 #include <filesystem>
 #include <map>
 #include <memory>
+#include <tuple>
 
 #include "app/fact_set.h"
 #include "app/queries.h"
@@ -68,6 +69,17 @@ TEST_CASE("status and expiring: equal to the rules engine applied curve by curve
     cw::app::Session s = session_at(o.location, at);
     const auto board = cw::app::status_board(s);
     const auto expiring = cw::app::expiring(s, {});
+    // The same, evaluated a few candidates at a time (groups split across chunks): compared
+    // below with the default's list, order included.
+    std::vector<std::vector<cw::CurveId>> chunked;
+    for (const std::size_t chunk : {1, 3, 17}) {
+      cw::app::ExpiringRequest small;
+      small.chunk = chunk;
+      chunked.emplace_back();
+      for (const auto& e : cw::app::expiring(s, small).curves) {
+        chunked.back().push_back(e.curve.curve.id);
+      }
+    }
 
     // The same questions, answered one curve at a time by the rules engine.
     auto unit = s.read();
@@ -118,6 +130,13 @@ TEST_CASE("status and expiring: equal to the rules engine applied curve by curve
     }
     std::vector<cw::CurveId> got;
     for (const auto& e : expiring.curves) got.push_back(e.curve.curve.id);
+    for (const auto& in_chunks : chunked) CHECK(in_chunks == got);
+    // Soonest first, ties by id, whatever order the candidates were evaluated in.
+    CHECK(std::is_sorted(expiring.curves.begin(), expiring.curves.end(),
+                         [](const auto& a, const auto& b) {
+                           return std::tie(a.curve.curve.expires_at, a.curve.curve.id) <
+                                  std::tie(b.curve.curve.expires_at, b.curve.curve.id);
+                         }));
     std::sort(got.begin(), got.end());
     std::sort(expected_expiring.begin(), expected_expiring.end());
     CHECK(got == expected_expiring);

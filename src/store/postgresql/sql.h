@@ -182,7 +182,7 @@ inline constexpr const char* kLatestAcceptedInGroup =
     "ORDER BY acquired_at DESC, id DESC LIMIT 1";
 inline constexpr const char* kCurvesExpiringBetween =
     "SELECT id FROM curves WHERE expires_at >= :from AND expires_at < :to "
-    "ORDER BY expires_at, id";
+    "ORDER BY method_id, instrument_id, analyte, expires_at, id";
 inline constexpr const char* kLiveOfInstrument =
     "SELECT id FROM curves WHERE instrument_id = :instrument AND expires_at > :t AND "
     "acquired_at <= :t ORDER BY acquired_at, id";
