@@ -10,6 +10,7 @@
 #include <sys/wait.h>
 #include <unistd.h>
 
+#include <algorithm>
 #include <catch2/catch.hpp>
 #include <chrono>
 #include <filesystem>
@@ -72,15 +73,22 @@ int reap(pid_t pid) {
 /// How long `args` takes when nothing interrupts it (on a copy of the store).
 double clean_seconds(const Lab& lab, const std::filesystem::path& base,
                      const std::vector<std::string>& args, const std::string& at) {
-  const auto db = lab.box.path("timing.db");
-  std::filesystem::copy_file(base, db);
-  const auto start = std::chrono::steady_clock::now();
-  const int code = reap(
-      spawn(args, lab.box.environment({{"CURVEWARDEN_DB", db.string()}, {"CURVEWARDEN_NOW", at}}),
-            lab.box.dir()));
-  const double s = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
-  REQUIRE(code == 0);
-  return s;
+  // The fastest of three uninterrupted runs: a run timed while the machine is busier than
+  // during the trials would put most kill moments after the command has finished.
+  double fastest = 0;
+  for (int run = 0; run < 3; ++run) {
+    const auto db = lab.box.path("timing-" + std::to_string(run) + ".db");
+    std::filesystem::copy_file(base, db);
+    const auto start = std::chrono::steady_clock::now();
+    const int code = reap(
+        spawn(args, lab.box.environment({{"CURVEWARDEN_DB", db.string()}, {"CURVEWARDEN_NOW", at}}),
+              lab.box.dir()));
+    const double s =
+        std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+    REQUIRE(code == 0);
+    fastest = run == 0 ? s : std::min(fastest, s);
+  }
+  return fastest;
 }
 
 /// The store at `db` is sound: integrity check, audit verify (the tool's own, on that file).
