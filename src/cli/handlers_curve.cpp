@@ -1,5 +1,6 @@
 // SPDX-License-Identifier: Apache-2.0
 // Handlers of the curve commands.
+#include "app/curve_listing.h"
 #include "app/curves.h"
 #include "cli/handlers.h"
 #include "core/clean_text.h"
@@ -73,13 +74,17 @@ int curve_list(Invocation& in) {
   r.instrument = in.optional_code("--instrument", "instrument code");
   r.analyte = in.optional_analyte("--analyte");
   auto s = in.open_session();
-  const auto list = app::list_curves(s, r);
-  if (in.json()) {
-    report::Json items = report::Json::array();
-    for (const auto& v : list) items.push_back(report::curve_list_item_json(v));
-    in.emit(report::Json{{"as_of", report::json_instant(s.at())}, {"curves", items}});
+  // Written as the batches are evaluated: the listing is never held whole.
+  app::CurveListing listing(s, r);
+  const report::CurveSource curves = [&](const auto& visit) { listing.each(visit); };
+  if (in.csv()) {
+    report::write_curve_list_csv(in.out(), curves);
+    in.document_printed();
+  } else if (in.json()) {
+    report::write_curve_list_json(in.out(), s.at(), curves);
+    in.document_printed();
   } else {
-    report::print_curve_list(in.out(), list, s.zone());
+    report::print_curve_list(in.out(), curves, s.zone());
   }
   return 0;
 }

@@ -2,6 +2,8 @@
 // Text and JSON views of curves: the fit report, the list, and the state with its reasons.
 #pragma once
 
+#include <cstddef>
+#include <functional>
 #include <ostream>
 #include <vector>
 
@@ -22,6 +24,18 @@ void print_calibration_header(std::ostream& out, const app::CurveView& first, co
                               CalibrationId id);
 void print_curve_list(std::ostream& out, const std::vector<app::CurveView>& list,
                       const LabZone& zone);
+
+/// Hands every curve of a listing to the visitor, in order; called again, it hands the same
+/// curves (app::CurveListing::each).
+using CurveSource = std::function<void(const std::function<void(const app::CurveView&)>&)>;
+/// `curve list`, written as the curves come rather than built whole: the table of
+/// print_curve_list() (at most kCurveRowsHeld rows are held to size its columns; a longer
+/// listing is read twice), the JSON document {as_of, curves: [curve_list_item_json...]} or its
+/// CSV rows.
+inline constexpr std::size_t kCurveRowsHeld = 10000;
+void print_curve_list(std::ostream& out, const CurveSource& curves, const LabZone& zone);
+void write_curve_list_json(std::ostream& out, Instant as_of, const CurveSource& curves);
+void write_curve_list_csv(std::ostream& out, const CurveSource& curves);
 /// "stale: method-revised, check-failed" and one indented line per reason with its facts.
 void print_status(std::ostream& out, const CurveStatus& status, const LabZone& zone,
                   int indent = 2);
