@@ -125,7 +125,7 @@ TEST_CASE("curve list: its batches give the states of the rules engine applied t
   o.methods = 6;
   o.entries_per_transaction = 300;
   const auto report = cw::bench::generate_store(o);
-  REQUIRE(report.curves > 2 * cw::app::CurveListing::kBatch);
+  REQUIRE(report.curves > static_cast<std::int64_t>(2 * cw::app::CurveListing::kBatch));
 
   for (const char* moment : {"2026-12-01T12:00:00Z", "2026-10-15T08:00:00Z"}) {
     const cw::Instant at = cw::parse_instant(moment);
