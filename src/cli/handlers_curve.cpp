@@ -2,6 +2,7 @@
 // Handlers of the curve commands.
 #include "app/curve_listing.h"
 #include "app/curves.h"
+#include "cli/error_output.h"
 #include "cli/handlers.h"
 #include "core/clean_text.h"
 #include "core/error.h"
@@ -76,16 +77,24 @@ int curve_list(Invocation& in) {
   auto s = in.open_session();
   // Written as the batches are evaluated: the listing is never held whole.
   app::CurveListing listing(s, r);
-  const report::CurveSource curves = [&](const auto& visit) { listing.each(visit); };
-  if (in.csv()) {
-    report::write_curve_list_csv(in.out(), curves);
-    in.document_printed();
-  } else if (in.json()) {
-    report::write_curve_list_json(in.out(), s.at(), curves);
-    in.document_printed();
-  } else {
-    report::print_curve_list(in.out(), curves, s.zone());
+  if (!in.json()) {
+    report::print_curve_list(
+        in.out(), [&](const auto& visit) { listing.each(visit); }, s.zone());
+    return 0;
   }
+  using Format = report::CurveListWriter::Format;
+  report::CurveListWriter writer(in.out(), in.csv() ? Format::Csv : Format::Json, s.at());
+  try {
+    listing.each([&](const app::CurveView& v) { writer.add(v); });
+  } catch (const Error& e) {
+    if (!writer.begun()) throw;  // nothing written yet: the usual error report
+    // Curves were written: the document ends with the error as its last member.
+    writer.end(error_object(e));
+    in.document_printed();
+    return in.fail(e);
+  }
+  writer.end();
+  in.document_printed();
   return 0;
 }
 

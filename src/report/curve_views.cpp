@@ -3,6 +3,7 @@
 #include "report/curve_views.h"
 
 #include <cmath>
+#include <sstream>
 
 #include "core/text.h"
 #include "domain/quantitation.h"
@@ -432,20 +433,41 @@ void print_curve_list(std::ostream& out, const CurveSource& curves, const LabZon
   }
 }
 
-void write_curve_list_json(std::ostream& out, Instant as_of, const CurveSource& curves) {
-  out << "{\n  \"as_of\": " << json_instant(as_of).dump() << ",\n  \"curves\": [";
-  std::size_t count = 0;
-  curves([&](const app::CurveView& v) {
-    out << (count++ == 0 ? "\n" : ",\n");
-    write_json(out, curve_list_item_json(v), 4);
-  });
-  out << (count == 0 ? "]\n}\n" : "\n  ]\n}\n");
+CurveListWriter::CurveListWriter(std::ostream& out, Format format, Instant as_of)
+    : out_(out), format_(format), as_of_(as_of) {}
+
+void CurveListWriter::begin() {
+  if (begun_) return;
+  begun_ = true;
+  if (format_ == Format::Json) {
+    out_ << "{\n  \"as_of\": " << json_instant(as_of_).dump() << ",\n  \"curves\": [";
+  } else {
+    CsvWriter(out_, *csv_listing("curve list")).header();
+  }
 }
 
-void write_curve_list_csv(std::ostream& out, const CurveSource& curves) {
-  CsvWriter writer(out, *csv_listing("curve list"));
-  writer.header();
-  curves([&](const app::CurveView& v) { writer.row(curve_list_item_json(v)); });
+void CurveListWriter::add(const app::CurveView& v) {
+  begin();
+  if (format_ == Format::Json) {
+    out_ << (count_ == 0 ? "\n" : ",\n");
+    write_json(out_, curve_list_item_json(v), 4);
+  } else {
+    CsvWriter(out_, *csv_listing("curve list")).row(curve_list_item_json(v));
+  }
+  ++count_;
+}
+
+void CurveListWriter::end(const std::optional<Json>& error) {
+  begin();
+  if (format_ != Format::Json) return;
+  out_ << (count_ == 0 ? "]" : "\n  ]");
+  if (error) {
+    out_ << ",\n  \"error\": ";
+    std::ostringstream member;
+    write_json(member, *error, 2);
+    out_ << member.str().substr(2);  // the member's value starts on the key's line
+  }
+  out_ << "\n}\n";
 }
 
 }  // namespace cw::report
