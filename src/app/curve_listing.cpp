@@ -42,6 +42,9 @@ void CurveListing::each(const std::function<void(const CurveView&)>& visit) {
         from, from + static_cast<std::ptrdiff_t>(std::min(kBatch, ids_.size() - begin)));
     FactSet facts(*unit_, zone_);
     facts.load(batch);
+    in_batch_.clear();
+    for (CurveId id : batch) in_batch_.insert(id.value);
+    prepare_groups(facts, batch);
     for (CurveId id : batch) {
       const CurveStatus status = status_of(facts, id);
       if (state_ && status.state != *state_) continue;
@@ -57,33 +60,62 @@ CurveStatus CurveListing::status_of(FactSet& batch, CurveId id) {
   const Curve& c = *own.curve;
   std::vector<const rules::CurveFacts*> newer;
   if (c.acquired_at <= at_) {
-    for (CurveId other : superseding(c)) {
-      const rules::CurveFacts& o = kept_->facts(other);
+    for (CurveId other :
+         superseding_.at(std::make_tuple(c.method_id, c.instrument_id, c.analyte))) {
+      // A curve of another batch is loaded on first use and kept.
+      const rules::CurveFacts& o =
+          in_batch_.count(other.value) ? batch.facts(other) : kept_->facts(other);
       if (other != id && o.curve->acquired_at >= c.acquired_at) newer.push_back(&o);
     }
   }
   return rules::evaluate(own, at_, zone_, newer);
 }
 
-const std::vector<CurveId>& CurveListing::superseding(const Curve& c) {
-  Group group{c.method_id, c.instrument_id, c.analyte};
-  if (auto it = superseding_.find(group); it != superseding_.end()) return it->second;
-  // Only a live curve can be active at the moment; evaluate() takes the newest active one that
-  // is newer than the curve judged, so the order (newest first) is kept.
-  const auto live =
-      unit_->curves().live_in_group(c.method_id, c.instrument_id, c.analyte, std::nullopt, at_);
-  std::vector<CurveId> active;
-  {
-    FactSet facts(*unit_, zone_);
-    facts.load(live);
-    for (CurveId id : live) {
-      if (rules::evaluate(facts.facts(id), at_, zone_).state == CurveState::Active) {
-        active.push_back(id);
+void CurveListing::prepare_groups(FactSet& batch, const std::vector<CurveId>& ids) {
+  // The groups met for the first time: their live curves (only a live curve can be active at the
+  // moment) loaded together, about kBatch curves at a time, and evaluated supersession aside.
+  // evaluate() takes the newest active one that is newer than the curve judged, so the order
+  // (newest first) is kept.
+  std::vector<Group> groups;
+  std::vector<std::vector<CurveId>> lives;
+  std::size_t pending = 0;
+  const auto settle = [&] {
+    if (groups.empty()) return;
+    std::vector<CurveId> outside;  // the batch's own curves are loaded already
+    for (const auto& live : lives) {
+      for (CurveId id : live) {
+        if (!in_batch_.count(id.value)) outside.push_back(id);
       }
     }
+    FactSet facts(*unit_, zone_);
+    facts.load(outside);
+    for (std::size_t i = 0; i < groups.size(); ++i) {
+      std::vector<CurveId> active;
+      for (CurveId id : lives[i]) {
+        const rules::CurveFacts& f = in_batch_.count(id.value) ? batch.facts(id) : facts.facts(id);
+        if (rules::evaluate(f, at_, zone_).state == CurveState::Active) active.push_back(id);
+      }
+      superseding_.emplace(std::move(groups[i]), std::move(active));
+    }
+    groups.clear();
+    lives.clear();
+    pending = 0;
+  };
+  for (CurveId id : ids) {
+    const Curve& c = batch.curve(id);
+    Group group{c.method_id, c.instrument_id, c.analyte};
+    if (superseding_.count(group) ||
+        std::find(groups.begin(), groups.end(), group) != groups.end()) {
+      continue;
+    }
+    auto live =
+        unit_->curves().live_in_group(c.method_id, c.instrument_id, c.analyte, std::nullopt, at_);
+    pending += live.size();
+    groups.push_back(std::move(group));
+    lives.push_back(std::move(live));
+    if (pending >= kBatch) settle();  // at most about kBatch curves loaded besides the batch
   }
-  kept_->load(active);
-  return superseding_.emplace(std::move(group), std::move(active)).first->second;
+  settle();
 }
 
 }  // namespace cw::app

@@ -10,6 +10,7 @@
 #include <optional>
 #include <string>
 #include <tuple>
+#include <unordered_set>
 #include <vector>
 
 #include "app/curve_view.h"
@@ -29,7 +30,8 @@ struct CurveListRequest {
 /// The curves of a listing, visited in batches of at most kBatch curves: each batch's facts are
 /// loaded, its states evaluated and its views handed out, then dropped. What the batches share
 /// is kept per group (method, instrument, analyte): the group's curves that can supersede
-/// others (those active at the moment, supersession aside), a handful whatever its history.
+/// others (those active at the moment, supersession aside), a handful whatever its history,
+/// with their facts once a batch without them needs them.
 class CurveListing {
  public:
   static constexpr std::size_t kBatch = 256;
@@ -45,17 +47,20 @@ class CurveListing {
  private:
   using Group = std::tuple<MethodId, InstrumentId, std::string>;
 
+  /// Fills superseding_ for the groups of `ids` not met before.
+  void prepare_groups(FactSet& batch, const std::vector<CurveId>& ids);
   CurveStatus status_of(FactSet& batch, CurveId id);
-  const std::vector<CurveId>& superseding(const Curve& c);
 
   const LabZone& zone_;
   Instant at_;
   std::optional<CurveState> state_;
   std::unique_ptr<store::ReadUnit> unit_;
-  std::vector<CurveId> ids_;  ///< the candidates, in listing order
+  std::vector<CurveId> ids_;                   ///< the candidates, in listing order
+  std::unordered_set<std::int64_t> in_batch_;  ///< the ids of the batch being evaluated
   /// Per group: its curves active at the moment when supersession is left aside, newest first.
   std::map<Group, std::vector<CurveId>> superseding_;
-  std::unique_ptr<FactSet> kept_;  ///< the facts of the curves in superseding_
+  /// The facts of curves of superseding_ needed by a batch they are not part of.
+  std::unique_ptr<FactSet> kept_;
 };
 
 }  // namespace cw::app
