@@ -321,22 +321,6 @@ CurveLogOutcome log_calibration(Session& s, const CurveLogRequest& r) {
   return outcome;
 }
 
-std::vector<CurveView> list_curves(Session& s, const CurveListRequest& r) {
-  auto unit = s.read();
-  store::CurveFilter filter;
-  if (r.method) filter.method = get_method(*unit, *r.method).id;
-  if (r.instrument) filter.instrument = get_instrument(*unit, *r.instrument).id;
-  filter.analyte = r.analyte;
-  filter.acquired_by = s.at();
-  FactSet facts(*unit, s.zone());
-  std::vector<CurveView> out;
-  for (auto& v : make_views(facts, unit->curves().list(filter), s.at())) {
-    if (r.state && v.status.state != *r.state) continue;
-    out.push_back(std::move(v));
-  }
-  return out;
-}
-
 CurveView show_curve(Session& s, CurveId id) {
   auto unit = s.read();
   FactSet facts(*unit, s.zone());

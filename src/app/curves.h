@@ -1,6 +1,7 @@
 // SPDX-License-Identifier: Apache-2.0
-// Use cases of calibration curves: log (fit, judge, store), list, show, review, retire. Each
-// write decides inside its one transaction; the points file is read and fitted before it.
+// Use cases of calibration curves: log (fit, judge, store), show, review, retire (the listing is
+// curve_listing.h). Each write decides inside its one transaction; the points file is read and
+// fitted before it.
 #pragma once
 
 #include <optional>
@@ -50,13 +51,6 @@ FittedPoints fit_points_text(const std::string& file, const std::string& text,
 /// and stores the calibration with one curve per analyte (rejected curves too).
 CurveLogOutcome log_calibration(Session& s, const CurveLogRequest& request);
 
-struct CurveListRequest {
-  std::optional<CurveState> state;
-  std::optional<std::string> method;
-  std::optional<std::string> instrument;
-  std::optional<std::string> analyte;
-};
-std::vector<CurveView> list_curves(Session& s, const CurveListRequest& request);
 CurveView show_curve(Session& s, CurveId id);
 
 /// Second-person review (approve or reject) or retirement, decided by the transition table on

@@ -1,6 +1,8 @@
 // SPDX-License-Identifier: Apache-2.0
 // Handlers of the curve commands.
+#include "app/curve_listing.h"
 #include "app/curves.h"
+#include "cli/error_output.h"
 #include "cli/handlers.h"
 #include "core/clean_text.h"
 #include "core/error.h"
@@ -73,14 +75,26 @@ int curve_list(Invocation& in) {
   r.instrument = in.optional_code("--instrument", "instrument code");
   r.analyte = in.optional_analyte("--analyte");
   auto s = in.open_session();
-  const auto list = app::list_curves(s, r);
-  if (in.json()) {
-    report::Json items = report::Json::array();
-    for (const auto& v : list) items.push_back(report::curve_list_item_json(v));
-    in.emit(report::Json{{"as_of", report::json_instant(s.at())}, {"curves", items}});
-  } else {
-    report::print_curve_list(in.out(), list, s.zone());
+  // Written as the batches are evaluated: the listing is never held whole.
+  app::CurveListing listing(s, r);
+  if (!in.json()) {
+    report::print_curve_list(
+        in.out(), [&](const auto& visit) { listing.each(visit); }, s.zone());
+    return 0;
   }
+  using Format = report::CurveListWriter::Format;
+  report::CurveListWriter writer(in.out(), in.csv() ? Format::Csv : Format::Json, s.at());
+  try {
+    listing.each([&](const app::CurveView& v) { writer.add(v); });
+  } catch (const Error& e) {
+    if (!writer.begun()) throw;  // nothing written yet: the usual error report
+    // Curves were written: the document ends with the error as its last member.
+    writer.end(error_object(e));
+    in.document_printed();
+    return in.fail(e);
+  }
+  writer.end();
+  in.document_printed();
   return 0;
 }
 

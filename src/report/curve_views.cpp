@@ -3,9 +3,11 @@
 #include "report/curve_views.h"
 
 #include <cmath>
+#include <sstream>
 
 #include "core/text.h"
 #include "domain/quantitation.h"
+#include "report/csv.h"
 #include "report/numbers.h"
 #include "report/table.h"
 
@@ -376,35 +378,96 @@ void print_curve_report(std::ostream& out, const app::CurveView& v, const LabZon
   }
 }
 
+namespace {
+
+const std::vector<Table::Column>& curve_list_columns() {
+  static const std::vector<Table::Column> columns{{"id", Table::Align::Right},
+                                                  {"analyte"},
+                                                  {"method"},
+                                                  {"instrument"},
+                                                  {"acquired"},
+                                                  {"expires"},
+                                                  {"state"},
+                                                  {"reasons"}};
+  return columns;
+}
+
+std::vector<std::string> curve_list_row(const app::CurveView& v, const LabZone& zone) {
+  std::string reasons;
+  for (const auto& f : v.status.reasons)
+    reasons += (reasons.empty() ? "" : ", ") + std::string(to_string(f.reason));
+  if (v.status.cause && reasons.empty() && v.status.state == CurveState::Rejected) {
+    for (const auto& t : v.curve.failed_criteria) {
+      reasons += (reasons.empty() ? "" : ", ") + std::string(fitting::to_string(t));
+    }
+  }
+  return {std::to_string(v.curve.id.value),
+          v.curve.analyte,
+          v.method_code + " v" + std::to_string(v.version.version),
+          v.instrument_code,
+          zone.format_local(v.curve.acquired_at),
+          zone.format_local(v.curve.expires_at),
+          state_word(v.status),
+          reasons};
+}
+
+}  // namespace
+
 void print_curve_list(std::ostream& out, const std::vector<app::CurveView>& list,
                       const LabZone& zone) {
   if (list.empty()) {
     out << "No curves match.\n";
     return;
   }
-  Table t({{"id", Table::Align::Right},
-           {"analyte"},
-           {"method"},
-           {"instrument"},
-           {"acquired"},
-           {"expires"},
-           {"state"},
-           {"reasons"}});
-  for (const auto& v : list) {
-    std::string reasons;
-    for (const auto& f : v.status.reasons)
-      reasons += (reasons.empty() ? "" : ", ") + std::string(to_string(f.reason));
-    if (v.status.cause && reasons.empty() && v.status.state == CurveState::Rejected) {
-      for (const auto& t2 : v.curve.failed_criteria) {
-        reasons += (reasons.empty() ? "" : ", ") + std::string(fitting::to_string(t2));
-      }
-    }
-    t.add_row({std::to_string(v.curve.id.value), v.curve.analyte,
-               v.method_code + " v" + std::to_string(v.version.version), v.instrument_code,
-               zone.format_local(v.curve.acquired_at), zone.format_local(v.curve.expires_at),
-               state_word(v.status), reasons});
-  }
+  Table t(curve_list_columns());
+  for (const auto& v : list) t.add_row(curve_list_row(v, zone));
   t.print(out);
+}
+
+void print_curve_list(std::ostream& out, const CurveSource& curves, const LabZone& zone) {
+  const RowSource rows = [&](const RowSink& sink) {
+    curves([&](const app::CurveView& v) { sink(curve_list_row(v, zone)); });
+  };
+  if (print_table(out, curve_list_columns(), rows, kCurveRowsHeld) == 0) {
+    out << "No curves match.\n";
+  }
+}
+
+CurveListWriter::CurveListWriter(std::ostream& out, Format format, Instant as_of)
+    : out_(out), format_(format), as_of_(as_of) {}
+
+void CurveListWriter::begin() {
+  if (begun_) return;
+  begun_ = true;
+  if (format_ == Format::Json) {
+    out_ << "{\n  \"as_of\": " << json_instant(as_of_).dump() << ",\n  \"curves\": [";
+  } else {
+    CsvWriter(out_, *csv_listing("curve list")).header();
+  }
+}
+
+void CurveListWriter::add(const app::CurveView& v) {
+  begin();
+  if (format_ == Format::Json) {
+    out_ << (count_ == 0 ? "\n" : ",\n");
+    write_json(out_, curve_list_item_json(v), 4);
+  } else {
+    CsvWriter(out_, *csv_listing("curve list")).row(curve_list_item_json(v));
+  }
+  ++count_;
+}
+
+void CurveListWriter::end(const std::optional<Json>& error) {
+  begin();
+  if (format_ != Format::Json) return;
+  out_ << (count_ == 0 ? "]" : "\n  ]");
+  if (error) {
+    out_ << ",\n  \"error\": ";
+    std::ostringstream member;
+    write_json(member, *error, 2);
+    out_ << member.str().substr(2);  // the member's value starts on the key's line
+  }
+  out_ << "\n}\n";
 }
 
 }  // namespace cw::report

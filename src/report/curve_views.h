@@ -2,6 +2,9 @@
 // Text and JSON views of curves: the fit report, the list, and the state with its reasons.
 #pragma once
 
+#include <cstddef>
+#include <functional>
+#include <optional>
 #include <ostream>
 #include <vector>
 
@@ -22,6 +25,38 @@ void print_calibration_header(std::ostream& out, const app::CurveView& first, co
                               CalibrationId id);
 void print_curve_list(std::ostream& out, const std::vector<app::CurveView>& list,
                       const LabZone& zone);
+
+/// Hands every curve of a listing to the visitor, in order; called again, it hands the same
+/// curves (app::CurveListing::each).
+using CurveSource = std::function<void(const std::function<void(const app::CurveView&)>&)>;
+/// `curve list` as text, written as the curves come rather than built whole: the table of
+/// print_curve_list() (at most kCurveRowsHeld rows are held to size its columns; a longer
+/// listing is read twice). Nothing is printed before the first reading has ended.
+inline constexpr std::size_t kCurveRowsHeld = 10000;
+void print_curve_list(std::ostream& out, const CurveSource& curves, const LabZone& zone);
+
+/// `curve list --json` and `--csv`, written curve by curve: the document {as_of, curves:
+/// [curve_list_item_json...]}, or its CSV rows. Nothing is written before the first curve or
+/// end(), so that an error found before it leaves the output to the usual error report.
+class CurveListWriter {
+ public:
+  enum class Format { Json, Csv };
+  CurveListWriter(std::ostream& out, Format format, Instant as_of);
+  void add(const app::CurveView& v);
+  /// Ends the document; a JSON document ends with `error` as its last member when given.
+  void end(const std::optional<Json>& error = std::nullopt);
+  /// True once something has been written.
+  bool begun() const { return begun_; }
+
+ private:
+  void begin();
+
+  std::ostream& out_;
+  Format format_;
+  Instant as_of_;
+  bool begun_ = false;
+  std::size_t count_ = 0;
+};
 /// "stale: method-revised, check-failed" and one indented line per reason with its facts.
 void print_status(std::ostream& out, const CurveStatus& status, const LabZone& zone,
                   int indent = 2);

@@ -5,6 +5,7 @@
 
 #include <nlohmann/json.hpp>
 #include <optional>
+#include <ostream>
 #include <string>
 #include <vector>
 
@@ -27,6 +28,10 @@ template <class T>
 Json json_optional(const std::optional<T>& v) {
   return v ? Json(*v) : Json(nullptr);
 }
+/// Writes `j` as pretty JSON (2-space indent, like every document) starting `indent` spaces in,
+/// for documents written piece by piece (long listings).
+void write_json(std::ostream& out, const Json& j, int indent);
+
 /// A JSON array of the text forms of typed values (reasons, flags, criteria).
 template <class E>
 Json tokens(const std::vector<E>& values) {

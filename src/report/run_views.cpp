@@ -4,7 +4,6 @@
 
 #include <algorithm>
 #include <cmath>
-#include <sstream>
 
 #include "core/text.h"
 #include "report/curve_views.h"
@@ -73,18 +72,6 @@ std::string check_value_text(const Check& k, const std::string& unit) {
 }
 
 }  // namespace
-
-void write_json(std::ostream& out, const Json& j, int indent) {
-  const std::string pad(static_cast<std::size_t>(indent), ' ');
-  std::istringstream lines(dump(j));
-  std::string line;
-  bool first = true;
-  while (std::getline(lines, line)) {
-    if (!first) out << '\n';
-    out << pad << line;
-    first = false;
-  }
-}
 
 Json run_summary_json(const std::vector<RunAnalyteSummary>& summary) {
   Json j = Json::object();

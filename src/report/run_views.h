@@ -15,9 +15,6 @@
 
 namespace cw::report {
 
-/// Writes `j` as pretty JSON (2-space indent, like every document) starting `indent` spaces in.
-void write_json(std::ostream& out, const Json& j, int indent);
-
 Json run_summary_json(const std::vector<RunAnalyteSummary>& summary);
 Json run_list_item_json(const app::RunView& v);
 void print_run_list(std::ostream& out, const std::vector<app::RunView>& runs, const LabZone& zone);

@@ -45,6 +45,31 @@ void Table::print(std::ostream& out, int indent) const {
   for (const auto& row : rows_) emit(row);
 }
 
+std::size_t print_table(std::ostream& out, std::vector<Table::Column> columns,
+                        const RowSource& rows, std::size_t max_held, int indent) {
+  std::vector<std::size_t> widths(columns.size(), 0);
+  for (std::size_t i = 0; i < columns.size(); ++i) widths[i] = display_width(columns[i].header);
+  std::vector<std::vector<std::string>> held;
+  std::size_t count = 0;
+  rows([&](std::vector<std::string> cells) {
+    for (std::size_t i = 0; i < cells.size() && i < widths.size(); ++i) {
+      widths[i] = std::max(widths[i], display_width(cells[i]));
+    }
+    if (count < max_held) held.push_back(std::move(cells));
+    ++count;
+  });
+  if (count == 0) return 0;
+  StreamTable table(out, std::move(columns), std::move(widths), indent);
+  table.header();
+  if (count <= max_held) {
+    for (const auto& cells : held) table.row(cells);
+  } else {
+    std::vector<std::vector<std::string>>().swap(held);
+    rows([&](std::vector<std::string> cells) { table.row(cells); });
+  }
+  return count;
+}
+
 void StreamTable::header() {
   std::vector<std::string> cells;
   for (const auto& c : columns_) cells.push_back(c.header);

@@ -2,6 +2,8 @@
 // Plain-text tables for terminal output: a header row, aligned columns, no borders.
 #pragma once
 
+#include <cstddef>
+#include <functional>
 #include <ostream>
 #include <string>
 #include <vector>
@@ -43,6 +45,18 @@ class StreamTable {
   std::vector<std::size_t> widths_;
   int indent_;
 };
+
+/// Takes the rows of a table one at a time.
+using RowSink = std::function<void(std::vector<std::string> cells)>;
+/// Hands every row of a table to the sink, in order; called again, it hands the same rows.
+using RowSource = std::function<void(const RowSink&)>;
+
+/// Prints the rows of `rows` exactly as Table::print would (the header, then column widths that
+/// fit every row) while holding at most `max_held` rows: a longer table is read a second time
+/// and each row printed as it comes, with the widths found by the first reading. Prints nothing
+/// when there are no rows; returns how many there are.
+std::size_t print_table(std::ostream& out, std::vector<Table::Column> columns,
+                        const RowSource& rows, std::size_t max_held, int indent = 0);
 
 /// Display width of UTF-8 text (code points; good enough for the symbols we print).
 std::size_t display_width(const std::string& s);

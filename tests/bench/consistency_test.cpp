@@ -1,8 +1,8 @@
 // SPDX-License-Identifier: Apache-2.0
 // The fast paths of `status` and `expiring` (counts of settled curves grouped in the store, the
-// group's live curves read by expiry, the week's expiring curves shared out by instrument) give
-// the same answers as the rules engine applied to every curve one by one, on generated
-// histories of several seeds and at several moments.
+// group's live curves read by expiry, the week's expiring curves shared out by instrument) and
+// the batches of `curve list` give the same answers as the rules engine applied to every curve
+// one by one, on generated histories of several seeds and at several moments.
 #include <algorithm>
 #include <catch2/catch.hpp>
 #include <chrono>
@@ -12,6 +12,7 @@
 #include <memory>
 #include <tuple>
 
+#include "app/curve_listing.h"
 #include "app/fact_set.h"
 #include "app/queries.h"
 #include "app/session.h"
@@ -151,4 +152,76 @@ TEST_CASE("status and expiring: equal to the rules engine applied curve by curve
     CHECK(lab.size() >= 3);
   }
   CHECK(shown_expiring > 0);  // the comparison of statistics above is not vacuous
+}
+
+TEST_CASE("curve list: its batches give the states of the rules engine applied to all curves",
+          "[bench][consistency]") {
+  const auto seed = GENERATE(3u, 11u);
+  TempStore tmp;
+  cw::bench::GeneratorOptions o;
+  o.location = (tmp.dir / "lab.db").string();
+  o.curves = 700;  // several batches of cw::app::CurveListing::kBatch
+  o.seed = seed;
+  o.end = cw::parse_instant("2026-12-01T12:00:00Z");
+  o.days = 120;
+  o.instruments = 3;
+  o.methods = 6;
+  o.entries_per_transaction = 300;
+  const auto report = cw::bench::generate_store(o);
+  REQUIRE(report.curves > static_cast<std::int64_t>(2 * cw::app::CurveListing::kBatch));
+
+  for (const char* moment : {"2026-12-01T12:00:00Z", "2026-10-15T08:00:00Z"}) {
+    const cw::Instant at = cw::parse_instant(moment);
+    cw::app::Session s = session_at(o.location, at);
+    std::map<cw::CurveId, cw::CurveStatus> expected;
+    std::vector<cw::CurveId> order;
+    {
+      auto unit = s.read();
+      cw::app::FactSet facts(*unit, s.zone());
+      cw::store::CurveFilter all;
+      all.acquired_by = at;
+      order = unit->curves().list(all);
+      expected = facts.statuses(order, at);
+    }
+    std::map<cw::CurveState, long> listed;
+    std::vector<std::optional<cw::CurveState>> filters{std::nullopt};
+    for (cw::CurveState state : cw::kAllCurveStates) filters.push_back(state);
+    for (const auto& state : filters) {
+      INFO("seed " << seed << ", at " << moment << ", state "
+                   << (state ? std::string(cw::to_string(*state)) : "any"));
+      cw::app::CurveListRequest r;
+      r.state = state;
+      cw::app::CurveListing listing(s, r);
+      std::vector<cw::CurveId> want;
+      for (cw::CurveId id : order) {
+        if (!state || expected.at(id).state == *state) want.push_back(id);
+      }
+      for (int pass = 0; pass < 2; ++pass) {  // a second reading visits the same curves
+        std::vector<cw::CurveId> got;
+        listing.each([&](const cw::app::CurveView& v) {
+          got.push_back(v.curve.id);
+          const cw::CurveStatus& e = expected.at(v.curve.id);
+          INFO("curve " << v.curve.id.value);
+          CHECK(v.status.state == e.state);
+          REQUIRE(v.status.reasons.size() == e.reasons.size());
+          for (std::size_t i = 0; i < e.reasons.size(); ++i) {
+            CHECK(v.status.reasons[i].reason == e.reasons[i].reason);
+            CHECK(v.status.reasons[i].since == e.reasons[i].since);
+            CHECK(v.status.reasons[i].message == e.reasons[i].message);
+          }
+          CHECK(v.status.cause.has_value() == e.cause.has_value());
+          if (v.status.cause && e.cause) CHECK(v.status.cause->message == e.cause->message);
+          if (!state && pass == 0) listed[v.status.state] += 1;
+        });
+        CHECK(got == want);
+      }
+    }
+    // The histories are not trivial: superseded curves among them.
+    long superseded = 0;
+    for (const auto& [id, status] : expected) {
+      for (const auto& f : status.reasons) superseded += f.reason == cw::Reason::Superseded;
+    }
+    CHECK(superseded > 0);
+    CHECK(listed.size() >= 3);
+  }
 }
