@@ -41,7 +41,9 @@ void exec(sqlite3* db, const std::string& sql) {
 }
 
 void BM_AuditVerify(benchmark::State& state) {
-  auto store = cw::store::Store::open({g_store, false, 5000});
+  cw::store::OpenOptions options;
+  options.location = g_store;
+  auto store = cw::store::Store::open(options);
   // (No user counters: the CSV report wants the same counters on every benchmark.)
   for (auto _ : state) {
     auto unit = store->read();
