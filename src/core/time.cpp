@@ -62,6 +62,28 @@ void put2(char* out, unsigned v) {
   out[1] = static_cast<char>('0' + v % 10);
 }
 
+/// `YYYY-MM-DD?HH:MM:SS` (19 characters, `separator` between date and time) at `out`, for a
+/// moment of the years 0001 to 9999, written digit by digit: this runs for every instant bound
+/// to a statement or hashed, and for every finding the rules engine words.
+void put_date_time(char* out, Instant t, char separator) {
+  const auto day = std::chrono::floor<date::days>(t);
+  const date::year_month_day ymd{day};
+  const date::hh_mm_ss<std::chrono::seconds> tod{t - day};
+  const auto year = static_cast<unsigned>(static_cast<int>(ymd.year()));
+  put2(out, year / 100);
+  put2(out + 2, year % 100);
+  out[4] = '-';
+  put2(out + 5, static_cast<unsigned>(ymd.month()));
+  out[7] = '-';
+  put2(out + 8, static_cast<unsigned>(ymd.day()));
+  out[10] = separator;
+  put2(out + 11, static_cast<unsigned>(tod.hours().count()));
+  out[13] = ':';
+  put2(out + 14, static_cast<unsigned>(tod.minutes().count()));
+  out[16] = ':';
+  put2(out + 17, static_cast<unsigned>(tod.seconds().count()));
+}
+
 /// The stored form `YYYY-MM-DDTHH:MM:SSZ` read without the general parser (the store holds only
 /// this form, and reading it is on every row's path); nullopt when `s` is anything else or not
 /// a valid moment, which the general parser then reports.
@@ -182,25 +204,8 @@ bool in_supported_range(Instant t) {
 
 std::string format_utc(Instant t) {
   if (!in_supported_range(t)) return date::format("%Y-%m-%dT%H:%M:%SZ", t);
-  // Written digit by digit: this runs for every instant bound to a statement or hashed.
-  const auto day = std::chrono::floor<date::days>(t);
-  const date::year_month_day ymd{day};
-  const date::hh_mm_ss<std::chrono::seconds> tod{t - day};
-  std::string out(20, ' ');
-  const auto year = static_cast<unsigned>(static_cast<int>(ymd.year()));
-  put2(out.data(), year / 100);
-  put2(out.data() + 2, year % 100);
-  out[4] = '-';
-  put2(out.data() + 5, static_cast<unsigned>(ymd.month()));
-  out[7] = '-';
-  put2(out.data() + 8, static_cast<unsigned>(ymd.day()));
-  out[10] = 'T';
-  put2(out.data() + 11, static_cast<unsigned>(tod.hours().count()));
-  out[13] = ':';
-  put2(out.data() + 14, static_cast<unsigned>(tod.minutes().count()));
-  out[16] = ':';
-  put2(out.data() + 17, static_cast<unsigned>(tod.seconds().count()));
-  out[19] = 'Z';
+  std::string out(20, 'Z');
+  put_date_time(out.data(), t, 'T');
   return out;
 }
 
@@ -268,23 +273,12 @@ std::string LabZone::format_local(Instant t) const {
       offset_minutes >= 24 * 60) {
     return date::format("%Y-%m-%d %H:%M %Ez", date::make_zoned(zone_, t));
   }
-  // Written digit by digit: the rules engine words every finding with the lab's local time.
-  const auto day = std::chrono::floor<date::days>(local);
-  const date::year_month_day ymd{day};
-  const date::hh_mm_ss<std::chrono::seconds> tod{local - day};
+  // YYYY-MM-DD HH:MM:SS of the wall clock, its seconds then overwritten by the offset.
   std::string out(23, ' ');
-  const auto year = static_cast<unsigned>(static_cast<int>(ymd.year()));
-  put2(out.data(), year / 100);
-  put2(out.data() + 2, year % 100);
-  out[4] = '-';
-  put2(out.data() + 5, static_cast<unsigned>(ymd.month()));
-  out[7] = '-';
-  put2(out.data() + 8, static_cast<unsigned>(ymd.day()));
-  put2(out.data() + 11, static_cast<unsigned>(tod.hours().count()));
-  out[13] = ':';
-  put2(out.data() + 14, static_cast<unsigned>(tod.minutes().count()));
+  put_date_time(out.data(), local, ' ');
   const auto magnitude =
       static_cast<unsigned>(offset_minutes < 0 ? -offset_minutes : offset_minutes);
+  out[16] = ' ';
   out[17] = info.offset.count() < 0 ? '-' : '+';
   put2(out.data() + 18, magnitude / 60);
   out[20] = ':';
