@@ -70,7 +70,7 @@ struct PointJudgement {
 
 /// Outcome of the acceptance evaluation.
 struct Acceptance {
-  bool accepted;                           ///< no failures
+  bool accepted = false;                   ///< no failures
   std::vector<CriterionFinding> failures;  ///< criteria that reject the curve
   std::vector<CriterionFinding> warnings;  ///< failing levels within an accepted fraction
   std::vector<PointJudgement> points;      ///< per input point, input order

@@ -239,6 +239,8 @@ std::vector<Curve> PgCurves::curves(const std::vector<CurveId>& ids, CurveDetail
           if (detail != CurveDetail::State || c.verdict == Verdict::Rejected) {
             c.acceptance = acceptance_from_json(
                 parse_stored_json(s.getColumn(11).getString(), "curves.acceptance", db_.path));
+          } else {
+            c.acceptance.accepted = true;  // what the verdict says; its warnings left unread
           }
         } catch (const nlohmann::json::exception& e) {
           damaged(db_.path, "the statistics of " + where + " do not read back (" + e.what() + ")");
