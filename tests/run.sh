@@ -59,7 +59,7 @@ echo "== the unit and scenario suites under ASan + UBSan (build-asan/)"
 asan="$build-asan"
 cmake -S "$root" -B "$asan" -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCURVEWARDEN_WERROR=ON \
   -DCURVEWARDEN_BUILD_TESTS=ON -DCURVEWARDEN_SANITIZE=ON "${launcher[@]}" >/dev/null
-unit_targets=(cli_tests core_tests domain_tests fitting_tests import_tests plot_tests rules_tests
+unit_targets=(cli_tests core_tests domain_tests fitting_tests import_tests plot_tests report_tests rules_tests
   store_tests)
 cmake --build "$asan" -j "$jobs" --target curvewarden scenario_tests "${unit_targets[@]}"
 (cd "$asan" && ASAN_OPTIONS=detect_leaks=1:abort_on_error=0 \
