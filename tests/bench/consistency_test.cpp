@@ -43,21 +43,28 @@ cw::app::Session session_at(const std::string& location, cw::Instant at) {
   return cw::app::Session::open(spec);
 }
 
+/// A generated history of 120 days ending 2026-12-01 12:00 UTC, in `dir`.
+cw::bench::GeneratorOptions history(const std::filesystem::path& dir, unsigned seed,
+                                    std::int64_t curves, int instruments, int methods) {
+  cw::bench::GeneratorOptions o;
+  o.location = (dir / "lab.db").string();
+  o.curves = curves;
+  o.seed = seed;
+  o.end = cw::parse_instant("2026-12-01T12:00:00Z");
+  o.days = 120;
+  o.instruments = instruments;
+  o.methods = methods;
+  o.entries_per_transaction = 300;
+  return o;
+}
+
 }  // namespace
 
 TEST_CASE("status and expiring: equal to the rules engine applied curve by curve",
           "[bench][consistency]") {
   const auto seed = GENERATE(3u, 11u, 29u);
   TempStore tmp;
-  cw::bench::GeneratorOptions o;
-  o.location = (tmp.dir / "lab.db").string();
-  o.curves = 400;
-  o.seed = seed;
-  o.end = cw::parse_instant("2026-12-01T12:00:00Z");
-  o.days = 120;
-  o.instruments = 6;
-  o.methods = 12;
-  o.entries_per_transaction = 300;
+  const cw::bench::GeneratorOptions o = history(tmp.dir, seed, 400, 6, 12);
   const auto report = cw::bench::generate_store(o);
   REQUIRE(report.curves >= 200);
 
@@ -158,15 +165,8 @@ TEST_CASE("curve list: its batches give the states of the rules engine applied t
           "[bench][consistency]") {
   const auto seed = GENERATE(3u, 11u);
   TempStore tmp;
-  cw::bench::GeneratorOptions o;
-  o.location = (tmp.dir / "lab.db").string();
-  o.curves = 700;  // several batches of cw::app::CurveListing::kBatch
-  o.seed = seed;
-  o.end = cw::parse_instant("2026-12-01T12:00:00Z");
-  o.days = 120;
-  o.instruments = 3;
-  o.methods = 6;
-  o.entries_per_transaction = 300;
+  // 700 curves: several batches of cw::app::CurveListing::kBatch.
+  const cw::bench::GeneratorOptions o = history(tmp.dir, seed, 700, 3, 6);
   const auto report = cw::bench::generate_store(o);
   REQUIRE(report.curves > static_cast<std::int64_t>(2 * cw::app::CurveListing::kBatch));
 

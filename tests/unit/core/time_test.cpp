@@ -57,6 +57,17 @@ date::sys_days days_of(int y, unsigned mo, unsigned d) {
   return date::sys_days{date::year{y} / date::month{mo} / date::day{d}};
 }
 
+/// xorshift64: a fixed sequence of pseudo-random numbers from its seed.
+struct Xorshift {
+  std::uint64_t x;
+  std::uint64_t operator()() {
+    x ^= x << 13;
+    x ^= x >> 7;
+    x ^= x << 17;
+    return x;
+  }
+};
+
 }  // namespace
 
 // ------------------------------------------------------------------------ parse_instant
@@ -97,13 +108,7 @@ TEST_CASE("time: the stored form is read and written like the date library does,
           "[core]") {
   // Reference: Howard Hinnant's date library (date::format / date::parse), the general-purpose
   // library the fast paths of format_utc and parse_instant must agree with.
-  std::uint64_t x = 88172645463325252ULL;  // xorshift64, a fixed sequence
-  const auto next = [&x] {
-    x ^= x << 13;
-    x ^= x >> 7;
-    x ^= x << 17;
-    return x;
-  };
+  Xorshift next{88172645463325252ULL};
   const cw::Instant first{date::sys_days{date::year{1} / 1 / 1}};
   const cw::Instant last{date::sys_days{date::year{9999} / 12 / 31} + std::chrono::seconds{86399}};
   const auto span = static_cast<std::uint64_t>((last - first).count());
@@ -136,13 +141,7 @@ TEST_CASE("time: format_local writes what the date library writes, in zones of e
   // Reference: the date library's zoned formatting (%Y-%m-%d %H:%M %Ez), which format_local's
   // digit-by-digit path must match: whole-hour, half-hour and 45-minute offsets, negative ones,
   // +14:00, DST, and the local mean times of the 19th century whose offsets have seconds.
-  std::uint64_t x = 2463534242ULL;  // xorshift64, a fixed sequence
-  const auto next = [&x] {
-    x ^= x << 13;
-    x ^= x >> 7;
-    x ^= x << 17;
-    return x;
-  };
+  Xorshift next{2463534242ULL};
   const cw::Instant first{date::sys_days{date::year{1} / 1 / 2}};
   const cw::Instant last{date::sys_days{date::year{9999} / 12 / 30}};
   const auto span = static_cast<std::uint64_t>((last - first).count());
