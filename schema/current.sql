@@ -71,10 +71,6 @@ CREATE INDEX curves_by_instrument ON curves (instrument_id, expires_at);
 -- index curves_by_instrument_group
 CREATE INDEX curves_by_instrument_group ON curves (instrument_id, method_id, analyte);
 
--- index curves_by_instrument_settled
-CREATE INDEX curves_by_instrument_settled
-  ON curves (instrument_id, expires_at, verdict, calibration_id);
-
 -- index instrument_column_maps_by_audit_seq
 CREATE INDEX instrument_column_maps_by_audit_seq ON instrument_column_maps (audit_seq);
 
@@ -145,6 +141,10 @@ CREATE INDEX runs_by_audit_seq ON runs (audit_seq);
 
 -- index runs_by_sha256
 CREATE INDEX runs_by_sha256 ON runs (file_sha256);
+
+-- index settled_tallies_by_instrument
+CREATE INDEX settled_tallies_by_instrument
+  ON settled_tallies (instrument_id, effective_at, state, delta);
 
 -- index signature_failures_by_audit_seq
 CREATE INDEX signature_failures_by_audit_seq ON signature_failures (audit_seq);
@@ -503,6 +503,17 @@ CREATE TABLE schema_migrations (
   applied_at TEXT    NOT NULL
 ) STRICT;
 
+-- table settled_tallies
+CREATE TABLE settled_tallies (
+  instrument_id INTEGER NOT NULL REFERENCES instruments (id),
+  effective_at  TEXT    NOT NULL,
+  state         TEXT    NOT NULL
+                CHECK (state IN ('rejected', 'awaiting-review', 'stale', 'retired')),
+  delta         INTEGER NOT NULL CHECK (delta <> 0),
+  curve_id      INTEGER NOT NULL REFERENCES curves (id),
+  audit_seq     INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
+) STRICT;
+
 -- table signature_failures
 CREATE TABLE signature_failures (
   id          INTEGER PRIMARY KEY AUTOINCREMENT,
@@ -746,6 +757,14 @@ BEGIN SELECT RAISE(ABORT, 'schema_migrations is append-only: rows cannot be dele
 CREATE TRIGGER schema_migrations_no_update BEFORE UPDATE ON schema_migrations
 BEGIN SELECT RAISE(ABORT, 'schema_migrations is append-only: rows cannot be changed'); END;
 
+-- trigger settled_tallies_no_delete
+CREATE TRIGGER settled_tallies_no_delete BEFORE DELETE ON settled_tallies
+BEGIN SELECT RAISE(ABORT, 'settled_tallies is append-only: rows cannot be deleted'); END;
+
+-- trigger settled_tallies_no_update
+CREATE TRIGGER settled_tallies_no_update BEFORE UPDATE ON settled_tallies
+BEGIN SELECT RAISE(ABORT, 'settled_tallies is append-only: rows cannot be changed'); END;
+
 -- trigger signature_failures_no_delete
 CREATE TRIGGER signature_failures_no_delete BEFORE DELETE ON signature_failures
 BEGIN SELECT RAISE(ABORT, 'signature_failures is append-only: rows cannot be deleted'); END;
@@ -786,4 +805,4 @@ BEGIN SELECT RAISE(ABORT, 'users is append-only: rows cannot be deleted'); END;
 CREATE TRIGGER users_no_update BEFORE UPDATE ON users
 BEGIN SELECT RAISE(ABORT, 'users is append-only: rows cannot be changed'); END;
 
-PRAGMA user_version = 8;
+PRAGMA user_version = 9;

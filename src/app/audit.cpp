@@ -19,6 +19,7 @@ VerifyOutcome verify_audit(Session& s) {
   out.missing_guards = s.store().missing_guards();
   auto unit = s.read();
   out.chain = unit->audit().verify();
+  if (out.chain.ok) out.derived_problem = unit->curves().settled_tallies_disagreement();
   return out;
 }
 
@@ -30,16 +31,20 @@ VerifyOutcome backup(Session& s, const std::string& destination) {
     o.location = destination;
     auto copy = store::Store::open(o);
     out.missing_guards = copy->missing_guards();
-    out.chain = copy->read()->audit().verify();
+    auto unit = copy->read();
+    out.chain = unit->audit().verify();
+    if (out.chain.ok) out.derived_problem = unit->curves().settled_tallies_disagreement();
   }
-  if (!out.chain.ok || !out.missing_guards.empty()) {
+  if (!out.ok()) {
     std::error_code ec;
     for (const char* suffix : {"", "-wal", "-shm"}) {
       std::filesystem::remove(destination + suffix, ec);
     }
     throw StoreError(
         "the copy of '" + s.location() + "' does not verify (" +
-            (out.chain.ok ? std::string("append-only guards missing") : out.chain.problem) +
+            (!out.chain.ok         ? out.chain.problem
+             : out.derived_problem ? "derived counts of settled curves: " + *out.derived_problem
+                                   : std::string("append-only guards missing")) +
             "); it was removed",
         "run 'curvewarden audit verify' on the store itself");
   }

@@ -15,8 +15,12 @@ std::vector<audit::AuditEntry> audit_log(Session& s, const store::AuditFilter& f
 struct VerifyOutcome {
   store::VerifyReport chain;                ///< the hash chain and every fact row
   std::vector<std::string> missing_guards;  ///< append-only triggers that are gone
+  /// Where the derived counts of settled curves (what `status` adds up) disagree with the facts;
+  /// only looked at when the chain holds.
+  std::optional<std::string> derived_problem;
+  bool ok() const { return chain.ok && missing_guards.empty() && !derived_problem; }
 };
-/// Verifies the chain and checks the append-only guards.
+/// Verifies the chain, checks the append-only guards and the derived counts of settled curves.
 VerifyOutcome verify_audit(Session& s);
 
 /// Copies the session's store to the new file `destination` while others may write (one

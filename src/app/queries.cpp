@@ -85,12 +85,10 @@ std::vector<InstrumentStatus> status_board(Session& s) {
     InstrumentStatus st;
     st.instrument = instrument;
     for (CurveState state : kAllCurveStates) st.counts[state] = 0;
-    // Curves whose expiry moment has passed are counted from the facts that decide their state,
-    // grouped in the store; the rules engine names the state of each group.
-    for (const auto& g : unit->curves().settled_groups(instrument.id, now)) {
-      const rules::SettledFacts f{g.verdict, g.rejected_by_review, g.retired, g.review_required,
-                                  g.reviewed};
-      st.counts[rules::settled_state(f)] += g.count;
+    // Curves whose expiry moment has passed are counted from the tally steps the store appends
+    // as their facts arrive (domain/settled_state.h), not decided again one by one.
+    for (const auto& [state, n] : unit->curves().settled_counts(instrument.id, now)) {
+      st.counts[state] += n;
     }
     const auto live = unit->curves().live_of_instrument(instrument.id, now);
     for (const auto& [id, status] : facts.statuses(live, now)) st.counts[status.state] += 1;

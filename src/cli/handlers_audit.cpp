@@ -118,6 +118,13 @@ int audit_verify(Invocation& in) {
                                       "from a backup made before, and compare"));
     }
   }
+  if (r.derived_problem) {
+    return in.fail(StoreError(
+        "the derived counts of settled curves disagree with the stored facts: " +
+            *r.derived_problem,
+        "the facts and their trail are intact; 'curvewarden store copy' builds the counts again "
+        "from the facts on the copy (use the copy), or restore the store from a backup"));
+  }
   if (!r.missing_guards.empty()) {
     std::string list;
     for (const auto& g : r.missing_guards) list += (list.empty() ? "" : ", ") + g;

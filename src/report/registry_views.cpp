@@ -393,8 +393,10 @@ void print_audit_log(std::ostream& out, const std::vector<audit::AuditEntry>& en
 Json verify_json(const app::VerifyOutcome& o) {
   const store::VerifyReport& r = o.chain;
   return Json{{"entries", r.entries},
-              {"ok", r.ok && o.missing_guards.empty()},
+              {"ok", o.ok()},
               {"chain_intact", r.ok},
+              {"derived_intact", r.ok ? Json(!o.derived_problem) : Json(nullptr)},
+              {"derived_problem", o.derived_problem ? Json(*o.derived_problem) : Json(nullptr)},
               {"first_broken", json_optional(r.first_broken)},
               {"problem", r.ok ? Json(nullptr) : Json(r.problem)},
               {"head_hash", r.ok ? Json(r.head_hash) : Json(nullptr)},
@@ -412,6 +414,11 @@ void print_verify(std::ostream& out, const app::VerifyOutcome& o) {
   } else {
     out << "AUDIT TRAIL BROKEN at entry "
         << (r.first_broken ? std::to_string(*r.first_broken) : "?") << ": " << r.problem << "\n";
+  }
+  if (o.derived_problem) {
+    out << "DERIVED COUNTS DISAGREE WITH THE FACTS: the counts of settled curves that status adds "
+           "up do not match the stored facts ("
+        << *o.derived_problem << ").\n";
   }
   if (!o.missing_guards.empty()) {
     out << "APPEND-ONLY GUARDS MISSING (" << o.missing_guards.size()

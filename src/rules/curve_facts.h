@@ -41,20 +41,6 @@ struct CurveFacts {
 CurveStatus evaluate(const CurveFacts& facts, Instant at, const LabZone& zone,
                      const std::vector<const CurveFacts*>& newer_in_group = {});
 
-/// What decides the state of a curve whose expiry moment lies at or before the moment asked
-/// about (a "settled" curve): it can no longer be active, and only these facts choose between
-/// rejected, retired, awaiting-review and stale.
-struct SettledFacts {
-  Verdict verdict = Verdict::Accepted;
-  bool rejected_by_review = false;  ///< a reviewer rejected it at or before the moment
-  bool retired = false;             ///< retired at or before the moment
-  bool review_required = false;     ///< its method version requires review
-  bool reviewed = false;            ///< reviewed (either way) at or before the moment
-};
-
-/// The state of a settled curve; the same precedence as evaluate().
-CurveState settled_state(const SettledFacts& facts);
-
 /// The instant from which the curve was usable: acquisition, or approval when the method
 /// requires review (nullopt while it is rejected, unreviewed or retired at `at`).
 std::optional<Instant> usable_from(const CurveFacts& facts, Instant at);

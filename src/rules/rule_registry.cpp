@@ -77,15 +77,6 @@ std::optional<Instant> usable_from(const CurveFacts& f, Instant at) {
   return std::max(c.acquired_at, review->occurred_at);
 }
 
-CurveState settled_state(const SettledFacts& f) {
-  // The precedence of evaluate() below, for a curve whose expiry moment has passed (so at least
-  // the expired reason holds and it cannot be active).
-  if (f.verdict == Verdict::Rejected || f.rejected_by_review) return CurveState::Rejected;
-  if (f.retired) return CurveState::Retired;
-  if (f.review_required && !f.reviewed) return CurveState::AwaitingReview;
-  return CurveState::Stale;
-}
-
 CurveStatus evaluate(const CurveFacts& f, Instant at, const LabZone& zone,
                      const std::vector<const CurveFacts*>& newer_in_group) {
   const Curve& c = *f.curve;

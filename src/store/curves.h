@@ -11,6 +11,7 @@
 
 #include "domain/check.h"
 #include "domain/curve.h"
+#include "domain/curve_state.h"
 
 namespace cw::store {
 
@@ -36,17 +37,6 @@ struct CurveFilter {
   std::optional<InstrumentId> instrument;
   std::optional<std::string> analyte;
   Instant acquired_by;  ///< acquired at or before
-};
-
-/// One group of settled curves of an instrument that share the facts deciding their state
-/// (rules::SettledFacts), with how many curves it holds.
-struct SettledGroup {
-  Verdict verdict = Verdict::Accepted;
-  bool rejected_by_review = false;
-  bool retired = false;
-  bool review_required = false;
-  bool reviewed = false;
-  std::int64_t count = 0;
 };
 
 class CurveReader {
@@ -83,13 +73,18 @@ class CurveReader {
   virtual std::vector<CurveId> expiring_between(Instant from, Instant to) = 0;
   /// Curves of an instrument acquired by `t` whose expiry is after `t`.
   virtual std::vector<CurveId> live_of_instrument(InstrumentId instrument, Instant t) = 0;
-  /// The settled curves (expiry at or before `t`) of an instrument, grouped by the facts that
-  /// decide their state at `t`.
-  virtual std::vector<SettledGroup> settled_groups(InstrumentId instrument, Instant t) = 0;
+  /// How many curves of an instrument are settled (expiry at or before `t`) in each state at
+  /// `t`, summed from the derived tally steps (domain/settled_state.h); states with none left
+  /// out.
+  virtual std::vector<std::pair<CurveState, std::int64_t>> settled_counts(InstrumentId instrument,
+                                                                          Instant t) = 0;
   /// (method, analyte) pairs that have had curves on an instrument.
   virtual std::vector<std::pair<MethodId, std::string>> method_analytes(
       InstrumentId instrument) = 0;
   virtual std::vector<CurveId> of_lot(LotId lot) = 0;
+  /// Compares the derived tally steps of settled curves (settled_counts) with the steps the
+  /// stored facts give, curve by curve: the first disagreement in words, nullopt when none.
+  virtual std::optional<std::string> settled_tallies_disagreement() = 0;
 
   virtual std::optional<Check> check(CheckId id) = 0;
   /// The most recent failed checks (at or before `by`) of an instrument's curves, newest first.

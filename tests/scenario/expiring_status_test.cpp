@@ -218,3 +218,86 @@ TEST_CASE("status: curves by state per instrument, blocked pairs, recent failed 
     }
   }
 }
+
+namespace {
+
+/// One instrument's counts in `status` at `at`.
+Json counts_at(const Lab& lab, const std::string& at, const std::string& instrument) {
+  const Json status = lab.json_at(at, {"status"});
+  for (const auto& i : status.at("instruments")) {
+    if (i.at("instrument") == instrument) return i.at("counts");
+  }
+  FAIL("no instrument " << instrument << " in status: " << status.dump());
+  return Json();
+}
+
+}  // namespace
+
+TEST_CASE(
+    "status: an expired curve's count follows a late approval and a retirement, and "
+    "audit verify finds counts that do not follow the facts",
+    "[scenario]") {
+  Lab lab;
+  lab.add_instrument("IC-01");
+  lab.add_lot("CRM-A", "2026-12-31");
+  MethodSpec spec;
+  spec.analytes = {"nitrate"};
+  spec.review_required = true;  // valid for 7 days
+  lab.add_method(spec);
+  const Json log = lab.log_curve("ANION-IC", "IC-01", "CRM-A",
+                                 std::string(kPointsHeader) + m1_rows(), "2026-03-02T09:00:00Z");
+  const std::string id = std::to_string(log.at("curves")[0].at("id").get<std::int64_t>());
+
+  // Expired (2026-03-09 09:00) while still awaiting review.
+  CHECK(counts_at(lab, "2026-03-05T00:00:00Z", "IC-01").at("awaiting-review") == 1);
+  CHECK(counts_at(lab, "2026-03-10T00:00:00Z", "IC-01").at("awaiting-review") == 1);
+  // Approved after its expiry: stale from the approval on, awaiting review before it.
+  lab.json_at("2026-03-11T10:00:00Z",
+              {"--as", "bob", "curve", "review", id, "--approve", "--reason", "checked late"});
+  // Retired two days later.
+  lab.json_at("2026-03-13T10:00:00Z", {"curve", "retire", id, "--reason", "column replaced"});
+  const std::vector<std::pair<const char*, const char*>> expected = {
+      {"2026-03-10T00:00:00Z", "awaiting-review"}, {"2026-03-11T09:59:59Z", "awaiting-review"},
+      {"2026-03-11T10:00:00Z", "stale"},           {"2026-03-13T09:59:59Z", "stale"},
+      {"2026-03-13T10:00:00Z", "retired"},         {"2026-06-01T00:00:00Z", "retired"}};
+  for (const auto& [at, state] : expected) {
+    INFO("at " << at);
+    const Json counts = counts_at(lab, at, "IC-01");
+    for (const auto& [name, n] : counts.items()) CHECK(n == (name == state ? 1 : 0));
+  }
+  const RunResult verified = lab.run({"audit", "verify", "--json"});
+  REQUIRE(verified.exit_code == 0);
+  CHECK(verified.json().at("derived_intact") == true);
+
+  // A count forged with plain SQL (the rows are derived: no entry's hash covers them) is found
+  // by audit verify (exit 4), and status shows it until the store is replaced.
+  REQUIRE(cw::test::exec_sql(lab.box,
+                             "INSERT INTO settled_tallies (instrument_id, effective_at, state, "
+                             "delta, curve_id, audit_seq) VALUES (1, '2026-03-12T00:00:00Z', "
+                             "'rejected', 1, " +
+                                 id + ", 1)") == 0);
+  CHECK(counts_at(lab, "2026-06-01T00:00:00Z", "IC-01").at("rejected") == 1);
+  const RunResult forged = lab.run({"audit", "verify", "--json"});
+  INFO(forged.describe());
+  CHECK(forged.exit_code == 4);
+  const Json doc = forged.json();
+  CHECK(doc.at("ok") == false);
+  CHECK(doc.at("chain_intact") == true);
+  CHECK(doc.at("derived_intact") == false);
+  CHECK_THAT(doc.at("derived_problem").get<std::string>(), Catch::Contains("curve " + id));
+  CHECK_THAT(forged.err, Catch::Contains("store copy"));
+
+  // A copy builds the counts again from the facts.
+  const std::string copy = (lab.box.dir() / "copy.db").string();
+  const RunResult copied = lab.run({"store", "copy", "--from", lab.box.location(), "--to", copy});
+  INFO(copied.describe());
+  REQUIRE(copied.exit_code == 0);
+  const RunResult copy_verified = lab.run({"--db", copy, "audit", "verify", "--json"});
+  CHECK(copy_verified.exit_code == 0);
+  CHECK(copy_verified.json().at("derived_intact") == true);
+  const RunResult on_copy =
+      lab.run({"--db", copy, "--at", "2026-06-01T00:00:00Z", "--json", "status"});
+  REQUIRE(on_copy.exit_code == 0);
+  CHECK(on_copy.json().at("instruments")[0].at("counts").at("retired") == 1);
+  CHECK(on_copy.json().at("instruments")[0].at("counts").at("rejected") == 0);
+}

@@ -8,6 +8,8 @@
 #include <stdexcept>
 #include <string>
 
+#include "store/postgresql/settled_tallies.h"
+
 namespace cw::store::postgresql {
 namespace {
 
@@ -139,7 +141,11 @@ void PgLoader::append_row(const CopyTable& table, const CopyRow& row) {
 void PgLoader::commit() {
   open_ = false;
   inserts_.clear();
-  guarded(db_, [&] { db_.run("COMMIT"); });
+  guarded(db_, [&] {
+    // The derived steps of settled curves are not copied: they are built from the copied facts.
+    build_settled_tallies(db_);
+    db_.run("COMMIT");
+  });
 }
 
 }  // namespace cw::store::postgresql

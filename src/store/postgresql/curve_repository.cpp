@@ -6,6 +6,7 @@
 #include <stdexcept>
 
 #include "store/postgresql/bind.h"
+#include "store/postgresql/settled_tallies.h"
 #include "store/postgresql/sql.h"
 
 namespace cw::store::postgresql {
@@ -395,26 +396,28 @@ std::vector<CurveId> PgCurves::live_of_instrument(InstrumentId instrument, Insta
   });
 }
 
-std::vector<SettledGroup> PgCurves::settled_groups(InstrumentId instrument, Instant t) {
+std::vector<std::pair<CurveState, std::int64_t>> PgCurves::settled_counts(InstrumentId instrument,
+                                                                          Instant t) {
   return guarded(db_, [&] {
-    auto& s = db_.statement(sql::kSettledGroups);
+    auto& s = db_.statement(sql::kSettledCounts);
     bind_int(s, ":instrument", instrument.value);
     bind_instant(s, ":t", t);
-    std::vector<SettledGroup> out;
+    std::vector<std::pair<CurveState, std::int64_t>> out;
     while (s.executeStep()) {
-      SettledGroup g;
-      g.verdict =
-          stored_enum(parse_verdict, s.getColumn(0).getString(), "curves.verdict", db_.path);
-      g.rejected_by_review = s.getColumn(1).getInt64() != 0;
-      g.retired = s.getColumn(2).getInt64() != 0;
-      g.review_required = s.getColumn(3).getInt64() != 0;
-      g.reviewed = s.getColumn(4).getInt64() != 0;
-      g.count = s.getColumn(5).getInt64();
-      out.push_back(g);
+      const std::int64_t n = s.getColumn(1).getInt64();
+      if (n == 0) continue;
+      if (n < 0) damaged(db_.path, "settled_tallies: fewer than no curves of an instrument");
+      out.emplace_back(stored_enum(parse_curve_state, s.getColumn(0).getString(),
+                                   "settled_tallies.state", db_.path),
+                       n);
     }
     s.reset();
     return out;
   });
+}
+
+std::optional<std::string> PgCurves::settled_tallies_disagreement() {
+  return guarded(db_, [&] { return postgresql::settled_tallies_disagreement(db_); });
 }
 
 std::vector<std::pair<MethodId, std::string>> PgCurves::method_analytes(InstrumentId instrument) {
@@ -605,6 +608,7 @@ CurveId PgCurves::add_curve(const Curve& c) {
       ps.exec();
       w.add_row(FactTable::CurvePoints, db_.last_insert_id());
     }
+    append_tally_steps(db_, id, tally_change(nullptr, settled_history(db_, id)), w.seq);
     return id;
   });
 }
@@ -612,6 +616,9 @@ CurveId PgCurves::add_curve(const Curve& c) {
 void PgCurves::add_review(CurveId id, const CurveReview& r) {
   WriteState& w = writing();
   guarded(db_, [&] {
+    const SettledHistory before = settled_history(db_, id);
+    SettledHistory after = before;
+    after.reviews.push_back({r.occurred_at, r.decision});
     auto& s = db_.statement(sql::kInsertReview);
     bind_int(s, ":curve", id.value);
     bind_text(s, ":decision", std::string(to_string(r.decision)));
@@ -621,12 +628,16 @@ void PgCurves::add_review(CurveId id, const CurveReview& r) {
     bind_int(s, ":seq", w.seq);
     s.exec();
     w.add_row(FactTable::CurveReviews, db_.last_insert_id());
+    append_tally_steps(db_, id, tally_change(&before, after), w.seq);
   });
 }
 
 void PgCurves::add_retirement(CurveId id, const CurveRetirement& r) {
   WriteState& w = writing();
   guarded(db_, [&] {
+    const SettledHistory before = settled_history(db_, id);
+    SettledHistory after = before;
+    after.retirements.push_back(r.occurred_at);
     auto& s = db_.statement(sql::kInsertRetirement);
     bind_int(s, ":curve", id.value);
     bind_text(s, ":by", r.retired_by);
@@ -635,6 +646,7 @@ void PgCurves::add_retirement(CurveId id, const CurveRetirement& r) {
     bind_int(s, ":seq", w.seq);
     s.exec();
     w.add_row(FactTable::CurveRetirements, db_.last_insert_id());
+    append_tally_steps(db_, id, tally_change(&before, after), w.seq);
   });
 }
 

@@ -42,9 +42,11 @@ class PgCurves final : public CurveReader, public CurveWriter {
                                          bool accepted_only) override;
   std::vector<CurveId> expiring_between(Instant from, Instant to) override;
   std::vector<CurveId> live_of_instrument(InstrumentId instrument, Instant t) override;
-  std::vector<SettledGroup> settled_groups(InstrumentId instrument, Instant t) override;
+  std::vector<std::pair<CurveState, std::int64_t>> settled_counts(InstrumentId instrument,
+                                                                  Instant t) override;
   std::vector<std::pair<MethodId, std::string>> method_analytes(InstrumentId instrument) override;
   std::vector<CurveId> of_lot(LotId lot) override;
+  std::optional<std::string> settled_tallies_disagreement() override;
   std::optional<Check> check(CheckId id) override;
   std::vector<Check> recent_failed_checks(InstrumentId instrument, Instant by,
                                           std::size_t limit) override;

@@ -14,6 +14,7 @@
 #include "audit/sha256.h"
 #include "core/error.h"
 #include "store/postgresql/open.h"
+#include "store/postgresql/settled_tallies.h"
 #include "store/postgresql/sql_text.h"
 
 namespace cw::store::postgresql {
@@ -352,6 +353,8 @@ void migrate(Database& d, const Clock& clock) {
       }
       if (!id.marked) d.run(sql::kBootstrap);
       d.run(m.text);
+      // A step SQL cannot do alone: the derived steps of the curves already stored.
+      if (m.version == 3) build_settled_tallies(d);
       Statement record(d,
                        "INSERT INTO schema_migrations (version, name, sha256, applied_at) "
                        "VALUES (:version, :name, :sha256, :applied_at)");

@@ -123,7 +123,7 @@ std::vector<std::string> missing_guards(Database& db) {
   auto& s = db.statement(sql::kTriggerNames);
   while (s.executeStep()) present.insert(s.getColumn(0).getString());
   s.reset();
-  std::vector<std::string> tables{"audit_log", "schema_migrations"};
+  std::vector<std::string> tables{"audit_log", "schema_migrations", "settled_tallies"};
   for (FactTable t : kAllFactTables) tables.emplace_back(table_name(t));
   std::vector<std::string> missing;
   for (const auto& t : tables) {

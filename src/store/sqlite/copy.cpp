@@ -4,6 +4,8 @@
 
 #include <string>
 
+#include "store/sqlite/settled_tallies.h"
+
 namespace cw::store::sqlite {
 namespace {
 
@@ -108,6 +110,8 @@ void SqliteLoader::append_row(const CopyTable& table, const CopyRow& row) {
 void SqliteLoader::commit() {
   guarded(db_, [&] {
     inserts_.clear();
+    // The derived steps of settled curves are not copied: they are built from the copied facts.
+    build_settled_tallies(db_);
     db_.release_statements();
     db_.db->exec("COMMIT");
     open_ = false;

@@ -7,6 +7,7 @@
 
 #include "store/sqlite/bind.h"
 #include "store/sqlite/codec.h"
+#include "store/sqlite/settled_tallies.h"
 #include "store/sqlite/sql.h"
 
 namespace cw::store::sqlite {
@@ -396,22 +397,20 @@ std::vector<CurveId> SqliteCurves::live_of_instrument(InstrumentId instrument, I
   });
 }
 
-std::vector<SettledGroup> SqliteCurves::settled_groups(InstrumentId instrument, Instant t) {
+std::vector<std::pair<CurveState, std::int64_t>> SqliteCurves::settled_counts(
+    InstrumentId instrument, Instant t) {
   return guarded(db_, [&] {
-    auto& s = db_.statement(sql::kSettledGroups);
+    auto& s = db_.statement(sql::kSettledCounts);
     bind_int(s, ":instrument", instrument.value);
     bind_instant(s, ":t", t);
-    std::vector<SettledGroup> out;
+    std::vector<std::pair<CurveState, std::int64_t>> out;
     while (s.executeStep()) {
-      SettledGroup g;
-      g.verdict =
-          stored_enum(parse_verdict, s.getColumn(0).getString(), "curves.verdict", db_.path);
-      g.rejected_by_review = s.getColumn(1).getInt64() != 0;
-      g.retired = s.getColumn(2).getInt64() != 0;
-      g.review_required = s.getColumn(3).getInt64() != 0;
-      g.reviewed = s.getColumn(4).getInt64() != 0;
-      g.count = s.getColumn(5).getInt64();
-      out.push_back(g);
+      const std::int64_t n = s.getColumn(1).getInt64();
+      if (n == 0) continue;
+      if (n < 0) damaged(db_.path, "settled_tallies: fewer than no curves of an instrument");
+      out.emplace_back(stored_enum(parse_curve_state, s.getColumn(0).getString(),
+                                   "settled_tallies.state", db_.path),
+                       n);
     }
     s.reset();
     return out;
@@ -438,6 +437,10 @@ std::vector<CurveId> SqliteCurves::of_lot(LotId lot) {
     bind_int(s, ":lot", lot.value);
     return curve_ids(s);
   });
+}
+
+std::optional<std::string> SqliteCurves::settled_tallies_disagreement() {
+  return guarded(db_, [&] { return sqlite::settled_tallies_disagreement(db_); });
 }
 
 std::optional<Check> SqliteCurves::check(CheckId id) {
@@ -607,6 +610,7 @@ CurveId SqliteCurves::add_curve(const Curve& c) {
       ps.exec();
       w.add_row(FactTable::CurvePoints, db_.db->getLastInsertRowid());
     }
+    append_tally_steps(db_, id, tally_change(nullptr, settled_history(db_, id)), w.seq);
     return id;
   });
 }
@@ -614,6 +618,9 @@ CurveId SqliteCurves::add_curve(const Curve& c) {
 void SqliteCurves::add_review(CurveId id, const CurveReview& r) {
   WriteState& w = writing();
   guarded(db_, [&] {
+    const SettledHistory before = settled_history(db_, id);
+    SettledHistory after = before;
+    after.reviews.push_back({r.occurred_at, r.decision});
     auto& s = db_.statement(sql::kInsertReview);
     bind_int(s, ":curve", id.value);
     bind_text(s, ":decision", std::string(to_string(r.decision)));
@@ -623,12 +630,16 @@ void SqliteCurves::add_review(CurveId id, const CurveReview& r) {
     bind_int(s, ":seq", w.seq);
     s.exec();
     w.add_row(FactTable::CurveReviews, db_.db->getLastInsertRowid());
+    append_tally_steps(db_, id, tally_change(&before, after), w.seq);
   });
 }
 
 void SqliteCurves::add_retirement(CurveId id, const CurveRetirement& r) {
   WriteState& w = writing();
   guarded(db_, [&] {
+    const SettledHistory before = settled_history(db_, id);
+    SettledHistory after = before;
+    after.retirements.push_back(r.occurred_at);
     auto& s = db_.statement(sql::kInsertRetirement);
     bind_int(s, ":curve", id.value);
     bind_text(s, ":by", r.retired_by);
@@ -637,6 +648,7 @@ void SqliteCurves::add_retirement(CurveId id, const CurveRetirement& r) {
     bind_int(s, ":seq", w.seq);
     s.exec();
     w.add_row(FactTable::CurveRetirements, db_.db->getLastInsertRowid());
+    append_tally_steps(db_, id, tally_change(&before, after), w.seq);
   });
 }
 

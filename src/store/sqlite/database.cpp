@@ -10,6 +10,7 @@
 
 #include "audit/sha256.h"
 #include "core/error.h"
+#include "store/sqlite/settled_tallies.h"
 #include "store/sqlite/sql_text.h"
 
 namespace cw::store::sqlite {
@@ -102,6 +103,7 @@ std::vector<MigrationSpec> embedded_migrations() {
   for (const auto& m : sql::migrations()) {
     out.push_back({m.version, m.name, m.text});
     if (m.version == 7) out.back().after = register_legacy_actors;
+    if (m.version == 9) out.back().after = build_settled_tallies_step;
   }
   return out;
 }

@@ -166,25 +166,11 @@ inline constexpr const char* kCurvesExpiringBetween =
 inline constexpr const char* kLiveOfInstrument =
     "SELECT id FROM curves WHERE instrument_id = :instrument AND expires_at > :t AND "
     "acquired_at <= :t ORDER BY acquired_at, id";
-// Settled curves counted in two steps: per curve only index lookups (its reviews, its
-// retirements, its calibration's method version), grouped by method version; the version's
-// definition (JSON) is then read once per group, not once per curve.
-inline constexpr const char* kSettledGroups =
-    "SELECT g.verdict, g.review = 1 AS rejected_by_review, g.retired, "
-    "  coalesce(v.definition ->> '$.calibration.review_required', 1) AS review_required, "
-    "  g.review >= 0 AS reviewed, sum(g.n) "
-    "FROM (SELECT c.verdict, "
-    "        coalesce((SELECT max(r.decision = 'reject') FROM curve_reviews r "
-    "                  WHERE r.curve_id = c.id AND r.occurred_at <= :t), -1) AS review, "
-    "        EXISTS (SELECT 1 FROM curve_retirements x WHERE x.curve_id = c.id "
-    "                AND x.occurred_at <= :t) AS retired, "
-    "        k.method_version_id AS mv, count(*) AS n "
-    "      FROM curves c INDEXED BY curves_by_instrument_settled "
-    "      JOIN calibrations k ON k.id = c.calibration_id "
-    "      WHERE c.instrument_id = :instrument AND c.expires_at <= :t "
-    "      GROUP BY 1, 2, 3, 4) g "
-    "JOIN method_versions v ON v.id = g.mv "
-    "GROUP BY 1, 2, 3, 4, 5";
+// An instrument's settled curves per state at a moment: its tally steps up to then, read from
+// the index alone (migration 0009).
+inline constexpr const char* kSettledCounts =
+    "SELECT state, sum(delta) FROM settled_tallies INDEXED BY settled_tallies_by_instrument "
+    "WHERE instrument_id = :instrument AND effective_at <= :t GROUP BY state";
 inline constexpr const char* kMethodAnalytes =
     "SELECT DISTINCT method_id, analyte FROM curves INDEXED BY curves_by_instrument_group "
     "WHERE instrument_id = :instrument ORDER BY method_id, analyte";
@@ -214,6 +200,38 @@ inline constexpr const char* kInsertPoint =
 inline constexpr const char* kInsertReview =
     "INSERT INTO curve_reviews (curve_id, decision, reviewer, reason, occurred_at, audit_seq) "
     "VALUES (:curve, :decision, :reviewer, :reason, :at, :seq)";
+// ---- derived tally steps of settled curves (store/sqlite/settled_tallies.h)
+inline constexpr const char* kInsertTallyStep =
+    "INSERT INTO settled_tallies (instrument_id, effective_at, state, delta, curve_id, audit_seq) "
+    "VALUES (:instrument, :at, :state, :delta, :curve, :seq)";
+inline constexpr const char* kSettledCurve =
+    "SELECT c.instrument_id, c.expires_at, c.verdict, "
+    "  coalesce(v.definition ->> '$.calibration.review_required', 1) "
+    "FROM curves c JOIN calibrations k ON k.id = c.calibration_id "
+    "JOIN method_versions v ON v.id = k.method_version_id WHERE c.id = :curve";
+inline constexpr const char* kSettledReviewsOf =
+    "SELECT occurred_at, decision FROM curve_reviews WHERE curve_id = :curve "
+    "ORDER BY occurred_at, id";
+inline constexpr const char* kSettledRetirementsOf =
+    "SELECT occurred_at FROM curve_retirements WHERE curve_id = :curve ORDER BY occurred_at, id";
+// Every curve's settled history, read in curve order in three merged scans (building the steps
+// of a whole store: migration 0009, `store copy`, `audit verify`).
+inline constexpr const char* kReviewRequiredByVersion =
+    "SELECT id, coalesce(definition ->> '$.calibration.review_required', 1) FROM method_versions";
+inline constexpr const char* kAllSettledCurves =
+    "SELECT c.id, c.instrument_id, c.expires_at, c.verdict, k.method_version_id, c.audit_seq "
+    "FROM curves c JOIN calibrations k ON k.id = c.calibration_id ORDER BY c.id";
+inline constexpr const char* kAllSettledReviews =
+    "SELECT curve_id, occurred_at, decision, audit_seq FROM curve_reviews "
+    "ORDER BY curve_id, occurred_at, id";
+inline constexpr const char* kAllSettledRetirements =
+    "SELECT curve_id, occurred_at, audit_seq FROM curve_retirements "
+    "ORDER BY curve_id, occurred_at, id";
+// The stored steps, net per curve, moment and state, in curve order (`audit verify`).
+inline constexpr const char* kStoredTallySteps =
+    "SELECT curve_id, instrument_id, effective_at, state, sum(delta) FROM settled_tallies "
+    "GROUP BY curve_id, instrument_id, effective_at, state HAVING sum(delta) <> 0 "
+    "ORDER BY curve_id, effective_at, state";
 inline constexpr const char* kInsertRetirement =
     "INSERT INTO curve_retirements (curve_id, retired_by, reason, occurred_at, audit_seq) "
     "VALUES (:curve, :by, :reason, :at, :seq)";

@@ -24,6 +24,7 @@ std::unique_ptr<cw::store::Store> create(const std::filesystem::path& path) {
 
 }  // namespace
 
+// The derived tally steps of settled curves are not copied: the copy builds them from its facts.
 TEST_CASE("store copy: the copied tables are every table of the schema, column for column",
           "[store][copy]") {
   TempDir dir;
@@ -31,8 +32,9 @@ TEST_CASE("store copy: the copied tables are every table of the schema, column f
   create(path);
   RawDb raw(path);
   std::set<std::string> schema;
-  for (const auto& row : raw.rows("SELECT name FROM sqlite_master WHERE type = 'table' AND name "
-                                  "NOT IN ('schema_migrations', 'sqlite_sequence')")) {
+  for (const auto& row :
+       raw.rows("SELECT name FROM sqlite_master WHERE type = 'table' AND name "
+                "NOT IN ('schema_migrations', 'sqlite_sequence', 'settled_tallies')")) {
     schema.insert(row.at(0));
   }
   std::set<std::string> carried;

@@ -68,7 +68,7 @@ std::vector<std::string> table_names(RawDb& raw) {
 
 TEST_CASE("store: the migrations compiled in are the files of migrations/, in order", "[store]") {
   const auto m = cw::store::sqlite::embedded_migrations();
-  REQUIRE(m.size() == 8);
+  REQUIRE(m.size() == 9);
   CHECK(m[0].version == 1);
   CHECK(m[0].name == "0001_create_audit_and_registries");
   CHECK(m[1].version == 2);
@@ -86,6 +86,9 @@ TEST_CASE("store: the migrations compiled in are the files of migrations/, in or
   CHECK(m[6].after != nullptr);  // registers the names of an older trail as users
   CHECK(m[7].version == 8);
   CHECK(m[7].name == "0008_index_curves_for_status");
+  CHECK(m[8].version == 9);
+  CHECK(m[8].name == "0009_derive_settled_tallies");
+  CHECK(m[8].after != nullptr);  // builds the tally steps of the curves already stored
   CHECK_THAT(m[0].sql, Catch::Contains("CREATE TABLE audit_log"));
 }
 
@@ -139,13 +142,14 @@ TEST_CASE("store: a fresh store records every migration, user_version and applic
                                                      "run_results",
                                                      "runs",
                                                      "schema_migrations",
+                                                     "settled_tallies",
                                                      "signature_failures",
                                                      "signatures",
                                                      "user_events",
                                                      "user_passphrases",
                                                      "users"});
-  // Two append-only triggers (no update, no delete) for each of the 29 tables.
-  CHECK(raw.integer("SELECT count(*) FROM sqlite_master WHERE type = 'trigger'") == 58);
+  // Two append-only triggers (no update, no delete) for each of the 30 tables.
+  CHECK(raw.integer("SELECT count(*) FROM sqlite_master WHERE type = 'trigger'") == 60);
 
   // The same facts in the file header, read as bytes.
   const std::string header = read_bytes(path).substr(0, 100);

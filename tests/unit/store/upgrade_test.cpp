@@ -66,6 +66,8 @@ TEST_CASE("store: a schema-4 store migrates and still verifies with the same hea
   CHECK(report.ok);
   // Two names in the old trail (r.okafor, j.lindqvist): two entries registering them.
   CHECK(report.entries == 26 + 2);
+  // Migration 0009 built the tally steps of the three old curves from their facts.
+  CHECK_FALSE(store->read()->curves().settled_tallies_disagreement().has_value());
 
   RawDb raw(path);
   CHECK(raw.text("SELECT hash FROM audit_log WHERE seq = 26") == head_before);
@@ -82,6 +84,7 @@ TEST_CASE("store: a schema-4 store migrates and still verifies with the same hea
   old_now.erase(old_now.begin());  // audit_log: compared above
   counts_before.erase(counts_before.begin());
   CHECK(old_now == counts_before);  // the migration added tables and entries, not old rows
+  CHECK(raw.integer("SELECT count(DISTINCT curve_id) FROM settled_tallies") == 3);
   CHECK(raw.integer("SELECT count(*) FROM runs") == 0);
   CHECK(raw.integer("SELECT count(*) FROM result_status_events") == 0);
   CHECK(raw.integer("SELECT max(version) FROM schema_migrations") ==
