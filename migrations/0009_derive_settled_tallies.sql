@@ -21,6 +21,9 @@ CREATE TABLE settled_tallies (
 -- One instrument's steps up to a moment, read from the index alone.
 CREATE INDEX settled_tallies_by_instrument
   ON settled_tallies (instrument_id, effective_at, state, delta);
+-- As every fact table (0006): when an entry is inserted SQLite settles the deferred keys naming
+-- it, which without this index is a scan of every step per entry.
+CREATE INDEX settled_tallies_by_audit_seq ON settled_tallies (audit_seq);
 
 CREATE TRIGGER settled_tallies_no_update BEFORE UPDATE ON settled_tallies
 BEGIN SELECT RAISE(ABORT, 'settled_tallies is append-only: rows cannot be changed'); END;

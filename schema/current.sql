@@ -142,6 +142,9 @@ CREATE INDEX runs_by_audit_seq ON runs (audit_seq);
 -- index runs_by_sha256
 CREATE INDEX runs_by_sha256 ON runs (file_sha256);
 
+-- index settled_tallies_by_audit_seq
+CREATE INDEX settled_tallies_by_audit_seq ON settled_tallies (audit_seq);
+
 -- index settled_tallies_by_instrument
 CREATE INDEX settled_tallies_by_instrument
   ON settled_tallies (instrument_id, effective_at, state, delta);

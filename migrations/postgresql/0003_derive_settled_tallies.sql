@@ -13,6 +13,7 @@ CREATE TABLE settled_tallies (
 );
 CREATE INDEX settled_tallies_by_instrument
   ON settled_tallies (instrument_id, effective_at, state, delta);
+CREATE INDEX settled_tallies_by_audit_seq ON settled_tallies (audit_seq);
 
 CREATE TRIGGER settled_tallies_no_update BEFORE UPDATE ON settled_tallies
   FOR EACH ROW EXECUTE FUNCTION curvewarden_refuse_change();

@@ -313,3 +313,28 @@ TEST_CASE("store: a missing or empty file is not a store unless init creates it"
   CHECK(c->was_created());
   CHECK(c->schema_version() == kLatest);
 }
+
+TEST_CASE("store: every table whose rows name an audit entry has an index on audit_seq",
+          "[store]") {
+  // Inserting an entry settles the deferred keys naming it: without an index on the naming
+  // column that is a scan of the whole table per entry, and writes slow down as the store grows.
+  cw::store_test::TempDir dir;
+  const auto path = dir / "s.db";
+  {
+    cw::store::OpenOptions o;
+    o.location = path.string();
+    o.create = true;
+    cw::store::Store::open(o);
+  }
+  RawDb raw(path);
+  int tables = 0;
+  for (const auto& t : raw.rows("SELECT m.name FROM sqlite_master m, pragma_table_info(m.name) c "
+                                "WHERE m.type = 'table' AND c.name = 'audit_seq' ORDER BY 1")) {
+    INFO("table " << t.at(0));
+    ++tables;
+    CHECK(raw.integer("SELECT count(*) FROM pragma_index_list('" + t.at(0) +
+                      "') l, pragma_index_info(l.name) i WHERE i.seqno = 0 AND "
+                      "i.name = 'audit_seq'") >= 1);
+  }
+  CHECK(tables == 28);  // the 27 fact tables and settled_tallies
+}
