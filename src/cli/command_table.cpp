@@ -388,8 +388,8 @@ const std::vector<CommandSpec>& command_table() {
        false,
        h::audit_log},
       {"audit verify",
-       "Recompute the hash chain, check every fact row and the append-only guards (exit 5 if "
-       "broken)",
+       "Recompute the hash chain, check every fact row, the append-only guards and the derived "
+       "counts of expired curves (exit 5 if broken, 4 if guards or counts are wrong)",
        {repeated("--anchor", "FILE",
                  "Also check that the trail still contains this signed checkpoint (repeat for "
                  "several); exit 5 naming the first it does not"),
@@ -415,7 +415,8 @@ const std::vector<CommandSpec>& command_table() {
       {"store", "Move a whole store to another file or backend", {}, false, nullptr},
       {"store copy",
        "Copy a whole store (every fact and the audit trail, verbatim) into an empty store, "
-       "verifying the source first and the copy after: both have the same head hash",
+       "verifying the source first and the copy after: both have the same head hash (the derived "
+       "counts of expired curves are built afresh from the copied facts)",
        {value("--from", "STORE",
               "The store to copy (a file path or a postgresql:// URI); it is only read", true),
         value("--to", "STORE",
