@@ -6,6 +6,7 @@
 
 #include <algorithm>
 #include <array>
+#include <cstring>
 #include <stdexcept>
 #include <string_view>
 
@@ -65,17 +66,47 @@ const std::vector<std::size_t>& key_order(const TableForm& form) {
   return orders[static_cast<std::size_t>(form.table)];
 }
 
-}  // namespace
+/// The columns of a row as SQLite gives them, by index in the form's order.
+class StatementRow {
+ public:
+  explicit StatementRow(sqlite3_stmt* s) : s_(s) {}
+  int type(int i) const { return sqlite3_column_type(s_, i); }
+  std::int64_t integer(int i) const { return sqlite3_column_int64(s_, i); }
+  double real(int i) const { return sqlite3_column_double(s_, i); }
+  std::string_view text(int i) const {
+    const auto* data = reinterpret_cast<const char*>(sqlite3_column_text(s_, i));
+    return {data, static_cast<std::size_t>(sqlite3_column_bytes(s_, i))};
+  }
 
-void append_canonical_row_text(std::string& out, sqlite3_stmt* row, const TableForm& form,
-                               const std::string& path) {
-  // One type look-up per column, no Column objects.
+ private:
+  sqlite3_stmt* s_;
+};
+
+/// The columns of a copied row, as StatementRow gives those of the row it was copied from.
+class CopiedColumns {
+ public:
+  explicit CopiedColumns(const CopiedRow& row) : row_(row) {}
+  int type(int i) const { return cell(i).type; }
+  std::int64_t integer(int i) const { return cell(i).integer; }
+  double real(int i) const { return cell(i).real; }
+  std::string_view text(int i) const { return cell(i).text; }
+
+ private:
+  const CopiedRow::Cell& cell(int i) const { return row_.cells[static_cast<std::size_t>(i)]; }
+  const CopiedRow& row_;
+};
+
+/// The canonical JSON text of one row, from either source: one writer, so that what an entry
+/// records and what `verify` recomputes cannot drift apart.
+template <class Row>
+void write_row_text(std::string& out, const Row& row, const TableForm& form,
+                    const std::string& path) {
   out += '{';
   bool first = true;
   for (const std::size_t i : key_order(form)) {
     const Column& column = form.columns[i];
     const int index = static_cast<int>(i);
-    const int type = sqlite3_column_type(row, index);
+    const int type = row.type(index);
     const auto wrong_kind = [&] {
       damaged(path, std::string(form.name) + ": a value of the wrong kind in column " +
                         std::string(column.name));
@@ -102,25 +133,104 @@ void append_canonical_row_text(std::string& out, sqlite3_stmt* row, const TableF
       case ColumnType::Integer:
       case ColumnType::Boolean:
         if (type != SQLITE_INTEGER) wrong_kind();
-        audit::append_json_integer(out, sqlite3_column_int64(row, index));
+        audit::append_json_integer(out, row.integer(index));
         break;
       case ColumnType::Real:
         if (type != SQLITE_FLOAT) wrong_kind();
-        audit::append_json_real(out, sqlite3_column_double(row, index));
+        audit::append_json_real(out, row.real(index));
         break;
       case ColumnType::Text:
       case ColumnType::Instant:
       case ColumnType::Date:
-      case ColumnType::Json: {
+      case ColumnType::Json:
         if (type != SQLITE_TEXT) wrong_kind();
-        const auto* text = reinterpret_cast<const char*>(sqlite3_column_text(row, index));
-        const auto bytes = static_cast<std::size_t>(sqlite3_column_bytes(row, index));
-        audit::append_json_string(out, std::string_view(text, bytes));
+        audit::append_json_string(out, row.text(index));
         break;
-      }
     }
   }
   out += '}';
+}
+
+template <class T>
+void append_bytes(std::string& out, const T& value) {
+  out.append(reinterpret_cast<const char*>(&value), sizeof value);
+}
+
+template <class T>
+T read_bytes(std::string_view& in) {
+  if (in.size() < sizeof(T)) throw std::logic_error("a copied row cut short");
+  T value;
+  std::memcpy(&value, in.data(), sizeof value);
+  in.remove_prefix(sizeof value);
+  return value;
+}
+
+}  // namespace
+
+void append_canonical_row_text(std::string& out, sqlite3_stmt* row, const TableForm& form,
+                               const std::string& path) {
+  write_row_text(out, StatementRow(row), form, path);
+}
+
+void copy_row(std::string& out, sqlite3_stmt* s, const TableForm& form) {
+  out += static_cast<char>(form.table);
+  const int columns = static_cast<int>(form.columns.size());
+  for (int i = 0; i < columns; ++i) {
+    const int type = sqlite3_column_type(s, i);
+    out += static_cast<char>(type);
+    switch (type) {
+      case SQLITE_INTEGER:
+        append_bytes(out, static_cast<std::int64_t>(sqlite3_column_int64(s, i)));
+        break;
+      case SQLITE_FLOAT:
+        append_bytes(out, sqlite3_column_double(s, i));
+        break;
+      case SQLITE_TEXT: {
+        const auto* data = reinterpret_cast<const char*>(sqlite3_column_text(s, i));
+        const auto bytes = static_cast<std::uint32_t>(sqlite3_column_bytes(s, i));
+        append_bytes(out, bytes);
+        out.append(data, bytes);
+        break;
+      }
+      default:  // NULL; a blob, refused when its text is written
+        break;
+    }
+  }
+}
+
+void read_copied_row(std::string_view& in, CopiedRow& row) {
+  const auto table = static_cast<std::size_t>(read_bytes<unsigned char>(in));
+  if (table >= kAllFactTables.size()) throw std::logic_error("a copied row of no table");
+  row.table = static_cast<FactTable>(table);
+  const TableForm& form = form_of(row.table);
+  if (form.columns.size() > CopiedRow::kMaxColumns) {
+    throw std::logic_error("a copied row with too many columns");
+  }
+  for (std::size_t i = 0; i < form.columns.size(); ++i) {
+    CopiedRow::Cell& cell = row.cells[i];
+    cell.type = read_bytes<unsigned char>(in);
+    switch (cell.type) {
+      case SQLITE_INTEGER:
+        cell.integer = read_bytes<std::int64_t>(in);
+        break;
+      case SQLITE_FLOAT:
+        cell.real = read_bytes<double>(in);
+        break;
+      case SQLITE_TEXT: {
+        const auto bytes = read_bytes<std::uint32_t>(in);
+        if (in.size() < bytes) throw std::logic_error("a copied row cut short");
+        cell.text = in.substr(0, bytes);
+        in.remove_prefix(bytes);
+        break;
+      }
+      default:
+        break;
+    }
+  }
+}
+
+void append_canonical_row_text(std::string& out, const CopiedRow& row, const std::string& path) {
+  write_row_text(out, CopiedColumns(row), form_of(row.table), path);
 }
 
 std::string PayloadBuilder::payload(const std::vector<std::pair<FactTable, std::int64_t>>& rows) {

@@ -4,12 +4,15 @@
 #pragma once
 
 #include <SQLiteCpp/SQLiteCpp.h>
+#include <sqlite3.h>
 
+#include <array>
 #include <cstdint>
 #include <map>
 #include <memory>
 #include <nlohmann/json.hpp>
 #include <string>
+#include <string_view>
 #include <utility>
 #include <vector>
 
@@ -32,6 +35,33 @@ nlohmann::json canonical_row(SQLite::Statement& s, const TableForm& form, const 
 /// (the hot path of `audit verify`). Same checks and errors as canonical_row.
 void append_canonical_row_text(std::string& out, sqlite3_stmt* s, const TableForm& form,
                                const std::string& path);
+
+/// Appends the current row of `s` (selected with select_of(form, ...)) to `out` as it is stored:
+/// its table, then each column's kind and value in the form's order, copied (`audit verify`
+/// copies the rows on the thread that reads the store and writes their text on another).
+void copy_row(std::string& out, sqlite3_stmt* s, const TableForm& form);
+
+/// A row copied by copy_row, read back: its table and its columns, viewing the copy.
+struct CopiedRow {
+  struct Cell {
+    int type =
+        SQLITE_NULL;  ///< SQLITE_INTEGER, SQLITE_FLOAT, SQLITE_TEXT, SQLITE_BLOB, SQLITE_NULL
+    std::int64_t integer = 0;
+    double real = 0;
+    std::string_view text;
+  };
+  static constexpr std::size_t kMaxColumns = 32;
+
+  FactTable table{};
+  std::array<Cell, kMaxColumns> cells;
+};
+
+/// Reads the row copy_row wrote at the start of `in` into `row`, and moves `in` past it.
+void read_copied_row(std::string_view& in, CopiedRow& row);
+
+/// Appends a copied row as canonical JSON text: the same bytes, checks and errors as
+/// append_canonical_row_text on the statement it was copied from.
+void append_canonical_row_text(std::string& out, const CopiedRow& row, const std::string& path);
 
 /// The payload of an audit entry: {"table": [row, ...], ...}, tables sorted by name, rows by id,
 /// serialised compactly. This text is what the entry's hash covers.
