@@ -49,16 +49,24 @@ nlohmann::json canonical_row(SQLite::Statement& s, const TableForm& form, const 
 
 namespace {
 
+/// A column of a form, and its key as the canonical text writes it ("name":).
+struct Key {
+  std::size_t index;
+  std::string text;
+};
+
 /// The columns of each form in key order (nlohmann's objects sort their keys), computed once.
-const std::vector<std::size_t>& key_order(const TableForm& form) {
+const std::vector<Key>& key_order(const TableForm& form) {
   static const auto orders = [] {
-    std::array<std::vector<std::size_t>, kAllFactTables.size()> out;
+    std::array<std::vector<Key>, kAllFactTables.size()> out;
     for (const FactTable t : kAllFactTables) {
       const TableForm& f = form_of(t);
       auto& order = out[static_cast<std::size_t>(t)];
-      for (std::size_t i = 0; i < f.columns.size(); ++i) order.push_back(i);
-      std::sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
-        return f.columns[a].name < f.columns[b].name;
+      for (std::size_t i = 0; i < f.columns.size(); ++i) {
+        order.push_back({i, '"' + std::string(f.columns[i].name) + "\":"});
+      }
+      std::sort(order.begin(), order.end(), [&](const Key& a, const Key& b) {
+        return f.columns[a.index].name < f.columns[b.index].name;
       });
     }
     return out;
@@ -103,9 +111,9 @@ void write_row_text(std::string& out, const Row& row, const TableForm& form,
                     const std::string& path) {
   out += '{';
   bool first = true;
-  for (const std::size_t i : key_order(form)) {
-    const Column& column = form.columns[i];
-    const int index = static_cast<int>(i);
+  for (const Key& key : key_order(form)) {
+    const Column& column = form.columns[key.index];
+    const int index = static_cast<int>(key.index);
     const int type = row.type(index);
     const auto wrong_kind = [&] {
       damaged(path, std::string(form.name) + ": a value of the wrong kind in column " +
@@ -122,9 +130,7 @@ void write_row_text(std::string& out, const Row& row, const TableForm& form,
     }
     if (!first) out += ',';
     first = false;
-    out += '"';
-    out += column.name;
-    out += "\":";
+    out += key.text;
     if (type == SQLITE_NULL) {
       out += "null";
       continue;
@@ -176,18 +182,20 @@ void copy_row(std::string& out, sqlite3_stmt* s, const TableForm& form) {
   out += static_cast<char>(form.table);
   const int columns = static_cast<int>(form.columns.size());
   for (int i = 0; i < columns; ++i) {
-    const int type = sqlite3_column_type(s, i);
+    // One look-up of the column, its value then read as it is.
+    sqlite3_value* value = sqlite3_column_value(s, i);
+    const int type = sqlite3_value_type(value);
     out += static_cast<char>(type);
     switch (type) {
       case SQLITE_INTEGER:
-        append_bytes(out, static_cast<std::int64_t>(sqlite3_column_int64(s, i)));
+        append_bytes(out, static_cast<std::int64_t>(sqlite3_value_int64(value)));
         break;
       case SQLITE_FLOAT:
-        append_bytes(out, sqlite3_column_double(s, i));
+        append_bytes(out, sqlite3_value_double(value));
         break;
       case SQLITE_TEXT: {
-        const auto* data = reinterpret_cast<const char*>(sqlite3_column_text(s, i));
-        const auto bytes = static_cast<std::uint32_t>(sqlite3_column_bytes(s, i));
+        const auto* data = reinterpret_cast<const char*>(sqlite3_value_text(value));
+        const auto bytes = static_cast<std::uint32_t>(sqlite3_value_bytes(value));
         append_bytes(out, bytes);
         out.append(data, bytes);
         break;

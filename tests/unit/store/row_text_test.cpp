@@ -101,6 +101,7 @@ class Random {
   }
 
   std::string text() {
+    // ASCII first (half the texts are made of these only), then text beyond ASCII.
     static const char* const kPieces[] = {"a",
                                           "Z",
                                           " ",
@@ -117,22 +118,22 @@ class Random {
                                           "\x7f",
                                           "{\"k\":[",
                                           "]}",
+                                          "g/L",
+                                          "0.1",
+                                          "nitrate",
+                                          "ICH Q2: sigma = response SD",
                                           "\xc3\xa9",
                                           "\xc2\xb5",
                                           "\xe2\x82\xac",
                                           "\xe2\x9c\x93",
                                           "\xf0\x9f\xa7\xaa",
                                           "\xef\xbf\xbd",
-                                          "\u2028",
-                                          "g/L",
-                                          "0.1",
-                                          "nitrate",
-                                          "ICH Q2: sigma = response SD"};
+                                          "\u2028"};
+    constexpr std::size_t kAscii = 20;
+    const std::size_t choices = one_in(2) ? kAscii : std::size(kPieces);
     std::string out;
     const std::uint64_t pieces = one_in(5) ? 0 : below(40);
-    for (std::uint64_t i = 0; i < pieces; ++i) {
-      out += kPieces[below(std::size(kPieces))];
-    }
+    for (std::uint64_t i = 0; i < pieces; ++i) out += kPieces[below(choices)];
     if (one_in(8)) out.append(static_cast<std::size_t>(below(3000)), 'x');
     return out;
   }
