@@ -175,4 +175,21 @@ void append_json_real(std::string& out, double value) {
   out.append(buffer.data(), static_cast<std::size_t>(end - buffer.data()));
 }
 
+void RealWriter::append(std::string& out, double value) {
+  const auto bits = std::bit_cast<std::uint64_t>(value);
+  Slot& slot = slots_[static_cast<std::size_t>((bits * 0x9E3779B97F4A7C15) >> 55)];
+  if (slot.size != 0 && slot.bits == bits) {
+    out.append(slot.text.data(), slot.size);
+    return;
+  }
+  const std::size_t start = out.size();
+  append_json_real(out, value);
+  const std::size_t size = out.size() - start;
+  if (size <= slot.text.size()) {
+    std::memcpy(slot.text.data(), out.data() + start, size);
+    slot.bits = bits;
+    slot.size = static_cast<std::uint8_t>(size);
+  }
+}
+
 }  // namespace cw::audit

@@ -136,7 +136,7 @@ class RowsCheck {
         actual_text_ += ',';
       }
       const std::size_t offset = actual_text_.size();
-      append_canonical_row_text(actual_text_, row_, path_);
+      append_canonical_row_text(actual_text_, row_, reals_, path_);
       actual_rows_.push_back({table, offset, actual_text_.size() - offset});
     }
     if (!first_table) actual_text_ += ']';
@@ -199,6 +199,7 @@ class RowsCheck {
 
   std::string path_;
   CopiedRow row_;
+  audit::RealWriter reals_;
   std::string actual_text_;
   std::vector<RowSpan> actual_rows_;
 };

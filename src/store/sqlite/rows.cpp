@@ -80,7 +80,9 @@ class StatementRow {
   explicit StatementRow(sqlite3_stmt* s) : s_(s) {}
   int type(int i) const { return sqlite3_column_type(s_, i); }
   std::int64_t integer(int i) const { return sqlite3_column_int64(s_, i); }
-  double real(int i) const { return sqlite3_column_double(s_, i); }
+  void append_real(std::string& out, int i) const {
+    audit::append_json_real(out, sqlite3_column_double(s_, i));
+  }
   std::string_view text(int i) const {
     const auto* data = reinterpret_cast<const char*>(sqlite3_column_text(s_, i));
     return {data, static_cast<std::size_t>(sqlite3_column_bytes(s_, i))};
@@ -93,15 +95,16 @@ class StatementRow {
 /// The columns of a copied row, as StatementRow gives those of the row it was copied from.
 class CopiedColumns {
  public:
-  explicit CopiedColumns(const CopiedRow& row) : row_(row) {}
+  CopiedColumns(const CopiedRow& row, audit::RealWriter& reals) : row_(row), reals_(reals) {}
   int type(int i) const { return cell(i).type; }
   std::int64_t integer(int i) const { return cell(i).integer; }
-  double real(int i) const { return cell(i).real; }
+  void append_real(std::string& out, int i) const { reals_.append(out, cell(i).real); }
   std::string_view text(int i) const { return cell(i).text; }
 
  private:
   const CopiedRow::Cell& cell(int i) const { return row_.cells[static_cast<std::size_t>(i)]; }
   const CopiedRow& row_;
+  audit::RealWriter& reals_;
 };
 
 /// The canonical JSON text of one row, from either source: one writer, so that what an entry
@@ -143,7 +146,7 @@ void write_row_text(std::string& out, const Row& row, const TableForm& form,
         break;
       case ColumnType::Real:
         if (type != SQLITE_FLOAT) wrong_kind();
-        audit::append_json_real(out, row.real(index));
+        row.append_real(out, index);
         break;
       case ColumnType::Text:
       case ColumnType::Instant:
@@ -237,8 +240,9 @@ void read_copied_row(std::string_view& in, CopiedRow& row) {
   }
 }
 
-void append_canonical_row_text(std::string& out, const CopiedRow& row, const std::string& path) {
-  write_row_text(out, CopiedColumns(row), form_of(row.table), path);
+void append_canonical_row_text(std::string& out, const CopiedRow& row, audit::RealWriter& reals,
+                               const std::string& path) {
+  write_row_text(out, CopiedColumns(row, reals), form_of(row.table), path);
 }
 
 std::string PayloadBuilder::payload(const std::vector<std::pair<FactTable, std::int64_t>>& rows) {

@@ -16,6 +16,7 @@
 #include <utility>
 #include <vector>
 
+#include "audit/json_text.h"
 #include "store/fact_table.h"
 #include "store/row_form.h"
 #include "store/sqlite/database.h"
@@ -60,8 +61,9 @@ struct CopiedRow {
 void read_copied_row(std::string_view& in, CopiedRow& row);
 
 /// Appends a copied row as canonical JSON text: the same bytes, checks and errors as
-/// append_canonical_row_text on the statement it was copied from.
-void append_canonical_row_text(std::string& out, const CopiedRow& row, const std::string& path);
+/// append_canonical_row_text on the statement it was copied from (its reals written by `reals`).
+void append_canonical_row_text(std::string& out, const CopiedRow& row, audit::RealWriter& reals,
+                               const std::string& path);
 
 /// The payload of an audit entry: {"table": [row, ...], ...}, tables sorted by name, rows by id,
 /// serialised compactly. This text is what the entry's hash covers.

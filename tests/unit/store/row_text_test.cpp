@@ -205,6 +205,7 @@ TEST_CASE("audit: the hand-written canonical row is nlohmann's dump of the row, 
     SQLite::Statement json_rows(db, cw::store::sqlite::select_of(form, " ORDER BY rowid"));
     cw::store::sqlite::Scan text_rows(db, cw::store::sqlite::select_of(form, " ORDER BY rowid"));
     cw::store::sqlite::CopiedRow copied;
+    cw::audit::RealWriter reals;
     std::string copy;
     while (json_rows.executeStep()) {
       REQUIRE(text_rows.step());
@@ -220,7 +221,7 @@ TEST_CASE("audit: the hand-written canonical row is nlohmann's dump of the row, 
       CHECK(rest.empty());
       CHECK(copied.table == t);
       text = "[";
-      cw::store::sqlite::append_canonical_row_text(text, copied, "x");
+      cw::store::sqlite::append_canonical_row_text(text, copied, reals, "x");
       CHECK(text.substr(1) == expected);
       ++compared;
     }
@@ -232,11 +233,15 @@ TEST_CASE("audit: the hand-written canonical row is nlohmann's dump of the row, 
 TEST_CASE("audit: JSON text pieces are nlohmann's dump of the same values, on random values",
           "[store][audit]") {
   Random random(7);
+  cw::audit::RealWriter reals;
   for (int i = 0; i < 20000; ++i) {
     const double d = random.real();
     std::string real;
     cw::audit::append_json_real(real, d);
     CHECK(real == nlohmann::json(d).dump());
+    std::string remembered = "x";  // appended, not assigned; often a value met before
+    reals.append(remembered, d);
+    CHECK(remembered.substr(1) == real);
 
     const std::int64_t n = random.integer();
     std::string integer;
