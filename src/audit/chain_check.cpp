@@ -8,9 +8,10 @@ namespace cw::audit {
 namespace {
 
 // Entries are handed over in batches (one lock per batch), at most this many batches waiting:
-// the memory held stays small whatever the size of the trail.
+// the memory held stays small whatever the size of the trail, and what the reader copied is
+// still in cache when it is checked.
 constexpr std::size_t kBatchEntries = 64;
-constexpr std::size_t kBatchBytes = 1 << 20;
+constexpr std::size_t kBatchBytes = 1 << 18;
 constexpr std::size_t kQueuedBatches = 4;
 
 }  // namespace
