@@ -1,5 +1,5 @@
 // SPDX-License-Identifier: Apache-2.0
-// Links and hashes of an audit trail, checked on a thread of their own.
+// An audit trail checked on a thread of its own.
 #include "audit/chain_check.h"
 
 #include <utility>
@@ -8,14 +8,16 @@ namespace cw::audit {
 namespace {
 
 // Entries are handed over in batches (one lock per batch), at most this many batches waiting:
-// the memory held stays small whatever the size of the trail.
+// the memory held stays small whatever the size of the trail, and what the reader copied is
+// still in cache when it is checked.
 constexpr std::size_t kBatchEntries = 64;
-constexpr std::size_t kBatchBytes = 1 << 20;
+constexpr std::size_t kBatchBytes = 1 << 18;
 constexpr std::size_t kQueuedBatches = 4;
 
 }  // namespace
 
-ChainCheck::ChainCheck() : thread_([this] { run(); }) {}
+ChainCheck::ChainCheck(RowsCheck check_rows)
+    : check_rows_(std::move(check_rows)), thread_([this] { run(); }) {}
 
 ChainCheck::~ChainCheck() {
   {
@@ -27,21 +29,35 @@ ChainCheck::~ChainCheck() {
   if (thread_.joinable()) thread_.join();
 }
 
-void ChainCheck::add(AuditEntry&& entry) {
-  batch_bytes_ += entry.payload.size();
-  batch_.push_back(std::move(entry));
-  if (batch_.size() >= kBatchEntries || batch_bytes_ >= kBatchBytes) flush();
+ChainCheck::Item& ChainCheck::next() {
+  if (batch_.size == batch_.items.size()) batch_.items.emplace_back();
+  Item& item = batch_.items[batch_.size];
+  item.rows.clear();
+  item.rows_complete = true;
+  return item;
+}
+
+void ChainCheck::add() {
+  const Item& item = batch_.items[batch_.size++];
+  batch_bytes_ += item.entry.payload.size() + item.rows.size();
+  if (batch_.size >= kBatchEntries || batch_bytes_ >= kBatchBytes) flush();
 }
 
 void ChainCheck::flush() {
-  if (batch_.empty()) return;
+  if (batch_.size == 0) return;
+  Batch spare;
   {
     std::unique_lock lock(mutex_);
     changed_.wait(lock, [&] { return queue_.size() < kQueuedBatches || break_; });
     if (!break_) queue_.push_back(std::move(batch_));
+    if (!spare_.empty()) {
+      spare = std::move(spare_.back());
+      spare_.pop_back();
+    }
   }
   changed_.notify_all();
-  batch_.clear();
+  batch_ = std::move(spare);
+  batch_.size = 0;
   batch_bytes_ = 0;
 }
 
@@ -65,10 +81,11 @@ std::optional<ChainCheck::Break> ChainCheck::finish() {
 void ChainCheck::run() {
   EntryHasher hasher;
   std::string prev_hash = kGenesisHash;
-  std::vector<AuditEntry> batch;
+  Batch batch;
   for (;;) {
     {
       std::unique_lock lock(mutex_);
+      if (!batch.items.empty()) spare_.push_back(std::move(batch));
       changed_.wait(lock, [&] { return !queue_.empty() || closed_; });
       if (queue_.empty()) break;
       batch = std::move(queue_.front());
@@ -76,21 +93,21 @@ void ChainCheck::run() {
     }
     changed_.notify_all();
     std::optional<Break> found;
-    for (AuditEntry& e : batch) {
-      if (e.prev_hash != prev_hash) {
-        found = Break{Break::Kind::Link, std::move(e), nullptr};
-        break;
-      }
+    for (std::size_t i = 0; i < batch.size && !found; ++i) {
+      Item& item = batch.items[i];
+      AuditEntry& e = item.entry;
       try {
-        if (hasher.hash(e) != e.hash) {
-          found = Break{Break::Kind::Hash, std::move(e), nullptr};
-          break;
+        if (e.prev_hash != prev_hash) {
+          found = Break{Break::Kind::Link, std::move(e), {}, nullptr};
+        } else if (hasher.hash(e) != e.hash) {
+          found = Break{Break::Kind::Hash, std::move(e), {}, nullptr};
+        } else if (auto problem = check_rows_(item)) {
+          found = Break{Break::Kind::Rows, std::move(e), std::move(*problem), nullptr};
         }
       } catch (...) {
-        found = Break{Break::Kind::Error, std::move(e), std::current_exception()};
-        break;
+        found = Break{Break::Kind::Error, std::move(e), {}, std::current_exception()};
       }
-      prev_hash = std::move(e.hash);
+      if (!found) prev_hash = e.hash;
     }
     if (found) {
       std::lock_guard lock(mutex_);

@@ -12,11 +12,10 @@ namespace {
 
 std::string to_hex(const unsigned char* digest, unsigned int length) {
   static constexpr char kHex[] = "0123456789abcdef";
-  std::string out;
-  out.reserve(2 * length);
+  std::string out(2 * static_cast<std::size_t>(length), '0');
   for (unsigned int i = 0; i < length; ++i) {
-    out.push_back(kHex[digest[i] >> 4]);
-    out.push_back(kHex[digest[i] & 0x0f]);
+    out[2 * i] = kHex[digest[i] >> 4];
+    out[2 * i + 1] = kHex[digest[i] & 0x0f];
   }
   return out;
 }

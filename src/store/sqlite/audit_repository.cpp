@@ -10,6 +10,7 @@
 #include "audit/chain_check.h"
 #include "core/error.h"
 #include "store/sqlite/bind.h"
+#include "store/sqlite/rows.h"
 #include "store/sqlite/scan.h"
 #include "store/sqlite/sql.h"
 
@@ -71,11 +72,11 @@ std::string describe(const audit::AuditEntry& e) {
          e.entity_id + ", recorded " + e.recorded_at + ")";
 }
 
-/// Streams one fact table in id order; each row is written as canonical JSON text on demand.
+/// Streams one fact table in id order; the row under the cursor is copied on demand.
 class TableCursor {
  public:
   TableCursor(Database& db, const TableForm& form)
-      : form_(form), path_(db.path), scan_(*db.db, select_of(form, " ORDER BY id")) {
+      : form_(form), scan_(*db.db, select_of(form, " ORDER BY id")) {
     for (std::size_t i = 0; i < form.columns.size(); ++i) {
       if (form.columns[i].name == "id") id_column_ = static_cast<int>(i);
       if (form.columns[i].name == "audit_seq") seq_column_ = static_cast<int>(i);
@@ -86,10 +87,8 @@ class TableCursor {
   bool done() const { return done_; }
   std::int64_t id() const { return id_; }
   std::int64_t audit_seq() const { return audit_seq_; }
-  /// Appends the row under the cursor to `out` as canonical JSON text.
-  void append_text(std::string& out) const {
-    append_canonical_row_text(out, scan_.row(), form_, path_);
-  }
+  /// Appends the row under the cursor to `out` (copy_row).
+  void copy(std::string& out) const { copy_row(out, scan_.row(), form_); }
   void advance() {
     done_ = !scan_.step();
     if (done_) return;
@@ -99,13 +98,110 @@ class TableCursor {
 
  private:
   const TableForm& form_;
-  std::string path_;
   Scan scan_;
   int id_column_ = 0;
   int seq_column_ = 0;
   std::int64_t id_ = 0;
   std::int64_t audit_seq_ = 0;
   bool done_ = false;
+};
+
+/// What is wrong with the rows an entry names, given as copied by TableCursor::copy (tables by
+/// name, rows by id), against its payload: nullopt when their canonical text is the payload (or
+/// the reader stopped copying them: it reports why).
+/// Runs on the checking thread, with buffers of its own reused from entry to entry.
+class RowsCheck {
+ public:
+  explicit RowsCheck(std::string path) : path_(std::move(path)) {}
+
+  std::optional<std::string> operator()(const audit::ChainCheck::Item& item) {
+    const audit::AuditEntry& e = item.entry;
+    // The rows written as the payload's text (the canonical form, keys sorted, no spaces) and
+    // compared with it.
+    actual_text_.assign(1, '{');
+    actual_rows_.clear();
+    std::string_view rows = item.rows;
+    bool first_table = true;
+    FactTable table{};
+    while (!rows.empty()) {
+      read_copied_row(rows, row_);
+      if (first_table || row_.table != table) {
+        if (!first_table) actual_text_ += "],";
+        first_table = false;
+        table = row_.table;
+        actual_text_ += '"';
+        actual_text_ += table_name(table);
+        actual_text_ += "\":[";
+      } else {
+        actual_text_ += ',';
+      }
+      const std::size_t offset = actual_text_.size();
+      append_canonical_row_text(actual_text_, row_, reals_, path_);
+      actual_rows_.push_back({table, offset, actual_text_.size() - offset});
+    }
+    if (!first_table) actual_text_ += ']';
+    actual_text_ += '}';
+    // Rows the reader stopped at are its to report; those before were written for the damage
+    // their text may reveal first.
+    if (!item.rows_complete || actual_text_ == e.payload) return std::nullopt;
+    return difference(e);
+  }
+
+ private:
+  /// Where each row of actual_text_ lies: its table, offset and length.
+  struct RowSpan {
+    FactTable table;
+    std::size_t offset;
+    std::size_t length;
+  };
+
+  /// What differs between the rows and the payload, in the words of the recorded payload.
+  std::string difference(const audit::AuditEntry& e) const {
+    // Rebuild the rows as JSON to find what differs.
+    nlohmann::json actual = nlohmann::json::object();
+    for (const RowSpan& row : actual_rows_) {
+      actual[std::string(table_name(row.table))].push_back(
+          nlohmann::json::parse(actual_text_.substr(row.offset, row.length)));
+    }
+    nlohmann::json recorded;
+    try {
+      recorded = nlohmann::json::parse(e.payload);
+    } catch (const nlohmann::json::exception&) {
+      return describe(e) + " has a payload that is not JSON";
+    }
+    for (auto& [table, rows] : recorded.items()) {
+      const nlohmann::json& now = actual.contains(table) ? actual[table] : nlohmann::json::array();
+      for (const auto& row : rows) {
+        const auto id = row.value("id", nlohmann::json());
+        const auto found = std::find_if(now.begin(), now.end(), [&](const nlohmann::json& r) {
+          return r.value("id", nlohmann::json()) == id;
+        });
+        const std::string name = table + " id " + id.dump();
+        if (found == now.end()) return describe(e) + ": row " + name + " is missing from the store";
+        if (*found != row) return describe(e) + ": row " + name + " differs from what was recorded";
+      }
+    }
+    for (auto& [table, rows] : actual.items()) {
+      for (const auto& row : rows) {
+        const bool listed = recorded.contains(table) &&
+                            std::any_of(recorded[table].begin(), recorded[table].end(),
+                                        [&](const nlohmann::json& r) {
+                                          return r.value("id", nlohmann::json()) == row["id"];
+                                        });
+        if (!listed) {
+          return "row " + table + " id " + row["id"].dump() +
+                 " has no audit entry (it was added behind the tool's back)";
+        }
+      }
+    }
+    return describe(e) + ": its rows differ from what was recorded";
+  }
+
+  std::string path_;
+  CopiedRow row_;
+  audit::RealWriter reals_;
+  std::string actual_text_;
+  std::vector<RowSpan> actual_rows_;
 };
 
 /// The fact tables sorted by name: the order of a payload's keys.
@@ -170,136 +266,62 @@ VerifyReport SqliteAudit::verify() {
       std::int64_t seq;
       std::string problem;
     };
-    std::string actual_text;
-    // Where each row of actual_text lies: its table, offset and length.
-    struct RowSpan {
-      FactTable table;
-      std::size_t offset;
-      std::size_t length;
+    const auto unlisted = [](FactTable t, const TableCursor& cursor) {
+      return Failure{cursor.audit_seq(), "row " + std::string(table_name(t)) + " id " +
+                                             std::to_string(cursor.id()) +
+                                             " has no audit entry (it was added behind the "
+                                             "tool's back)"};
     };
-    std::vector<RowSpan> actual_rows;
-    // The rows that name entry `e`, table by table, as they are stored now, written as the
-    // payload's text (the canonical form, keys sorted, no spaces) and compared with it.
-    const auto check_rows = [&](const audit::AuditEntry& e) -> std::optional<Failure> {
-      actual_text.assign(1, '{');
-      actual_rows.clear();
+    // Copies the rows that name entry `seq` into `out`, table by table (by name), each in id
+    // order; a row claiming an earlier entry (one that did not list it) is a failure.
+    const auto copy_rows = [&](std::int64_t seq, std::string& out) -> std::optional<Failure> {
       for (std::size_t k = 0; k < tables.size(); ++k) {
-        const FactTable t = tables[k];
         TableCursor& cursor = *cursors[k];
-        bool first_row = true;
-        while (!cursor.done() && cursor.audit_seq() <= e.seq) {
-          if (cursor.audit_seq() < e.seq) {
-            // A row claiming an earlier entry that did not list it.
-            return Failure{cursor.audit_seq(), "row " + std::string(table_name(t)) + " id " +
-                                                   std::to_string(cursor.id()) +
-                                                   " has no audit entry (it was added behind the "
-                                                   "tool's back)"};
-          }
-          if (first_row) {
-            if (actual_text.size() > 1) actual_text += ',';
-            actual_text += '"';
-            actual_text += table_name(t);
-            actual_text += "\":[";
-          } else {
-            actual_text += ',';
-          }
-          first_row = false;
-          const std::size_t offset = actual_text.size();
-          cursor.append_text(actual_text);
-          actual_rows.push_back({t, offset, actual_text.size() - offset});
-          cursor.advance();
+        for (; !cursor.done() && cursor.audit_seq() <= seq; cursor.advance()) {
+          if (cursor.audit_seq() < seq) return unlisted(tables[k], cursor);
+          cursor.copy(out);
         }
-        if (!first_row) actual_text += ']';
-      }
-      actual_text += '}';
-      if (actual_text != e.payload) {
-        // Rebuild the rows as JSON to find what differs.
-        nlohmann::json actual = nlohmann::json::object();
-        for (const RowSpan& row : actual_rows) {
-          actual[std::string(table_name(row.table))].push_back(
-              nlohmann::json::parse(actual_text.substr(row.offset, row.length)));
-        }
-        // Find what differs, in the words of the recorded payload.
-        nlohmann::json recorded;
-        try {
-          recorded = nlohmann::json::parse(e.payload);
-        } catch (const nlohmann::json::exception&) {
-          return Failure{e.seq, describe(e) + " has a payload that is not JSON"};
-        }
-        for (auto& [table, rows] : recorded.items()) {
-          const nlohmann::json& now =
-              actual.contains(table) ? actual[table] : nlohmann::json::array();
-          for (const auto& row : rows) {
-            const auto id = row.value("id", nlohmann::json());
-            const auto found = std::find_if(now.begin(), now.end(), [&](const nlohmann::json& r) {
-              return r.value("id", nlohmann::json()) == id;
-            });
-            const std::string name = table + " id " + id.dump();
-            if (found == now.end()) {
-              return Failure{e.seq, describe(e) + ": row " + name + " is missing from the store"};
-            }
-            if (*found != row) {
-              return Failure{e.seq,
-                             describe(e) + ": row " + name + " differs from what was recorded"};
-            }
-          }
-        }
-        for (auto& [table, rows] : actual.items()) {
-          for (const auto& row : rows) {
-            const bool listed = recorded.contains(table) &&
-                                std::any_of(recorded[table].begin(), recorded[table].end(),
-                                            [&](const nlohmann::json& r) {
-                                              return r.value("id", nlohmann::json()) == row["id"];
-                                            });
-            if (!listed) {
-              return Failure{e.seq,
-                             "row " + table + " id " + row["id"].dump() +
-                                 " has no audit entry (it was added behind the tool's back)"};
-            }
-          }
-        }
-        return Failure{e.seq, describe(e) + ": its rows differ from what was recorded"};
       }
       return std::nullopt;
     };
     // Rows left after the last entry.
     const auto check_leftover = [&]() -> std::optional<Failure> {
       for (std::size_t k = 0; k < tables.size(); ++k) {
-        const TableCursor& cursor = *cursors[k];
-        if (!cursor.done()) {
-          return Failure{cursor.audit_seq(), "row " + std::string(table_name(tables[k])) + " id " +
-                                                 std::to_string(cursor.id()) +
-                                                 " has no audit entry (it was added behind the "
-                                                 "tool's back)"};
-        }
+        if (!cursors[k]->done()) return unlisted(tables[k], *cursors[k]);
       }
       return std::nullopt;
     };
 
-    // The links and hashes are checked on a second thread while this one reads the rows; of
-    // what both find, the first in the order of the trail counts (for one entry: a gap, then its
-    // link and hash, then its rows), as when one thread checked everything in that order.
-    audit::ChainCheck chain;
-    std::optional<Failure> found;  // a gap in the sequence or a row problem
+    // This thread reads the entries and copies the rows each names; a second checks each
+    // entry's link, hash and rows in the trail's order. Of what both find, the first in that
+    // order counts (for one entry: a gap, then its link and hash, then its rows), as when one
+    // thread checked everything in that order: what this one finds about an entry's rows, it
+    // hands the entry over with the rows copied before (rows_complete false) and reports after
+    // the second thread has checked its link and hash and written those rows.
+    audit::ChainCheck chain(RowsCheck(db_.path));
+    std::optional<Failure> found;  // a gap in the sequence or a row claiming an earlier entry
     std::exception_ptr error;      // a damaged store, met while reading the rows
     try {
       std::int64_t expected_seq = 1;
       while (!chain.broken() && entries.step()) {
-        audit::AuditEntry e;
-        read_entry(entries.row(), e);
-        if (e.seq != expected_seq) {
+        audit::ChainCheck::Item& item = chain.next();
+        read_entry(entries.row(), item.entry);
+        const std::int64_t seq = item.entry.seq;
+        if (seq != expected_seq) {
           found = Failure{expected_seq, "entry " + std::to_string(expected_seq) +
                                             " is missing (the next entry is " +
-                                            std::to_string(e.seq) + ")"};
+                                            std::to_string(seq) + ")"};
           break;
         }
         try {
-          found = check_rows(e);
+          found = copy_rows(seq, item.rows);
         } catch (...) {
-          chain.add(std::move(e));
+          item.rows_complete = false;
+          chain.add();
           throw;
         }
-        chain.add(std::move(e));
+        item.rows_complete = !found;
+        chain.add();
         if (found) break;
         ++expected_seq;
       }
@@ -316,6 +338,8 @@ VerifyReport SqliteAudit::verify() {
         case audit::ChainCheck::Break::Kind::Hash:
           return fail(e.seq,
                       describe(e) + " was changed after it was written (its hash does not match)");
+        case audit::ChainCheck::Break::Kind::Rows:
+          return fail(e.seq, std::move(broken->problem));
         case audit::ChainCheck::Break::Kind::Error:
           std::rethrow_exception(broken->error);
       }

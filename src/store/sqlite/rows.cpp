@@ -6,6 +6,7 @@
 
 #include <algorithm>
 #include <array>
+#include <cstring>
 #include <stdexcept>
 #include <string_view>
 
@@ -48,16 +49,24 @@ nlohmann::json canonical_row(SQLite::Statement& s, const TableForm& form, const 
 
 namespace {
 
+/// A column of a form, and its key as the canonical text writes it ("name":).
+struct Key {
+  std::size_t index;
+  std::string text;
+};
+
 /// The columns of each form in key order (nlohmann's objects sort their keys), computed once.
-const std::vector<std::size_t>& key_order(const TableForm& form) {
+const std::vector<Key>& key_order(const TableForm& form) {
   static const auto orders = [] {
-    std::array<std::vector<std::size_t>, kAllFactTables.size()> out;
+    std::array<std::vector<Key>, kAllFactTables.size()> out;
     for (const FactTable t : kAllFactTables) {
       const TableForm& f = form_of(t);
       auto& order = out[static_cast<std::size_t>(t)];
-      for (std::size_t i = 0; i < f.columns.size(); ++i) order.push_back(i);
-      std::sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
-        return f.columns[a].name < f.columns[b].name;
+      for (std::size_t i = 0; i < f.columns.size(); ++i) {
+        order.push_back({i, '"' + std::string(f.columns[i].name) + "\":"});
+      }
+      std::sort(order.begin(), order.end(), [&](const Key& a, const Key& b) {
+        return f.columns[a.index].name < f.columns[b.index].name;
       });
     }
     return out;
@@ -65,17 +74,50 @@ const std::vector<std::size_t>& key_order(const TableForm& form) {
   return orders[static_cast<std::size_t>(form.table)];
 }
 
-}  // namespace
+/// The columns of a row as SQLite gives them, by index in the form's order.
+class StatementRow {
+ public:
+  explicit StatementRow(sqlite3_stmt* s) : s_(s) {}
+  int type(int i) const { return sqlite3_column_type(s_, i); }
+  std::int64_t integer(int i) const { return sqlite3_column_int64(s_, i); }
+  void append_real(std::string& out, int i) const {
+    audit::append_json_real(out, sqlite3_column_double(s_, i));
+  }
+  std::string_view text(int i) const {
+    const auto* data = reinterpret_cast<const char*>(sqlite3_column_text(s_, i));
+    return {data, static_cast<std::size_t>(sqlite3_column_bytes(s_, i))};
+  }
 
-void append_canonical_row_text(std::string& out, sqlite3_stmt* row, const TableForm& form,
-                               const std::string& path) {
-  // One type look-up per column, no Column objects.
+ private:
+  sqlite3_stmt* s_;
+};
+
+/// The columns of a copied row, as StatementRow gives those of the row it was copied from.
+class CopiedColumns {
+ public:
+  CopiedColumns(const CopiedRow& row, audit::RealWriter& reals) : row_(row), reals_(reals) {}
+  int type(int i) const { return cell(i).type; }
+  std::int64_t integer(int i) const { return cell(i).integer; }
+  void append_real(std::string& out, int i) const { reals_.append(out, cell(i).real); }
+  std::string_view text(int i) const { return cell(i).text; }
+
+ private:
+  const CopiedRow::Cell& cell(int i) const { return row_.cells[static_cast<std::size_t>(i)]; }
+  const CopiedRow& row_;
+  audit::RealWriter& reals_;
+};
+
+/// The canonical JSON text of one row, from either source: one writer, so that what an entry
+/// records and what `verify` recomputes cannot drift apart.
+template <class Row>
+void write_row_text(std::string& out, const Row& row, const TableForm& form,
+                    const std::string& path) {
   out += '{';
   bool first = true;
-  for (const std::size_t i : key_order(form)) {
-    const Column& column = form.columns[i];
-    const int index = static_cast<int>(i);
-    const int type = sqlite3_column_type(row, index);
+  for (const Key& key : key_order(form)) {
+    const Column& column = form.columns[key.index];
+    const int index = static_cast<int>(key.index);
+    const int type = row.type(index);
     const auto wrong_kind = [&] {
       damaged(path, std::string(form.name) + ": a value of the wrong kind in column " +
                         std::string(column.name));
@@ -91,9 +133,7 @@ void append_canonical_row_text(std::string& out, sqlite3_stmt* row, const TableF
     }
     if (!first) out += ',';
     first = false;
-    out += '"';
-    out += column.name;
-    out += "\":";
+    out += key.text;
     if (type == SQLITE_NULL) {
       out += "null";
       continue;
@@ -102,25 +142,107 @@ void append_canonical_row_text(std::string& out, sqlite3_stmt* row, const TableF
       case ColumnType::Integer:
       case ColumnType::Boolean:
         if (type != SQLITE_INTEGER) wrong_kind();
-        audit::append_json_integer(out, sqlite3_column_int64(row, index));
+        audit::append_json_integer(out, row.integer(index));
         break;
       case ColumnType::Real:
         if (type != SQLITE_FLOAT) wrong_kind();
-        audit::append_json_real(out, sqlite3_column_double(row, index));
+        row.append_real(out, index);
         break;
       case ColumnType::Text:
       case ColumnType::Instant:
       case ColumnType::Date:
-      case ColumnType::Json: {
+      case ColumnType::Json:
         if (type != SQLITE_TEXT) wrong_kind();
-        const auto* text = reinterpret_cast<const char*>(sqlite3_column_text(row, index));
-        const auto bytes = static_cast<std::size_t>(sqlite3_column_bytes(row, index));
-        audit::append_json_string(out, std::string_view(text, bytes));
+        audit::append_json_string(out, row.text(index));
         break;
-      }
     }
   }
   out += '}';
+}
+
+template <class T>
+void append_bytes(std::string& out, const T& value) {
+  out.append(reinterpret_cast<const char*>(&value), sizeof value);
+}
+
+template <class T>
+T read_bytes(std::string_view& in) {
+  if (in.size() < sizeof(T)) throw std::logic_error("a copied row cut short");
+  T value;
+  std::memcpy(&value, in.data(), sizeof value);
+  in.remove_prefix(sizeof value);
+  return value;
+}
+
+}  // namespace
+
+void append_canonical_row_text(std::string& out, sqlite3_stmt* row, const TableForm& form,
+                               const std::string& path) {
+  write_row_text(out, StatementRow(row), form, path);
+}
+
+void copy_row(std::string& out, sqlite3_stmt* s, const TableForm& form) {
+  out += static_cast<char>(form.table);
+  const int columns = static_cast<int>(form.columns.size());
+  for (int i = 0; i < columns; ++i) {
+    // One look-up of the column, its value then read as it is.
+    sqlite3_value* value = sqlite3_column_value(s, i);
+    const int type = sqlite3_value_type(value);
+    out += static_cast<char>(type);
+    switch (type) {
+      case SQLITE_INTEGER:
+        append_bytes(out, static_cast<std::int64_t>(sqlite3_value_int64(value)));
+        break;
+      case SQLITE_FLOAT:
+        append_bytes(out, sqlite3_value_double(value));
+        break;
+      case SQLITE_TEXT: {
+        const auto* data = reinterpret_cast<const char*>(sqlite3_value_text(value));
+        const auto bytes = static_cast<std::uint32_t>(sqlite3_value_bytes(value));
+        append_bytes(out, bytes);
+        out.append(data, bytes);
+        break;
+      }
+      default:  // NULL; a blob, refused when its text is written
+        break;
+    }
+  }
+}
+
+void read_copied_row(std::string_view& in, CopiedRow& row) {
+  const auto table = static_cast<std::size_t>(read_bytes<unsigned char>(in));
+  if (table >= kAllFactTables.size()) throw std::logic_error("a copied row of no table");
+  row.table = static_cast<FactTable>(table);
+  const TableForm& form = form_of(row.table);
+  if (form.columns.size() > CopiedRow::kMaxColumns) {
+    throw std::logic_error("a copied row with too many columns");
+  }
+  for (std::size_t i = 0; i < form.columns.size(); ++i) {
+    CopiedRow::Cell& cell = row.cells[i];
+    cell.type = read_bytes<unsigned char>(in);
+    switch (cell.type) {
+      case SQLITE_INTEGER:
+        cell.integer = read_bytes<std::int64_t>(in);
+        break;
+      case SQLITE_FLOAT:
+        cell.real = read_bytes<double>(in);
+        break;
+      case SQLITE_TEXT: {
+        const auto bytes = read_bytes<std::uint32_t>(in);
+        if (in.size() < bytes) throw std::logic_error("a copied row cut short");
+        cell.text = in.substr(0, bytes);
+        in.remove_prefix(bytes);
+        break;
+      }
+      default:
+        break;
+    }
+  }
+}
+
+void append_canonical_row_text(std::string& out, const CopiedRow& row, audit::RealWriter& reals,
+                               const std::string& path) {
+  write_row_text(out, CopiedColumns(row, reals), form_of(row.table), path);
 }
 
 std::string PayloadBuilder::payload(const std::vector<std::pair<FactTable, std::int64_t>>& rows) {

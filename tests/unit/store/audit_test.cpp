@@ -417,3 +417,61 @@ TEST_CASE("audit: verify writes awkward text and numbers exactly as the payload 
   CHECK(report.ok);
   CHECK(report.entries == 2);
 }
+
+TEST_CASE("audit: verify refuses a damaged value before a row it finds out of place",
+          "[store][audit]") {
+  // The reading thread copies the rows; the checking thread writes their text, and with it
+  // finds a damaged value. A damaged value in an entry's rows counts before a row of a later
+  // table (by name) claiming an earlier entry, found while the rows were read, as when one
+  // thread checked them in that order.
+  Fixture f;
+  f.add_instrument("IC-01", utc(2026, 3, 1, 8));
+  f.add_instrument("IC-02", utc(2026, 3, 1, 9));
+  f.add_instrument("IC-03", utc(2026, 3, 1, 10));
+  f.add_instrument("IC-04", utc(2026, 3, 1, 11));
+  {
+    // The tables are STRICT: only a schema edited behind the tool's back holds a blob.
+    RawDb raw(f.path);
+    REQUIRE(raw.exec("PRAGMA writable_schema = ON;"
+                     "UPDATE sqlite_schema SET sql = replace(sql, ') STRICT', ')') "
+                     "WHERE name = 'instruments';"
+                     "PRAGMA writable_schema = OFF;") == SQLITE_OK);
+  }
+  RawDb raw(f.path);
+  REQUIRE(raw.exec("DROP TRIGGER instruments_no_update;") == SQLITE_OK);
+  // methods id 2 claims entry 2 but comes after id 1 (entry 3): found out of place at entry 3.
+  const auto misplaced_method = [&] {
+    REQUIRE(raw.exec("INSERT INTO methods (id, code, registered_at, audit_seq) VALUES "
+                     "(1, 'M-1', '2026-03-01T10:00:00Z', 3), "
+                     "(2, 'M-2', '2026-03-01T09:00:00Z', 2)") == SQLITE_OK);
+  };
+
+  SECTION("a blob") {
+    REQUIRE(raw.exec("UPDATE instruments SET registered_at = x'00ff' WHERE audit_seq = 3") ==
+            SQLITE_OK);
+    CHECK_THROWS_WITH(f.c->read()->audit().verify(),
+                      Catch::Contains("instruments.registered_at holds a blob"));
+  }
+  SECTION("a row out of place") {
+    misplaced_method();
+    const auto r = f.c->read()->audit().verify();
+    CHECK_FALSE(r.ok);
+    CHECK(r.first_broken == 2);
+    CHECK_THAT(r.problem, Catch::Contains("row methods id 2 has no audit entry"));
+  }
+  SECTION("a blob in the same entry as a row out of place") {
+    misplaced_method();
+    REQUIRE(raw.exec("UPDATE instruments SET registered_at = x'00ff' WHERE audit_seq = 3") ==
+            SQLITE_OK);
+    CHECK_THROWS_WITH(f.c->read()->audit().verify(),
+                      Catch::Contains("instruments.registered_at holds a blob"));
+  }
+  SECTION("a blob in the entry after a row out of place") {
+    misplaced_method();
+    REQUIRE(raw.exec("UPDATE instruments SET registered_at = x'00ff' WHERE audit_seq = 4") ==
+            SQLITE_OK);
+    const auto r = f.c->read()->audit().verify();
+    CHECK(r.first_broken == 2);
+    CHECK_THAT(r.problem, Catch::Contains("row methods id 2 has no audit entry"));
+  }
+}
