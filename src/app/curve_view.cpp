@@ -38,4 +38,16 @@ std::vector<CurveView> make_views(FactSet& facts, const std::vector<CurveId>& id
   return out;
 }
 
+std::vector<CurveView> make_views(FactSet& facts, const std::map<CurveId, CurveStatus>& states,
+                                  Instant at) {
+  std::vector<CurveId> ids;
+  ids.reserve(states.size());
+  for (const auto& [id, status] : states) ids.push_back(id);
+  facts.load(ids, store::CurveDetail::Statistics);
+  std::vector<CurveView> out;
+  out.reserve(ids.size());
+  for (const auto& [id, status] : states) out.push_back(make_view(facts, id, status, at));
+  return out;
+}
+
 }  // namespace cw::app

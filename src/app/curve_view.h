@@ -2,6 +2,7 @@
 // A curve with everything a reader needs, and its state at a moment.
 #pragma once
 
+#include <map>
 #include <string>
 #include <vector>
 
@@ -30,5 +31,9 @@ CurveView make_view(FactSet& facts, CurveId id, const CurveStatus& status, Insta
 /// The views of many curves at `at`, states evaluated in one batch.
 std::vector<CurveView> make_views(FactSet& facts, const std::vector<CurveId>& ids, Instant at,
                                   bool with_points = false);
+/// The views of curves whose states at `at` are already decided (ids in ascending order), with
+/// their statistics and without points.
+std::vector<CurveView> make_views(FactSet& facts, const std::map<CurveId, CurveStatus>& states,
+                                  Instant at);
 
 }  // namespace cw::app

@@ -34,6 +34,11 @@ class Missing {
                    "run 'curvewarden audit verify' and restore the store from a backup");
 }
 
+[[noreturn]] void no_such_curve(CurveId id) {
+  throw NotFoundError("no curve " + std::to_string(id.value),
+                      "list curves with 'curvewarden curve list'");
+}
+
 }  // namespace
 
 void FactSet::load(const std::vector<CurveId>& ids, store::CurveDetail detail) {
@@ -126,10 +131,14 @@ void FactSet::load(const std::vector<CurveId>& ids, store::CurveDetail detail) {
 const Curve& FactSet::curve(CurveId id, store::CurveDetail detail) {
   load({id}, std::max(detail, store::CurveDetail::Statistics));
   auto it = curves_.find(id);
-  if (it == curves_.end()) {
-    throw NotFoundError("no curve " + std::to_string(id.value),
-                        "list curves with 'curvewarden curve list'");
-  }
+  if (it == curves_.end()) no_such_curve(id);
+  return *it->second;
+}
+
+const Curve& FactSet::state_curve(CurveId id) {
+  load({id}, store::CurveDetail::State);
+  auto it = curves_.find(id);
+  if (it == curves_.end()) no_such_curve(id);
   return *it->second;
 }
 

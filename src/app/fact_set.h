@@ -28,6 +28,9 @@ class FactSet {
   /// The curve with at least its statistics (loaded on demand); NotFoundError naming it when
   /// there is none.
   const Curve& curve(CurveId id, store::CurveDetail detail = store::CurveDetail::Statistics);
+  /// A curve as loaded to decide its state (its statistics may be absent): identity, group,
+  /// moments and verdict. NotFoundError naming it when there is none.
+  const Curve& state_curve(CurveId id);
   /// The facts of a curve whose statistics are loaded.
   const rules::CurveFacts& facts(CurveId id);
   const Method& method(MethodId id);

@@ -3,7 +3,10 @@
 #include "app/queries.h"
 
 #include <algorithm>
+#include <map>
+#include <set>
 #include <tuple>
+#include <utility>
 
 #include "app/curves.h"
 #include "app/registry.h"
@@ -14,6 +17,25 @@
 
 namespace cw::app {
 namespace {
+
+/// How an expiring curve's expiry is limited, as the listing shows it.
+ExpiringCurve expiring_entry(FactSet& facts, CurveView view, const LabZone& zone) {
+  ExpiringCurve e;
+  const CurveExpiry expiry =
+      expiry_of(view.curve.acquired_at, view.version, facts.lots_of(view.curve.id), zone);
+  e.limited_by = expiry.limiting_lot != nullptr
+                     ? "lot " + expiry.limiting_lot->code + " expiry"
+                     : "valid for " + to_string(view.version.definition.calibration.valid_for);
+  e.curve = std::move(view);
+  return e;
+}
+
+void sort_soonest_first(std::vector<ExpiringCurve>& curves) {
+  std::sort(curves.begin(), curves.end(), [](const ExpiringCurve& a, const ExpiringCurve& b) {
+    return std::tie(a.curve.curve.expires_at, a.curve.curve.id) <
+           std::tie(b.curve.curve.expires_at, b.curve.curve.id);
+  });
+}
 
 // `chunk_size` candidates share one FactSet: memory stays bounded however many curves a busy
 // store has expiring in the window. The candidates come group by group, so a group's live
@@ -32,27 +54,14 @@ std::vector<ExpiringCurve> active_expiring(store::ReadUnit& unit, const LabZone&
     FactSet facts(unit, zone);
     // The state of every candidate is decided without its fit statistics; only the active ones
     // are read in full to be shown. (Active implies acquired by `now` and not yet expired.)
-    const auto states = facts.statuses(chunk, now);
-    std::vector<CurveId> ids;
-    for (CurveId id : chunk) {
-      if (states.at(id).state == CurveState::Active) ids.push_back(id);
-    }
-    for (auto& v : make_views(facts, ids, now)) {
-      if (v.status.state != CurveState::Active) continue;
-      ExpiringCurve e;
-      const CurveExpiry expiry =
-          expiry_of(v.curve.acquired_at, v.version, facts.lots_of(v.curve.id), zone);
-      e.limited_by = expiry.limiting_lot != nullptr
-                         ? "lot " + expiry.limiting_lot->code + " expiry"
-                         : "valid for " + to_string(v.version.definition.calibration.valid_for);
-      e.curve = std::move(v);
-      out.push_back(std::move(e));
+    auto states = facts.statuses(chunk, now);
+    std::erase_if(states,
+                  [](const auto& entry) { return entry.second.state != CurveState::Active; });
+    for (auto& v : make_views(facts, states, now)) {
+      out.push_back(expiring_entry(facts, std::move(v), zone));
     }
   }
-  std::sort(out.begin(), out.end(), [](const ExpiringCurve& a, const ExpiringCurve& b) {
-    return std::tie(a.curve.curve.expires_at, a.curve.curve.id) <
-           std::tie(b.curve.curve.expires_at, b.curve.curve.id);
-  });  // soonest first
+  sort_soonest_first(out);
   return out;
 }
 
@@ -76,9 +85,6 @@ std::vector<InstrumentStatus> status_board(Session& s) {
   const Instant now = s.at();
   const Instant week = add_duration(now, Duration{7, Duration::Unit::Days}, s.zone());
   auto unit = s.read();
-  // The week's expiring curves of the whole lab, found once and shared out by instrument.
-  const std::vector<ExpiringCurve> expiring_week =
-      active_expiring(*unit, s.zone(), now, week, ExpiringRequest{}.chunk);
   std::vector<InstrumentStatus> out;
   for (const auto& instrument : unit->registry().instruments()) {
     FactSet facts(*unit, s.zone());  // one instrument's live curves at a time
@@ -90,22 +96,28 @@ std::vector<InstrumentStatus> status_board(Session& s) {
     for (const auto& [state, n] : unit->curves().settled_counts(instrument.id, now)) {
       st.counts[state] += n;
     }
+    // The live curves (acquired by now, expiry still ahead) are decided once. They are every
+    // curve a group can have active now, and every curve that can be shown as expiring within
+    // the week: an active curve's expiry is still ahead of it.
     const auto live = unit->curves().live_of_instrument(instrument.id, now);
-    for (const auto& [id, status] : facts.statuses(live, now)) st.counts[status.state] += 1;
-    for (const auto& e : expiring_week) {
-      if (e.curve.curve.instrument_id == instrument.id) st.expiring_soon.push_back(e);
+    std::set<std::pair<MethodId, std::string>> with_active;
+    std::map<CurveId, CurveStatus> expiring_week;
+    for (const auto& [id, status] : facts.statuses(live, now)) {
+      st.counts[status.state] += 1;
+      if (status.state != CurveState::Active) continue;
+      const Curve& c = facts.state_curve(id);
+      with_active.emplace(c.method_id, c.analyte);
+      if (c.expires_at < week) expiring_week.emplace(id, status);
     }
+    for (auto& v : make_views(facts, expiring_week, now)) {
+      st.expiring_soon.push_back(expiring_entry(facts, std::move(v), s.zone()));
+    }
+    sort_soonest_first(st.expiring_soon);
     for (const auto& [method_id, analyte] : unit->curves().method_analytes(instrument.id)) {
       const Method& method = facts.method(method_id);
       const MethodVersion* v = method.version_at(now);
       if (!v || !v->definition.has_analyte(analyte)) continue;
-      const auto group =
-          unit->curves().live_in_group(method_id, instrument.id, analyte, std::nullopt, now);
-      const auto states = facts.statuses(group, now);
-      const bool active = std::any_of(states.begin(), states.end(), [](const auto& entry) {
-        return entry.second.state == CurveState::Active;
-      });
-      if (!active) st.blocked.emplace_back(method.code, analyte);
+      if (!with_active.count({method_id, analyte})) st.blocked.emplace_back(method.code, analyte);
     }
     st.recent_failures = unit->curves().recent_failed_checks(instrument.id, now, 5);
     out.push_back(std::move(st));

@@ -12,6 +12,7 @@
 #include <filesystem>
 #include <map>
 #include <memory>
+#include <set>
 #include <tuple>
 
 #include "app/curve_listing.h"
@@ -72,6 +73,7 @@ TEST_CASE("status and expiring: equal to the rules engine applied curve by curve
   REQUIRE(report.curves >= 200);
 
   std::size_t shown_expiring = 0;
+  std::size_t shown_blocked = 0;
   // The end of the history, and moments inside it where many curves are live.
   for (const char* moment :
        {"2026-12-01T12:00:00Z", "2026-10-15T08:00:00Z", "2026-09-01T00:00:00Z"}) {
@@ -108,14 +110,48 @@ TEST_CASE("status and expiring: equal to the rules engine applied curve by curve
         expected_expiring.push_back(id);
       }
     }
+    // Blocked: a (method, analyte) the instrument has curves for, named by the method's current
+    // version, with no active curve now.
+    std::set<std::tuple<cw::InstrumentId, cw::MethodId, std::string>> with_active;
+    for (const auto& [id, status] : facts.statuses(ids, at)) {
+      const cw::Curve& c = facts.curve(id);
+      if (status.state == cw::CurveState::Active) {
+        with_active.emplace(c.instrument_id, c.method_id, c.analyte);
+      }
+    }
+    std::map<cw::InstrumentId, std::set<std::pair<std::string, std::string>>> expected_blocked;
+    cw::store::CurveFilter ever;
+    ever.acquired_by = cw::parse_instant("9999-12-31T00:00:00Z");
+    for (cw::CurveId id : unit->curves().list(ever)) {
+      const cw::Curve& c = facts.curve(id);
+      const cw::Method& method = facts.method(c.method_id);
+      const cw::MethodVersion* v = method.version_at(at);
+      if (!v || !v->definition.has_analyte(c.analyte)) continue;
+      if (!with_active.count({c.instrument_id, c.method_id, c.analyte})) {
+        expected_blocked[c.instrument_id].emplace(method.code, c.analyte);
+      }
+    }
     for (const auto& st : board) {
       for (const auto& [state, n] : st.counts) {
         INFO("instrument " << st.instrument.code << ", state " << cw::to_string(state));
         CHECK(n == counts[st.instrument.id][state]);
       }
-      for (const auto& e : st.expiring_soon) {
-        CHECK(e.curve.curve.instrument_id == st.instrument.id);
+      std::vector<cw::CurveId> expected_soon;
+      for (cw::CurveId id : expected_expiring) {
+        if (facts.curve(id).instrument_id == st.instrument.id) expected_soon.push_back(id);
       }
+      std::sort(expected_soon.begin(), expected_soon.end(), [&](cw::CurveId a, cw::CurveId b) {
+        return std::tie(facts.curve(a).expires_at, a) < std::tie(facts.curve(b).expires_at, b);
+      });
+      std::vector<cw::CurveId> soon;
+      for (const auto& e : st.expiring_soon) soon.push_back(e.curve.curve.id);
+      INFO("instrument " << st.instrument.code);
+      CHECK(soon == expected_soon);
+      const std::set<std::pair<std::string, std::string>> got_blocked(st.blocked.begin(),
+                                                                      st.blocked.end());
+      CHECK(got_blocked.size() == st.blocked.size());
+      CHECK(got_blocked == expected_blocked[st.instrument.id]);
+      shown_blocked += st.blocked.size();
     }
     // States are decided from curves read without their statistics; the curves shown are
     // completed in place and equal curves read in full from the start.
@@ -162,6 +198,7 @@ TEST_CASE("status and expiring: equal to the rules engine applied curve by curve
     CHECK(lab.size() >= 3);
   }
   CHECK(shown_expiring > 0);  // the comparison of statistics above is not vacuous
+  CHECK(shown_blocked > 0);   // nor is the comparison of blocked groups
 }
 
 namespace {

@@ -191,9 +191,18 @@ inline constexpr const char* kLiveOfInstrument =
 inline constexpr const char* kSettledCounts =
     "SELECT state, sum(delta)::bigint FROM settled_tallies "
     "WHERE instrument_id = :instrument AND effective_at <= :t GROUP BY state";
+// The (method, analyte) pairs an instrument has curves for, one index seek per pair (a skip
+// scan by recursion), so their number, not the instrument's history, sets the cost.
 inline constexpr const char* kMethodAnalytes =
-    "SELECT DISTINCT method_id, analyte FROM curves "
-    "WHERE instrument_id = :instrument ORDER BY method_id, analyte";
+    "WITH RECURSIVE pair (method_id, analyte) AS ("
+    " (SELECT method_id, analyte FROM curves WHERE instrument_id = :instrument"
+    "  ORDER BY method_id, analyte LIMIT 1)"
+    " UNION ALL"
+    " SELECT n.method_id, n.analyte FROM pair p CROSS JOIN LATERAL"
+    " (SELECT c.method_id, c.analyte FROM curves c WHERE c.instrument_id = :instrument"
+    "  AND (c.method_id, c.analyte) > (p.method_id, p.analyte)"
+    "  ORDER BY c.method_id, c.analyte LIMIT 1) n)"
+    " SELECT method_id, analyte FROM pair ORDER BY method_id, analyte";
 inline constexpr const char* kCurvesOfLot =
     "SELECT c.id FROM calibration_lots l JOIN curves c ON c.calibration_id = l.calibration_id "
     "WHERE l.lot_id = :lot ORDER BY c.acquired_at, c.id";

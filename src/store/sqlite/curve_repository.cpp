@@ -420,14 +420,19 @@ std::vector<std::pair<CurveState, std::int64_t>> SqliteCurves::settled_counts(
 std::vector<std::pair<MethodId, std::string>> SqliteCurves::method_analytes(
     InstrumentId instrument) {
   return guarded(db_, [&] {
-    auto& s = db_.statement(sql::kMethodAnalytes);
-    bind_int(s, ":instrument", instrument.value);
+    auto& s = db_.statement(sql::kNextMethodAnalyte);
     std::vector<std::pair<MethodId, std::string>> out;
-    while (s.executeStep()) {
-      out.emplace_back(MethodId{s.getColumn(0).getInt64()}, s.getColumn(1).getString());
+    std::pair<MethodId, std::string> after{MethodId{0}, ""};  // before every stored pair
+    for (;;) {
+      bind_int(s, ":instrument", instrument.value);
+      bind_int(s, ":method", after.first.value);
+      bind_text(s, ":analyte", after.second);
+      const bool found = s.executeStep();
+      if (found) after = {MethodId{s.getColumn(0).getInt64()}, s.getColumn(1).getString()};
+      s.reset();
+      if (!found) return out;
+      out.push_back(after);
     }
-    s.reset();
-    return out;
   });
 }
 

@@ -171,9 +171,13 @@ inline constexpr const char* kLiveOfInstrument =
 inline constexpr const char* kSettledCounts =
     "SELECT state, sum(delta) FROM settled_tallies INDEXED BY settled_tallies_by_instrument "
     "WHERE instrument_id = :instrument AND effective_at <= :t GROUP BY state";
-inline constexpr const char* kMethodAnalytes =
-    "SELECT DISTINCT method_id, analyte FROM curves INDEXED BY curves_by_instrument_group "
-    "WHERE instrument_id = :instrument ORDER BY method_id, analyte";
+// The (method, analyte) pairs an instrument has curves for, one index seek per pair (a skip
+// scan: the caller asks again after the pair it last received, starting from (0, '')), so
+// their number, not the instrument's history, sets the cost.
+inline constexpr const char* kNextMethodAnalyte =
+    "SELECT method_id, analyte FROM curves INDEXED BY curves_by_instrument_group "
+    "WHERE instrument_id = :instrument AND (method_id, analyte) > (:method, :analyte) "
+    "ORDER BY method_id, analyte LIMIT 1";
 inline constexpr const char* kCurvesOfLot =
     "SELECT c.id FROM calibration_lots l JOIN curves c ON c.calibration_id = l.calibration_id "
     "WHERE l.lot_id = :lot ORDER BY c.acquired_at, c.id";
