@@ -149,6 +149,9 @@ CREATE INDEX settled_tallies_by_audit_seq ON settled_tallies (audit_seq);
 CREATE INDEX settled_tallies_by_instrument
   ON settled_tallies (instrument_id, effective_at, state, delta);
 
+-- index settled_totals_by_audit_seq
+CREATE INDEX settled_totals_by_audit_seq ON settled_totals (audit_seq);
+
 -- index signature_failures_by_audit_seq
 CREATE INDEX signature_failures_by_audit_seq ON signature_failures (audit_seq);
 
@@ -517,6 +520,17 @@ CREATE TABLE settled_tallies (
   audit_seq     INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED
 ) STRICT;
 
+-- table settled_totals
+CREATE TABLE settled_totals (
+  instrument_id INTEGER NOT NULL REFERENCES instruments (id),
+  state         TEXT    NOT NULL
+                CHECK (state IN ('rejected', 'awaiting-review', 'stale', 'retired')),
+  n             INTEGER NOT NULL CHECK (n >= 1),
+  total         INTEGER NOT NULL CHECK (total >= 0),
+  audit_seq     INTEGER NOT NULL REFERENCES audit_log (seq) DEFERRABLE INITIALLY DEFERRED,
+  PRIMARY KEY (instrument_id, state, n)
+) STRICT, WITHOUT ROWID;
+
 -- table signature_failures
 CREATE TABLE signature_failures (
   id          INTEGER PRIMARY KEY AUTOINCREMENT,
@@ -768,6 +782,14 @@ BEGIN SELECT RAISE(ABORT, 'settled_tallies is append-only: rows cannot be delete
 CREATE TRIGGER settled_tallies_no_update BEFORE UPDATE ON settled_tallies
 BEGIN SELECT RAISE(ABORT, 'settled_tallies is append-only: rows cannot be changed'); END;
 
+-- trigger settled_totals_no_delete
+CREATE TRIGGER settled_totals_no_delete BEFORE DELETE ON settled_totals
+BEGIN SELECT RAISE(ABORT, 'settled_totals is append-only: rows cannot be deleted'); END;
+
+-- trigger settled_totals_no_update
+CREATE TRIGGER settled_totals_no_update BEFORE UPDATE ON settled_totals
+BEGIN SELECT RAISE(ABORT, 'settled_totals is append-only: rows cannot be changed'); END;
+
 -- trigger signature_failures_no_delete
 CREATE TRIGGER signature_failures_no_delete BEFORE DELETE ON signature_failures
 BEGIN SELECT RAISE(ABORT, 'signature_failures is append-only: rows cannot be deleted'); END;
@@ -808,4 +830,4 @@ BEGIN SELECT RAISE(ABORT, 'users is append-only: rows cannot be deleted'); END;
 CREATE TRIGGER users_no_update BEFORE UPDATE ON users
 BEGIN SELECT RAISE(ABORT, 'users is append-only: rows cannot be changed'); END;
 
-PRAGMA user_version = 9;
+PRAGMA user_version = 10;

@@ -83,4 +83,12 @@ std::vector<TallyStep> tally_change(const SettledHistory* before, const SettledH
   return out;
 }
 
+std::map<std::pair<InstrumentId, CurveState>, std::int64_t> total_change(
+    const std::vector<TallyStep>& steps) {
+  std::map<std::pair<InstrumentId, CurveState>, std::int64_t> net;
+  for (const auto& s : steps) net[{s.instrument, s.state}] += s.delta;
+  std::erase_if(net, [](const auto& entry) { return entry.second == 0; });
+  return net;
+}
+
 }  // namespace cw

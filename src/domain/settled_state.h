@@ -10,6 +10,9 @@
 // appended as facts arrive) instead of deciding every curve of the instrument's history again.
 #pragma once
 
+#include <cstdint>
+#include <map>
+#include <utility>
 #include <vector>
 
 #include "core/time.h"
@@ -65,5 +68,12 @@ std::vector<TallyStep> settled_steps(const SettledHistory& curve);
 /// retirement, back-dated or not): after's steps minus before's, net zero steps left out, in
 /// time order (one moment's in the order of CurveState). `before` empty (nullptr) for a new curve.
 std::vector<TallyStep> tally_change(const SettledHistory* before, const SettledHistory& after);
+
+/// How much `steps` change each instrument's total per state, whatever their moments (net zero
+/// left out). The store keeps, beside the steps, each instrument's running total per state, so
+/// that its count at T is the total less the steps after T: few when T is about now, however
+/// long the history.
+std::map<std::pair<InstrumentId, CurveState>, std::int64_t> total_change(
+    const std::vector<TallyStep>& steps);
 
 }  // namespace cw

@@ -40,12 +40,13 @@ std::string head_of(const Sandbox& box, const std::string& location) {
 
 /// The counts of the audit trail and the fact tables (what a copy carries): not each backend's
 /// own bookkeeping (SQLite's internal tables, PostgreSQL's mark curvewarden_store, the record of
-/// migrations) nor the derived settled_tallies (built on the copy from the facts, so its rows
-/// may be fewer than the source's incremental ones).
+/// migrations) nor the derived settled_tallies and settled_totals (built on the copy from the
+/// facts, so its rows may be fewer than the source's incremental ones).
 std::map<std::string, std::int64_t> carried(std::map<std::string, std::int64_t> counts) {
   std::erase_if(counts, [](const auto& entry) {
     return entry.first.rfind("sqlite_", 0) == 0 || entry.first == "schema_migrations" ||
-           entry.first == "curvewarden_store" || entry.first == "settled_tallies";
+           entry.first == "curvewarden_store" || entry.first == "settled_tallies" ||
+           entry.first == "settled_totals";
   });
   return counts;
 }

@@ -269,14 +269,26 @@ TEST_CASE(
   REQUIRE(verified.exit_code == 0);
   CHECK(verified.json().at("derived_intact") == true);
 
-  // A count forged with plain SQL (the rows are derived: no entry's hash covers them) is found
-  // by audit verify (exit 4), and status shows it until the store is replaced.
+  // A running total forged with plain SQL (the rows are derived: no entry's hash covers them)
+  // is found by audit verify (exit 4), and status shows it until the store is replaced.
+  REQUIRE(cw::test::exec_sql(lab.box,
+                             "INSERT INTO settled_totals (instrument_id, state, n, total, "
+                             "audit_seq) VALUES (1, 'rejected', 1, 1, 1)") == 0);
+  CHECK(counts_at(lab, "2026-06-01T00:00:00Z", "IC-01").at("rejected") == 1);
+  const RunResult forged_total = lab.run({"audit", "verify", "--json"});
+  INFO(forged_total.describe());
+  CHECK(forged_total.exit_code == 4);
+  CHECK(forged_total.json().at("chain_intact") == true);
+  CHECK(forged_total.json().at("derived_intact") == false);
+  CHECK_THAT(forged_total.json().at("derived_problem").get<std::string>(),
+             Catch::Contains("settled totals of instrument id 1, rejected") &&
+                 Catch::Contains("running total is 1 where its tally steps add up to 0"));
+  // So is a forged step, named by its curve.
   REQUIRE(cw::test::exec_sql(lab.box,
                              "INSERT INTO settled_tallies (instrument_id, effective_at, state, "
                              "delta, curve_id, audit_seq) VALUES (1, '2026-03-12T00:00:00Z', "
                              "'rejected', 1, " +
                                  id + ", 1)") == 0);
-  CHECK(counts_at(lab, "2026-06-01T00:00:00Z", "IC-01").at("rejected") == 1);
   const RunResult forged = lab.run({"audit", "verify", "--json"});
   INFO(forged.describe());
   CHECK(forged.exit_code == 4);

@@ -95,7 +95,8 @@ std::vector<std::string> missing_guards(Database& db) {
   s.bind(":schema", db.schema);
   while (s.executeStep()) present.emplace(s.getColumn(0).getString(), s.getColumn(1).getString());
   s.reset();
-  std::vector<std::string> tables{"audit_log", "schema_migrations", "settled_tallies"};
+  std::vector<std::string> tables{"audit_log", "schema_migrations", "settled_tallies",
+                                  "settled_totals"};
   for (FactTable t : kAllFactTables) tables.emplace_back(table_name(t));
   std::vector<std::string> missing;
   for (const auto& t : tables) {

@@ -144,6 +144,7 @@ void PgLoader::commit() {
   guarded(db_, [&] {
     // The derived steps of settled curves are not copied: they are built from the copied facts.
     build_settled_tallies(db_);
+    build_settled_totals(db_);
     db_.run("COMMIT");
   });
 }

@@ -183,7 +183,8 @@ std::string grants_for(const std::string& role, const std::string& schema) {
   // The store's mark and the migration record are only read; entries and facts are appended.
   const std::string read_only =
       quoted(schema) + ".curvewarden_store, " + quoted(schema) + ".schema_migrations";
-  std::string appended = quoted(schema) + ".audit_log, " + quoted(schema) + ".settled_tallies";
+  std::string appended = quoted(schema) + ".audit_log, " + quoted(schema) + ".settled_tallies, " +
+                         quoted(schema) + ".settled_totals";
   for (FactTable t : kAllFactTables)
     appended += ", " + quoted(schema) + "." + std::string(table_name(t));
   const std::string r = quoted(role);

@@ -11,6 +11,7 @@ namespace cw::store::postgresql {
 
 using sqlite::each_settled_history;
 using sqlite::first_step_disagreement;
+using sqlite::first_totals_disagreement;
 using sqlite::read_settled_history;
 using sqlite::SettledHistorySink;
 
@@ -22,6 +23,19 @@ void each_history(Database& db, const SettledHistorySink& each) {
   Statement reviews(db, sql::kAllSettledReviews, Rows::Streamed);
   Statement retirements(db, sql::kAllSettledRetirements, Rows::Streamed);
   each_settled_history(versions, curves, reviews, retirements, db.path, each);
+}
+
+void insert_steps(Database& db, CurveId id, const std::vector<TallyStep>& steps, std::int64_t seq) {
+  for (const auto& step : steps) {
+    auto& s = db.statement(sql::kInsertTallyStep);
+    bind_int(s, ":instrument", step.instrument.value);
+    bind_instant(s, ":at", step.at);
+    bind_text(s, ":state", std::string(to_string(step.state)));
+    bind_int(s, ":delta", step.delta);
+    bind_int(s, ":curve", id.value);
+    bind_int(s, ":seq", seq);
+    s.exec();
+  }
 }
 
 }  // namespace
@@ -43,28 +57,49 @@ SettledHistory settled_history(Database& db, CurveId id) {
 
 void append_tally_steps(Database& db, CurveId id, const std::vector<TallyStep>& steps,
                         std::int64_t seq) {
-  for (const auto& step : steps) {
-    auto& s = db.statement(sql::kInsertTallyStep);
-    bind_int(s, ":instrument", step.instrument.value);
-    bind_instant(s, ":at", step.at);
-    bind_text(s, ":state", std::string(to_string(step.state)));
-    bind_int(s, ":delta", step.delta);
-    bind_int(s, ":curve", id.value);
-    bind_int(s, ":seq", seq);
-    s.exec();
+  insert_steps(db, id, steps, seq);
+  for (const auto& [key, change] : total_change(steps)) {
+    const std::string state(to_string(key.second));
+    auto& latest = db.statement(sql::kLatestSettledTotal);
+    bind_int(latest, ":instrument", key.first.value);
+    bind_text(latest, ":state", state);
+    std::int64_t n = 0;
+    std::int64_t total = 0;
+    if (latest.executeStep()) {
+      n = latest.getColumn(0).getInt64();
+      total = latest.getColumn(1).getInt64();
+    }
+    latest.reset();
+    auto& insert = db.statement(sql::kInsertSettledTotal);
+    bind_int(insert, ":instrument", key.first.value);
+    bind_text(insert, ":state", state);
+    bind_int(insert, ":n", n + 1);
+    bind_int(insert, ":total", total + change);
+    bind_int(insert, ":seq", seq);
+    insert.exec();
   }
 }
 
 void build_settled_tallies(Database& db) {
   each_history(db, [&](CurveId id, const SettledHistory& h, std::int64_t latest) {
-    append_tally_steps(db, id, settled_steps(h), latest);
+    insert_steps(db, id, settled_steps(h), latest);
   });
 }
 
+void build_settled_totals(Database& db) {
+  db.run(sql::kBuildSettledTotals);
+}
+
 std::optional<std::string> settled_tallies_disagreement(Database& db) {
-  Statement stored(db, sql::kStoredTallySteps, Rows::Streamed);
-  return first_step_disagreement(stored, db.path,
-                                 [&](const SettledHistorySink& sink) { each_history(db, sink); });
+  {
+    Statement stored(db, sql::kStoredTallySteps, Rows::Streamed);
+    if (auto found = first_step_disagreement(
+            stored, db.path, [&](const SettledHistorySink& sink) { each_history(db, sink); })) {
+      return found;
+    }
+  }
+  Statement totals(db, sql::kSettledTotalsDisagreement);
+  return first_totals_disagreement(totals);
 }
 
 }  // namespace cw::store::postgresql

@@ -17,7 +17,8 @@ namespace cw::store::postgresql {
 /// What the store holds about one curve's settled state (its reviews and retirements so far).
 SettledHistory settled_history(Database& db, CurveId id);
 
-/// Appends `steps` of curve `id`, caused by the entry `seq`.
+/// Appends `steps` of curve `id`, caused by the entry `seq`, and the instrument's running
+/// totals per state they change.
 void append_tally_steps(Database& db, CurveId id, const std::vector<TallyStep>& steps,
                         std::int64_t seq);
 
@@ -26,8 +27,13 @@ void append_tally_steps(Database& db, CurveId id, const std::vector<TallyStep>& 
 /// retirement).
 void build_settled_tallies(Database& db);
 
-/// The first disagreement between the stored steps and the steps the facts give, in words;
-/// nullopt when they agree. Streams both in curve order.
+/// Appends each instrument's running totals per state from its steps, all built (`store copy`;
+/// migration 0004 does the same in SQL).
+void build_settled_totals(Database& db);
+
+/// The first disagreement between the stored steps and the steps the facts give, or between an
+/// instrument's latest running total per state and its steps, in words; nullopt when they
+/// agree. Streams the steps and the facts in curve order.
 std::optional<std::string> settled_tallies_disagreement(Database& db);
 
 }  // namespace cw::store::postgresql

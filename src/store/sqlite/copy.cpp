@@ -112,6 +112,7 @@ void SqliteLoader::commit() {
     inserts_.clear();
     // The derived steps of settled curves are not copied: they are built from the copied facts.
     build_settled_tallies(db_);
+    build_settled_totals(db_);
     db_.release_statements();
     db_.db->exec("COMMIT");
     open_ = false;

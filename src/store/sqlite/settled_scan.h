@@ -138,4 +138,15 @@ std::optional<std::string> first_step_disagreement(
   return found;
 }
 
+/// The first row of `totals` (instrument_id, state, latest running total, sum of its steps:
+/// the rows where they differ), in words; nullopt when it has none.
+template <class Statement>
+std::optional<std::string> first_totals_disagreement(Statement& totals) {
+  if (!totals.executeStep()) return std::nullopt;
+  return "the settled totals of instrument id " + std::to_string(totals.getColumn(0).getInt64()) +
+         ", " + totals.getColumn(1).getString() + ": the latest running total is " +
+         std::to_string(totals.getColumn(2).getInt64()) + " where its tally steps add up to " +
+         std::to_string(totals.getColumn(3).getInt64());
+}
+
 }  // namespace cw::store::sqlite

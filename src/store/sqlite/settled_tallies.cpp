@@ -18,6 +18,19 @@ void each_history(Database& db, const SettledHistorySink& each) {
   each_settled_history(versions, curves, reviews, retirements, db.path, each);
 }
 
+void insert_steps(Database& db, CurveId id, const std::vector<TallyStep>& steps, std::int64_t seq) {
+  for (const auto& step : steps) {
+    auto& s = db.statement(sql::kInsertTallyStep);
+    bind_int(s, ":instrument", step.instrument.value);
+    bind_instant(s, ":at", step.at);
+    bind_text(s, ":state", std::string(to_string(step.state)));
+    bind_int(s, ":delta", step.delta);
+    bind_int(s, ":curve", id.value);
+    bind_int(s, ":seq", seq);
+    s.exec();
+  }
+}
+
 }  // namespace
 
 SettledHistory settled_history(Database& db, CurveId id) {
@@ -37,21 +50,32 @@ SettledHistory settled_history(Database& db, CurveId id) {
 
 void append_tally_steps(Database& db, CurveId id, const std::vector<TallyStep>& steps,
                         std::int64_t seq) {
-  for (const auto& step : steps) {
-    auto& s = db.statement(sql::kInsertTallyStep);
-    bind_int(s, ":instrument", step.instrument.value);
-    bind_instant(s, ":at", step.at);
-    bind_text(s, ":state", std::string(to_string(step.state)));
-    bind_int(s, ":delta", step.delta);
-    bind_int(s, ":curve", id.value);
-    bind_int(s, ":seq", seq);
-    s.exec();
+  insert_steps(db, id, steps, seq);
+  for (const auto& [key, change] : total_change(steps)) {
+    const std::string state(to_string(key.second));
+    auto& latest = db.statement(sql::kLatestSettledTotal);
+    bind_int(latest, ":instrument", key.first.value);
+    bind_text(latest, ":state", state);
+    std::int64_t n = 0;
+    std::int64_t total = 0;
+    if (latest.executeStep()) {
+      n = latest.getColumn(0).getInt64();
+      total = latest.getColumn(1).getInt64();
+    }
+    latest.reset();
+    auto& insert = db.statement(sql::kInsertSettledTotal);
+    bind_int(insert, ":instrument", key.first.value);
+    bind_text(insert, ":state", state);
+    bind_int(insert, ":n", n + 1);
+    bind_int(insert, ":total", total + change);
+    bind_int(insert, ":seq", seq);
+    insert.exec();
   }
 }
 
 void build_settled_tallies(Database& db) {
   each_history(db, [&](CurveId id, const SettledHistory& h, std::int64_t latest) {
-    append_tally_steps(db, id, settled_steps(h), latest);
+    insert_steps(db, id, settled_steps(h), latest);
   });
 }
 
@@ -59,10 +83,18 @@ void build_settled_tallies_step(Database& db, const Clock& /*clock*/) {
   build_settled_tallies(db);
 }
 
+void build_settled_totals(Database& db) {
+  db.db->exec(sql::kBuildSettledTotals);
+}
+
 std::optional<std::string> settled_tallies_disagreement(Database& db) {
   SQLite::Statement stored(*db.db, sql::kStoredTallySteps);
-  return first_step_disagreement(stored, db.path,
-                                 [&](const SettledHistorySink& sink) { each_history(db, sink); });
+  if (auto found = first_step_disagreement(
+          stored, db.path, [&](const SettledHistorySink& sink) { each_history(db, sink); })) {
+    return found;
+  }
+  SQLite::Statement totals(*db.db, sql::kSettledTotalsDisagreement);
+  return first_totals_disagreement(totals);
 }
 
 }  // namespace cw::store::sqlite

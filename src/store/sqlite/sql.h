@@ -166,11 +166,19 @@ inline constexpr const char* kCurvesExpiringBetween =
 inline constexpr const char* kLiveOfInstrument =
     "SELECT id FROM curves WHERE instrument_id = :instrument AND expires_at > :t AND "
     "acquired_at <= :t ORDER BY acquired_at, id";
-// An instrument's settled curves per state at a moment: its tally steps up to then, read from
-// the index alone (migration 0009).
+// An instrument's settled curves per state at a moment: its latest running total per state
+// less its tally steps after the moment (migration 0010), each from an index: a seek per state,
+// and the steps still ahead, few when the moment is about now.
 inline constexpr const char* kSettledCounts =
-    "SELECT state, sum(delta) FROM settled_tallies INDEXED BY settled_tallies_by_instrument "
-    "WHERE instrument_id = :instrument AND effective_at <= :t GROUP BY state";
+    "WITH settled (state) AS (VALUES ('rejected'), ('awaiting-review'), ('stale'), ('retired')), "
+    "latest (state, total) AS (SELECT settled.state, (SELECT t.total FROM settled_totals t "
+    "  WHERE t.instrument_id = :instrument AND t.state = settled.state "
+    "  ORDER BY t.n DESC LIMIT 1) FROM settled), "
+    "ahead (state, delta) AS (SELECT state, sum(delta) FROM settled_tallies "
+    "  INDEXED BY settled_tallies_by_instrument WHERE instrument_id = :instrument AND effective_at "
+    "> :t GROUP BY state) "
+    "SELECT l.state, coalesce(l.total, 0) - coalesce(a.delta, 0) FROM latest l "
+    "LEFT JOIN ahead a ON a.state = l.state";
 // The (method, analyte) pairs an instrument has curves for, one index seek per pair (a skip
 // scan: the caller asks again after the pair it last received, starting from (0, '')), so
 // their number, not the instrument's history, sets the cost.
@@ -208,6 +216,33 @@ inline constexpr const char* kInsertReview =
 inline constexpr const char* kInsertTallyStep =
     "INSERT INTO settled_tallies (instrument_id, effective_at, state, delta, curve_id, audit_seq) "
     "VALUES (:instrument, :at, :state, :delta, :curve, :seq)";
+inline constexpr const char* kLatestSettledTotal =
+    "SELECT n, total FROM settled_totals WHERE instrument_id = :instrument AND state = :state "
+    "ORDER BY n DESC LIMIT 1";
+inline constexpr const char* kInsertSettledTotal =
+    "INSERT INTO settled_totals (instrument_id, state, n, total, audit_seq) "
+    "VALUES (:instrument, :state, :n, :total, :seq)";
+// The totals of a store whose steps are all built (`store copy`; the migration does the same).
+inline constexpr const char* kBuildSettledTotals =
+    "INSERT INTO settled_totals (instrument_id, state, n, total, audit_seq) "
+    "SELECT instrument_id, state, 1, sum(delta), max(audit_seq) FROM settled_tallies "
+    "GROUP BY instrument_id, state HAVING sum(delta) <> 0";
+// The first (instrument, state) whose latest total is not the sum of its steps.
+inline constexpr const char* kSettledTotalsDisagreement =
+    "WITH summed (instrument_id, state, total) AS (SELECT instrument_id, state, sum(delta) "
+    "  FROM settled_tallies GROUP BY instrument_id, state), "
+    "latest (instrument_id, state, total) AS (SELECT t.instrument_id, t.state, t.total "
+    "  FROM (SELECT instrument_id, state, max(n) AS n FROM settled_totals "
+    "        GROUP BY instrument_id, state) m "
+    "  JOIN settled_totals t ON t.instrument_id = m.instrument_id AND t.state = m.state "
+    "  AND t.n = m.n) "
+    "SELECT l.instrument_id, l.state, l.total, coalesce(s.total, 0) FROM latest l "
+    "LEFT JOIN summed s ON s.instrument_id = l.instrument_id AND s.state = l.state "
+    "WHERE l.total <> coalesce(s.total, 0) "
+    "UNION ALL "
+    "SELECT s.instrument_id, s.state, 0, s.total FROM summed s WHERE s.total <> 0 AND NOT EXISTS "
+    "  (SELECT 1 FROM latest l WHERE l.instrument_id = s.instrument_id AND l.state = s.state) "
+    "ORDER BY 1, 2 LIMIT 1";
 inline constexpr const char* kSettledCurve =
     "SELECT c.instrument_id, c.expires_at, c.verdict, "
     "  coalesce(v.definition ->> '$.calibration.review_required', 1) "

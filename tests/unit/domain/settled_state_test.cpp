@@ -97,3 +97,26 @@ TEST_CASE("tally change: what to append when a fact arrives, back-dated or not",
   again.retirements.push_back(at("2026-05-01T00:00:00Z"));
   CHECK(cw::tally_change(&earlier, again).empty());
 }
+
+TEST_CASE("total change: the running totals move by the net of the steps, whatever their moments",
+          "[domain][settled]") {
+  using Key = std::pair<cw::InstrumentId, CurveState>;
+  const cw::InstrumentId seven{7};
+  // The back-dated retirement above: stale and retired each -1 and +1 at two moments; the
+  // totals do not move (the curve ends retired either way).
+  CHECK(cw::total_change({step("2026-03-20T00:00:00Z", CurveState::Stale, -1),
+                          step("2026-03-20T00:00:00Z", CurveState::Retired, 1),
+                          step("2026-04-01T00:00:00Z", CurveState::Stale, 1),
+                          step("2026-04-01T00:00:00Z", CurveState::Retired, -1)})
+            .empty());
+  // A late approval: one fewer awaiting review, one more stale.
+  CHECK(cw::total_change({step("2026-03-10T08:00:00Z", CurveState::AwaitingReview, -1),
+                          step("2026-03-10T08:00:00Z", CurveState::Stale, 1)}) ==
+        std::map<Key, std::int64_t>{{{seven, CurveState::AwaitingReview}, -1},
+                                    {{seven, CurveState::Stale}, 1}});
+  // A new curve retired after its expiry: +1 stale, then -1 stale +1 retired: net retired.
+  auto retired = curve(false);
+  retired.retirements.push_back(at("2026-04-01T00:00:00Z"));
+  CHECK(cw::total_change(cw::settled_steps(retired)) ==
+        std::map<Key, std::int64_t>{{{seven, CurveState::Retired}, 1}});
+}

@@ -68,7 +68,7 @@ std::vector<std::string> table_names(RawDb& raw) {
 
 TEST_CASE("store: the migrations compiled in are the files of migrations/, in order", "[store]") {
   const auto m = cw::store::sqlite::embedded_migrations();
-  REQUIRE(m.size() == 9);
+  REQUIRE(m.size() == 10);
   CHECK(m[0].version == 1);
   CHECK(m[0].name == "0001_create_audit_and_registries");
   CHECK(m[1].version == 2);
@@ -89,6 +89,9 @@ TEST_CASE("store: the migrations compiled in are the files of migrations/, in or
   CHECK(m[8].version == 9);
   CHECK(m[8].name == "0009_derive_settled_tallies");
   CHECK(m[8].after != nullptr);  // builds the tally steps of the curves already stored
+  CHECK(m[9].version == 10);
+  CHECK(m[9].name == "0010_total_settled_tallies");
+  CHECK(m[9].after == nullptr);  // its totals are built from the steps by its own SQL
   CHECK_THAT(m[0].sql, Catch::Contains("CREATE TABLE audit_log"));
 }
 
@@ -143,13 +146,14 @@ TEST_CASE("store: a fresh store records every migration, user_version and applic
                                                      "runs",
                                                      "schema_migrations",
                                                      "settled_tallies",
+                                                     "settled_totals",
                                                      "signature_failures",
                                                      "signatures",
                                                      "user_events",
                                                      "user_passphrases",
                                                      "users"});
   // Two append-only triggers (no update, no delete) for each of the 30 tables.
-  CHECK(raw.integer("SELECT count(*) FROM sqlite_master WHERE type = 'trigger'") == 60);
+  CHECK(raw.integer("SELECT count(*) FROM sqlite_master WHERE type = 'trigger'") == 62);
 
   // The same facts in the file header, read as bytes.
   const std::string header = read_bytes(path).substr(0, 100);
@@ -336,5 +340,5 @@ TEST_CASE("store: every table whose rows name an audit entry has an index on aud
                       "') l, pragma_index_info(l.name) i WHERE i.seqno = 0 AND "
                       "i.name = 'audit_seq'") >= 1);
   }
-  CHECK(tables == 28);  // the 27 fact tables and settled_tallies
+  CHECK(tables == 29);  // the 27 fact tables, settled_tallies and settled_totals
 }

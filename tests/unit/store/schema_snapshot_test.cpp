@@ -74,7 +74,7 @@ TEST_CASE("store: schema/current.sql matches the schema the migrations build", "
   }
   const std::string generated = schema_dump(path);
   CHECK_THAT(generated, Catch::Contains("-- table audit_log\nCREATE TABLE audit_log ("));
-  CHECK_THAT(generated, Catch::Contains("PRAGMA user_version = 9;"));
+  CHECK_THAT(generated, Catch::Contains("PRAGMA user_version = 10;"));
 
   const char* update = std::getenv("CURVEWARDEN_UPDATE_SCHEMA_SNAPSHOT");
   if (update != nullptr && std::string(update) == "1") {
