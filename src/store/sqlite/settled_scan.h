@@ -13,6 +13,7 @@
 #include <string>
 #include <tuple>
 #include <unordered_map>
+#include <vector>
 
 #include "domain/settled_state.h"
 #include "store/sqlite/codec.h"
@@ -136,6 +137,34 @@ std::optional<std::string> first_step_disagreement(
   });
   if (!found && more) found = unexplained();
   return found;
+}
+
+/// Appends to `insert` (:instrument, :state, :n, :total, :seq) the next running total of each
+/// (instrument, state) that `steps` change, after the latest one `latest` (:instrument, :state;
+/// columns n, total; nothing when there is none yet) reads.
+template <class Statement>
+void append_settled_totals(Statement& latest, Statement& insert,
+                           const std::vector<TallyStep>& steps, std::int64_t seq) {
+  for (const auto& [key, change] : total_change(steps)) {
+    const std::string state(to_string(key.second));
+    const std::int64_t instrument = key.first.value;
+    latest.bind(":instrument", instrument);
+    latest.bind(":state", state);
+    std::int64_t n = 0;
+    std::int64_t total = 0;
+    if (latest.executeStep()) {
+      n = latest.getColumn(0).getInt64();
+      total = latest.getColumn(1).getInt64();
+    }
+    latest.reset();
+    insert.bind(":instrument", instrument);
+    insert.bind(":state", state);
+    insert.bind(":n", n + 1);
+    insert.bind(":total", total + change);
+    insert.bind(":seq", seq);
+    insert.exec();
+    insert.reset();
+  }
 }
 
 /// The first row of `totals` (instrument_id, state, latest running total, sum of its steps:

@@ -51,26 +51,8 @@ SettledHistory settled_history(Database& db, CurveId id) {
 void append_tally_steps(Database& db, CurveId id, const std::vector<TallyStep>& steps,
                         std::int64_t seq) {
   insert_steps(db, id, steps, seq);
-  for (const auto& [key, change] : total_change(steps)) {
-    const std::string state(to_string(key.second));
-    auto& latest = db.statement(sql::kLatestSettledTotal);
-    bind_int(latest, ":instrument", key.first.value);
-    bind_text(latest, ":state", state);
-    std::int64_t n = 0;
-    std::int64_t total = 0;
-    if (latest.executeStep()) {
-      n = latest.getColumn(0).getInt64();
-      total = latest.getColumn(1).getInt64();
-    }
-    latest.reset();
-    auto& insert = db.statement(sql::kInsertSettledTotal);
-    bind_int(insert, ":instrument", key.first.value);
-    bind_text(insert, ":state", state);
-    bind_int(insert, ":n", n + 1);
-    bind_int(insert, ":total", total + change);
-    bind_int(insert, ":seq", seq);
-    insert.exec();
-  }
+  append_settled_totals(db.statement(sql::kLatestSettledTotal),
+                        db.statement(sql::kInsertSettledTotal), steps, seq);
 }
 
 void build_settled_tallies(Database& db) {
