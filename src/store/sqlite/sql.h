@@ -179,13 +179,22 @@ inline constexpr const char* kSettledCounts =
     "> :t GROUP BY state) "
     "SELECT l.state, coalesce(l.total, 0) - coalesce(a.delta, 0) FROM latest l "
     "LEFT JOIN ahead a ON a.state = l.state";
-// The (method, analyte) pairs an instrument has curves for, one index seek per pair (a skip
+// The (method, analyte) pairs an instrument has curves for, two index seeks per pair (a skip
 // scan: the caller asks again after the pair it last received, starting from (0, '')), so
-// their number, not the instrument's history, sets the cost.
+// their number, not the instrument's history, sets the cost. The next pair is the method's next
+// analyte or else the next method's first; a row-value comparison would seek on the method
+// alone and step through every curve of the method's group.
 inline constexpr const char* kNextMethodAnalyte =
-    "SELECT method_id, analyte FROM curves INDEXED BY curves_by_instrument_group "
-    "WHERE instrument_id = :instrument AND (method_id, analyte) > (:method, :analyte) "
-    "ORDER BY method_id, analyte LIMIT 1";
+    "SELECT method_id, analyte FROM ("
+    " SELECT method_id, analyte FROM curves INDEXED BY curves_by_instrument_group"
+    " WHERE instrument_id = :instrument AND method_id = :method AND analyte > :analyte"
+    " ORDER BY analyte LIMIT 1) "
+    "UNION ALL "
+    "SELECT method_id, analyte FROM ("
+    " SELECT method_id, analyte FROM curves INDEXED BY curves_by_instrument_group"
+    " WHERE instrument_id = :instrument AND method_id > :method"
+    " ORDER BY method_id, analyte LIMIT 1) "
+    "ORDER BY 1, 2 LIMIT 1";
 inline constexpr const char* kCurvesOfLot =
     "SELECT c.id FROM calibration_lots l JOIN curves c ON c.calibration_id = l.calibration_id "
     "WHERE l.lot_id = :lot ORDER BY c.acquired_at, c.id";
