@@ -301,6 +301,96 @@ TEST_CASE("postgresql: the same commands give the same facts and the same trail 
   }
 }
 
+TEST_CASE("postgresql: rows and entries sent many to a statement arrive as SQLite stores them",
+          "[postgresql]") {
+  // PostgreSQL receives a curve's points in one statement and a unit's audit entries 256 at a
+  // time, as array literals: text that looks like array syntax (quotes, backslashes, braces,
+  // commas, the word NULL) and reals of every shape must arrive exactly, and a run of 600 rows
+  // crosses the batch's edge twice.
+  TestDatabase db;
+  Sandbox pg_box;
+  Sandbox file_box;
+  // Six levels; the second replicate of each is excluded with an awkward reason and holds an
+  // awkward real.
+  std::string points = "analyte,level,replicate,nominal,response,exclude\n";
+  const std::vector<std::string> reasons = {"\"quoted\", {braced}",
+                                            "back\\slash \\\" end\\",
+                                            "NULL",
+                                            "caf\xc3\xa9 \xe2\x9c\x93 \xc2\xb5g/L, {}",
+                                            "NULL,NULL",
+                                            "a\"b\\c{d}e,f"};
+  const std::vector<std::string> fitted = {"0.101", "0.199", "0.302", "0.398", "0.501", "0.600"};
+  const std::vector<std::string> awkward = {
+      "1e-3", "3.00000000000000044", "0.30000000000000004", "2.5e-300", "123456789012345680", "7"};
+  for (std::size_t i = 0; i < reasons.size(); ++i) {
+    std::string quoted = "\"";
+    for (const char c : reasons[i]) quoted += c == '"' ? std::string("\"\"") : std::string(1, c);
+    quoted += '"';
+    const std::string level = std::to_string(i + 1);
+    points += "nitrate," + level + ",1," + level + "," + fitted[i] + ",\n";
+    points += "nitrate," + level + ",2," + level + "," + awkward[i] + "," + quoted + "\n";
+  }
+  // A check standard before every ten samples and after the last.
+  std::string run = "position,kind,sample,analyte,response,nominal\n";
+  const std::vector<std::string> samples = {"NULL", "\"{1,2}\"", "\"\"\"q\"\"\"", "a\\b",
+                                            "\"x,y\""};
+  for (int i = 1; i <= 600; ++i) {
+    if (i % 11 == 1) {
+      run += std::to_string(i) + ",check,\"CS {" + std::to_string(i) + "}\",nitrate,0.4995,5\n";
+    } else {
+      run += std::to_string(i) + ",sample," +
+             samples[static_cast<std::size_t>(i) % samples.size()] + ",nitrate,0." +
+             std::to_string(1000 + i) + ",\n";
+    }
+  }
+  run += "601,check,CS closing,nitrate,0.5005,5\n";
+  for (auto* box : {&pg_box, &file_box}) {
+    const auto env = box == &pg_box ? on(db, pg_box) : cw::test::EnvOverrides{};
+    box->now = "2026-03-02T09:00:00Z";
+    box->user = "alice";
+    run_ok(*box, {"init", "--lab", "Labor Nord", "--tz", "Europe/Berlin"}, env);
+    run_ok(*box, {"instrument", "add", "IC-02"}, env);
+    box->write_file("anion.toml", cw::test::method_toml());
+    run_ok(*box, {"method", "add", "anion.toml"}, env);
+    run_ok(*box,
+           {"lot", "add", "CRM-1", "--material", "Nitrat", "--expires", "2027-03-31", "--value",
+            "nitrate=1000"},
+           env);
+    run_ok(*box, {"user", "add", "bob", "--name", "Test user bob", "--role", "reviewer"}, env);
+    box->write_file("points.csv", points);
+    run_ok(*box,
+           {"curve", "log", "--method", "ANION-IC", "--instrument", "IC-02", "--lot", "CRM-1",
+            "--points", "points.csv"},
+           env);
+    box->user = "bob";
+    run_ok(*box, {"curve", "review", "1", "--approve", "--reason", "ok"}, env);
+    box->now = "2026-03-02T10:00:00Z";
+    box->write_file("run.csv", run);
+    run_ok(*box, {"run", "import", "run.csv", "--method", "ANION-IC", "--instrument", "IC-02"},
+           env);
+  }
+  const auto pg_log = run_ok(pg_box, {"audit", "log", "--json"}, on(db, pg_box)).json()["entries"];
+  const auto file_log = run_ok(file_box, {"audit", "log", "--json"}, {}).json()["entries"];
+  REQUIRE(pg_log.size() == file_log.size());
+  CHECK(pg_log.size() > 600);
+  for (std::size_t i = 0; i < pg_log.size(); ++i) {
+    INFO("entry " << i + 1);
+    CHECK(without_salted_hashes(pg_log[i]) == without_salted_hashes(file_log[i]));
+  }
+  // The excluded points' reasons read back as written.
+  const auto curve = run_ok(pg_box, {"curve", "show", "1", "--json"}, on(db, pg_box)).json();
+  REQUIRE(curve["points"].size() == 2 * reasons.size());
+  for (std::size_t i = 0; i < reasons.size(); ++i) {
+    INFO("level " << i + 1);
+    CHECK(curve["points"][2 * i]["exclude_reason"].is_null());
+    CHECK(curve["points"][2 * i + 1]["exclude_reason"] == reasons[i]);
+    CHECK(curve["points"][2 * i + 1]["response"] == std::stod(awkward[i]));
+  }
+  const auto verify = run_ok(pg_box, {"audit", "verify", "--json"}, on(db, pg_box)).json();
+  CHECK(verify["ok"] == true);
+  CHECK(verify["entries"] == pg_log.size());
+}
+
 TEST_CASE("postgresql: the triggers refuse UPDATE, DELETE and TRUNCATE of facts and entries",
           "[postgresql]") {
   TestDatabase db;

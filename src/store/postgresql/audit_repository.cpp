@@ -108,6 +108,7 @@ std::vector<std::string> missing_guards(Database& db) {
 }
 
 std::vector<audit::AuditEntry> PgAudit::list(const AuditFilter& filter) {
+  flush();
   return guarded(db_, [&] {
     auto& s = db_.statement(sql::kAuditFiltered);
     if (filter.since) bind_instant(s, ":since", *filter.since);
@@ -120,6 +121,7 @@ std::vector<audit::AuditEntry> PgAudit::list(const AuditFilter& filter) {
 }
 
 VerifyReport PgAudit::verify() {
+  flush();
   return guarded(db_, [&] {
     VerifyReport report;
     auto fail = [&](std::int64_t seq, std::string problem) {
@@ -253,6 +255,7 @@ VerifyReport PgAudit::verify() {
 }
 
 std::optional<ChainHead> PgAudit::head() {
+  flush();
   auto& last = db_.statement(sql::kAuditHead);
   std::optional<ChainHead> out;
   if (last.executeStep())
@@ -262,6 +265,7 @@ std::optional<ChainHead> PgAudit::head() {
 }
 
 std::optional<std::string> PgAudit::hash_at(std::int64_t seq) {
+  flush();
   return guarded(db_, [&]() -> std::optional<std::string> {
     auto& s = db_.statement(sql::kAuditHashAt);
     bind_int(s, ":seq", seq);
@@ -270,6 +274,30 @@ std::optional<std::string> PgAudit::hash_at(std::int64_t seq) {
     s.reset();
     return out;
   });
+}
+
+std::vector<std::int64_t> WriteState::insert_rows(Statement& insert, FactTable table,
+                                                  const std::string& path) {
+  std::vector<std::int64_t> ids;
+  const TableForm& form = form_of(table);
+  while (insert.executeStep()) {
+    nlohmann::json row = canonical_row(insert, form, path);
+    const std::int64_t id = row.at("id").get<std::int64_t>();
+    add_row(table, id);
+    returned.emplace(std::make_pair(table, id), std::move(row));
+    ids.push_back(id);
+  }
+  insert.reset();
+  return ids;
+}
+
+std::int64_t WriteState::insert_row(Statement& insert, FactTable table, const std::string& path) {
+  const auto ids = insert_rows(insert, table, path);
+  if (ids.size() != 1) {
+    throw std::logic_error("an INSERT of one " + std::string(table_name(table)) + " row returned " +
+                           std::to_string(ids.size()));
+  }
+  return ids.front();
 }
 
 void PgAudit::start(WriteState& w) {
@@ -298,30 +326,64 @@ void PgAudit::append(WriteState& w, const Actor& actor, const EntryHeader& heade
     e.clock_overridden = actor.clock->is_overridden();
     e.tool_version = actor.tool_version;
     e.os_login = actor.os_login;
-    e.payload = payloads_.payload(w.rows);
+    e.payload = payloads_.payload(w.rows, w.returned);
     e.prev_hash = w.prev_hash;
     e.hash = audit::compute_hash(e);
 
-    auto& insert = db_.statement(sql::kInsertAudit);
-    bind_int(insert, ":seq", e.seq);
-    bind_text(insert, ":recorded_at", e.recorded_at);
-    bind_text(insert, ":occurred_at", e.occurred_at);
-    bind_text(insert, ":actor", e.actor);
-    bind_text(insert, ":action", e.action);
-    bind_text(insert, ":entity_kind", e.entity_kind);
-    bind_text(insert, ":entity_id", e.entity_id);
-    bind_opt_text(insert, ":reason", e.reason);
-    bind_int(insert, ":clock_overridden", e.clock_overridden ? 1 : 0);
-    bind_text(insert, ":tool_version", e.tool_version);
-    bind_text(insert, ":payload", e.payload);
-    bind_text(insert, ":prev_hash", e.prev_hash);
-    bind_text(insert, ":hash", e.hash);
-    bind_opt_text(insert, ":os_login", e.os_login);
-    insert.exec();
     w.prev_hash = e.hash;
     ++w.seq;
+    pending_bytes_ += e.payload.size();
+    pending_.push_back(std::move(e));
+    if (pending_.size() >= kFlushEntries || pending_bytes_ >= kFlushBytes) flush();
     w.rows.clear();
+    w.returned.clear();
   });
+}
+
+void PgAudit::flush() {
+  if (pending_.empty()) return;
+  guarded(db_, [&] {
+    ArrayLiteral seq, recorded_at, occurred_at, actor, action, entity_kind, entity_id, reason,
+        clock_overridden, tool_version, payload, prev_hash, hash, os_login;
+    for (const auto& e : pending_) {
+      seq.add(e.seq);
+      recorded_at.add(e.recorded_at);
+      occurred_at.add(e.occurred_at);
+      actor.add(e.actor);
+      action.add(e.action);
+      entity_kind.add(e.entity_kind);
+      entity_id.add(e.entity_id);
+      reason.add(e.reason);
+      clock_overridden.add(e.clock_overridden ? 1 : 0);
+      tool_version.add(e.tool_version);
+      payload.add(e.payload);
+      prev_hash.add(e.prev_hash);
+      hash.add(e.hash);
+      os_login.add(e.os_login);
+    }
+    auto& insert = db_.statement(sql::kInsertAudits);
+    seq.bind(insert, ":seqs");
+    recorded_at.bind(insert, ":recorded_ats");
+    occurred_at.bind(insert, ":occurred_ats");
+    actor.bind(insert, ":actors");
+    action.bind(insert, ":actions");
+    entity_kind.bind(insert, ":entity_kinds");
+    entity_id.bind(insert, ":entity_ids");
+    reason.bind(insert, ":reasons");
+    clock_overridden.bind(insert, ":clock_overriddens");
+    tool_version.bind(insert, ":tool_versions");
+    payload.bind(insert, ":payloads");
+    prev_hash.bind(insert, ":prev_hashes");
+    hash.bind(insert, ":hashes");
+    os_login.bind(insert, ":os_logins");
+    const auto inserted = static_cast<std::size_t>(insert.exec());
+    if (inserted != pending_.size()) {
+      throw std::logic_error(std::to_string(inserted) + " of " + std::to_string(pending_.size()) +
+                             " audit entries were inserted");
+    }
+  });
+  pending_.clear();
+  pending_bytes_ = 0;
 }
 
 }  // namespace cw::store::postgresql

@@ -5,6 +5,7 @@
 // Lists are bound as one array parameter, read with `= ANY(:ids::bigint[])`.
 #pragma once
 
+#include <charconv>
 #include <cmath>
 #include <cstdint>
 #include <optional>
@@ -77,29 +78,64 @@ inline void bind_instant(Statement& s, const char* name, Instant t) {
   }
   s.bind(name, format_utc(t));
 }
+/// One array literal ({1,"a b",NULL,2.5}) built element by element and bound as one parameter:
+/// a list read with `= ANY(:ids::bigint[])`, or a column of many rows inserted by one statement
+/// with `unnest(:a::bigint[], :b::text[], ...)` (one round trip instead of one per row). Each
+/// element's text is what binding the value alone would send, so the stored values are the same.
+class ArrayLiteral {
+ public:
+  void add(std::int64_t v) {
+    separate();
+    text_ += std::to_string(v);
+  }
+  void add(int v) { add(static_cast<std::int64_t>(v)); }
+  void add(double v) {
+    if (!std::isfinite(v)) {
+      throw std::logic_error("a non-finite value was about to be stored in an array parameter");
+    }
+    separate();
+    char buffer[64];  // the shortest text that reads back as the same double, as Statement::bind
+    text_.append(buffer, std::to_chars(buffer, buffer + sizeof buffer, v).ptr);
+  }
+  void add(const std::string& v) {
+    separate();
+    text_ += '"';
+    for (const char c : v) {
+      if (c == '"' || c == '\\') text_ += '\\';
+      text_ += c;
+    }
+    text_ += '"';
+  }
+  template <class T>
+  void add(const std::optional<T>& v) {
+    if (v) {
+      add(*v);
+    } else {
+      separate();
+      text_ += "NULL";
+    }
+  }
+  void bind(Statement& s, const char* name) const { s.bind(name, text_ + "}"); }
+
+ private:
+  void separate() {
+    if (text_.size() > 1) text_ += ',';
+  }
+  std::string text_ = "{";
+};
+
 /// A list of ids as one array literal ({1,2,3}), for `= ANY(:ids::bigint[])`.
 template <class Tag>
 void bind_ids(Statement& s, const char* name, const std::vector<Id<Tag>>& ids) {
-  std::string list = "{";
-  for (const auto& id : ids) {
-    if (list.size() > 1) list += ',';
-    list += std::to_string(id.value);
-  }
-  s.bind(name, list + "}");
+  ArrayLiteral list;
+  for (const auto& id : ids) list.add(id.value);
+  list.bind(s, name);
 }
 /// A list of texts as one array literal, each element quoted, for `= ANY(:ids::text[])`.
 inline void bind_texts(Statement& s, const char* name, const std::vector<std::string>& texts) {
-  std::string list = "{";
-  for (const auto& t : texts) {
-    if (list.size() > 1) list += ',';
-    list += '"';
-    for (const char c : t) {
-      if (c == '"' || c == '\\') list += '\\';
-      list += c;
-    }
-    list += '"';
-  }
-  s.bind(name, list + "}");
+  ArrayLiteral list;
+  for (const auto& t : texts) list.add(t);
+  list.bind(s, name);
 }
 template <class Tag>
 std::optional<std::int64_t> opt_id(const std::optional<Id<Tag>>& id) {

@@ -555,7 +555,7 @@ CalibrationId PgCurves::add_calibration(const Calibration& c) {
 CurveId PgCurves::add_curve(const Curve& c) {
   WriteState& w = writing();
   return guarded(db_, [&] {
-    auto& s = db_.statement(sql::kInsertCurve);
+    auto& s = db_.statement(returning_canonical(sql::kInsertCurve, FactTable::Curves));
     const auto& f = c.fit;
     bind_int(s, ":calibration", c.calibration_id.value);
     bind_int(s, ":method", c.method_id.value);
@@ -586,27 +586,45 @@ CurveId PgCurves::add_curve(const Curve& c) {
     bind_text(s, ":acceptance", acceptance_to_json(c.acceptance).dump());
     bind_instant(s, ":expires", c.expires_at);
     bind_int(s, ":seq", w.seq);
-    s.exec();
-    const CurveId id{db_.last_insert_id()};
-    w.add_row(FactTable::Curves, id.value);
-    for (const auto& p : c.points) {
-      auto& ps = db_.statement(sql::kInsertPoint);
+    const CurveId id{w.insert_row(s, FactTable::Curves, db_.path)};
+    if (!c.points.empty()) {
+      ArrayLiteral lines, levels, reps, nominals, responses, is_responses, ys, backs, res, withins,
+          excludeds, whys;
+      for (const auto& p : c.points) {
+        lines.add(p.source_line);
+        levels.add(p.level);
+        reps.add(p.replicate);
+        nominals.add(p.nominal);
+        responses.add(p.response);
+        is_responses.add(p.is_response);
+        ys.add(p.y);
+        backs.add(p.back_calculated);
+        res.add(p.error_pct);
+        withins.add(p.within_limits ? 1 : 0);
+        excludeds.add(p.excluded ? 1 : 0);
+        whys.add(p.exclude_reason);
+      }
+      auto& ps = db_.statement(returning_canonical(sql::kInsertPoints, FactTable::CurvePoints));
       bind_int(ps, ":curve", id.value);
-      bind_int(ps, ":line", p.source_line);
-      bind_text(ps, ":level", p.level);
-      bind_int(ps, ":rep", p.replicate);
-      bind_real(ps, ":nominal", p.nominal);
-      bind_real(ps, ":response", p.response);
-      bind_opt_real(ps, ":is", p.is_response);
-      bind_real(ps, ":y", p.y);
-      bind_opt_real(ps, ":back", p.back_calculated);
-      bind_opt_real(ps, ":re", p.error_pct);
-      bind_int(ps, ":within", p.within_limits ? 1 : 0);
-      bind_int(ps, ":excluded", p.excluded ? 1 : 0);
-      bind_opt_text(ps, ":why", p.exclude_reason);
       bind_int(ps, ":seq", w.seq);
-      ps.exec();
-      w.add_row(FactTable::CurvePoints, db_.last_insert_id());
+      lines.bind(ps, ":lines");
+      levels.bind(ps, ":levels");
+      reps.bind(ps, ":reps");
+      nominals.bind(ps, ":nominals");
+      responses.bind(ps, ":responses");
+      is_responses.bind(ps, ":is_responses");
+      ys.bind(ps, ":ys");
+      backs.bind(ps, ":backs");
+      res.bind(ps, ":res");
+      withins.bind(ps, ":withins");
+      excludeds.bind(ps, ":excludeds");
+      whys.bind(ps, ":whys");
+      const std::size_t inserted = w.insert_rows(ps, FactTable::CurvePoints, db_.path).size();
+      if (inserted != c.points.size()) {
+        throw std::logic_error("curve " + std::to_string(id.value) + ": " +
+                               std::to_string(inserted) + " of its " +
+                               std::to_string(c.points.size()) + " points were inserted");
+      }
     }
     append_tally_steps(db_, id, tally_change(nullptr, settled_history(db_, id)), w.seq);
     return id;
@@ -653,7 +671,7 @@ void PgCurves::add_retirement(CurveId id, const CurveRetirement& r) {
 CheckId PgCurves::add_check(const Check& k) {
   WriteState& w = writing();
   return guarded(db_, [&] {
-    auto& s = db_.statement(sql::kInsertCheck);
+    auto& s = db_.statement(returning_canonical(sql::kInsertCheck, FactTable::Checks));
     bind_int(s, ":curve", k.curve_id.value);
     bind_text(s, ":kind", std::string(to_string(k.kind)));
     bind_real(s, ":nominal", k.nominal);
@@ -667,9 +685,7 @@ CheckId PgCurves::add_check(const Check& k) {
     bind_text(s, ":analyst", k.analyst);
     bind_instant(s, ":at", k.occurred_at);
     bind_int(s, ":seq", w.seq);
-    s.exec();
-    const CheckId id{db_.last_insert_id()};
-    w.add_row(FactTable::Checks, id.value);
+    const CheckId id{w.insert_row(s, FactTable::Checks, db_.path)};
     return id;
   });
 }
@@ -680,7 +696,7 @@ ResultId PgCurves::add_result(const Result& r) {
     throw std::logic_error("a result is recorded reported or refused; rerun-required is an event");
   }
   return guarded(db_, [&] {
-    auto& s = db_.statement(sql::kInsertResult);
+    auto& s = db_.statement(returning_canonical(sql::kInsertResult, FactTable::Results));
     bind_text(s, ":sample", r.sample);
     bind_text(s, ":analyte", r.analyte);
     bind_text(s, ":status", std::string(to_string(r.status)));
@@ -727,9 +743,7 @@ ResultId PgCurves::add_result(const Result& r) {
     } else {
       bind_opt_text(s, ":uncertainty", std::nullopt);
     }
-    s.exec();
-    const ResultId id{db_.last_insert_id()};
-    w.add_row(FactTable::Results, id.value);
+    const ResultId id{w.insert_row(s, FactTable::Results, db_.path)};
     return id;
   });
 }

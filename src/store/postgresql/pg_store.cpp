@@ -95,6 +95,7 @@ class PgWriteUnit final : public WriteUnit {
   void append_entry(const EntryHeader& header) override { audit_.append(state_, actor_, header); }
   void commit() override {
     if (!state_.rows.empty()) throw std::logic_error("rows written without an audit entry");
+    audit_.flush();
     open_ = false;
     try {
       db_.run("COMMIT");

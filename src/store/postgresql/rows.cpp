@@ -4,7 +4,9 @@
 #include "store/postgresql/rows.h"
 
 #include <algorithm>
+#include <mutex>
 #include <stdexcept>
+#include <string_view>
 
 namespace cw::store::postgresql {
 
@@ -50,7 +52,26 @@ nlohmann::json canonical_row(Statement& s, const TableForm& form, const std::str
   return row;
 }
 
-std::string PayloadBuilder::payload(const std::vector<std::pair<FactTable, std::int64_t>>& rows) {
+const char* returning_canonical(const char* insert_sql, FactTable table) {
+  static std::mutex guard;
+  static std::map<std::pair<const char*, FactTable>, std::string> made;
+  const std::lock_guard<std::mutex> lock(guard);
+  auto& text = made[{insert_sql, table}];
+  if (text.empty()) {
+    constexpr std::string_view kTail = " RETURNING id";
+    const std::string_view sql(insert_sql);
+    if (sql.size() < kTail.size() || sql.substr(sql.size() - kTail.size()) != kTail) {
+      throw std::logic_error(std::string("not an INSERT ... RETURNING id: ") + insert_sql);
+    }
+    const std::string select = select_of(form_of(table), "");
+    const std::string columns = select.substr(7, select.find(" FROM ") - 7);  // after "SELECT "
+    text = std::string(sql.substr(0, sql.size() - kTail.size())) + " RETURNING " + columns;
+  }
+  return text.c_str();
+}
+
+std::string PayloadBuilder::payload(const std::vector<std::pair<FactTable, std::int64_t>>& rows,
+                                    const ReturnedRows& returned) {
   std::map<std::string, std::pair<FactTable, std::vector<std::int64_t>>> by_table;
   for (const auto& [table, id] : rows) {
     auto& slot = by_table[std::string(table_name(table))];
@@ -61,25 +82,37 @@ std::string PayloadBuilder::payload(const std::vector<std::pair<FactTable, std::
   for (auto& [name, entry] : by_table) {
     auto& [table, ids] = entry;
     std::sort(ids.begin(), ids.end());
-    const TableForm& form = form_of(table);
-    auto& select = by_ids_[table];
-    if (!select) {
-      select = std::make_unique<Statement>(
-          db_, select_of(form, " WHERE id = ANY(:ids::bigint[]) ORDER BY id"));
-    }
+    std::map<std::int64_t, nlohmann::json> found;
     std::string list_text = "{";
     for (auto id : ids) {
+      if (auto known = returned.find({table, id}); known != returned.end()) {
+        found.emplace(id, known->second);
+        continue;
+      }
       if (list_text.size() > 1) list_text += ',';
       list_text += std::to_string(id);
     }
-    select->reset();
-    select->bind(":ids", list_text + "}");
-    nlohmann::json list = nlohmann::json::array();
-    while (select->executeStep()) list.push_back(canonical_row(*select, form, db_.path));
-    select->reset();
-    if (list.size() != ids.size()) {
+    if (list_text.size() > 1) {
+      const TableForm& form = form_of(table);
+      auto& select = by_ids_[table];
+      if (!select) {
+        select = std::make_unique<Statement>(
+            db_, select_of(form, " WHERE id = ANY(:ids::bigint[]) ORDER BY id"));
+      }
+      select->reset();
+      select->bind(":ids", list_text + "}");
+      while (select->executeStep()) {
+        nlohmann::json row = canonical_row(*select, form, db_.path);
+        const std::int64_t id = row.at("id").get<std::int64_t>();
+        found.emplace(id, std::move(row));
+      }
+      select->reset();
+    }
+    if (found.size() != ids.size()) {
       throw std::logic_error("rows of " + name + " vanished before audit");
     }
+    nlohmann::json list = nlohmann::json::array();
+    for (auto& [id, row] : found) list.push_back(std::move(row));
     payload[name] = std::move(list);
   }
   return payload.dump();

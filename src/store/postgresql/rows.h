@@ -25,12 +25,23 @@ std::string select_of(const TableForm& form, const std::string& tail);
 /// value does not fit its column.
 nlohmann::json canonical_row(Statement& s, const TableForm& form, const std::string& path);
 
+/// `insert_sql` (an INSERT ending in "RETURNING id") returning instead every column of `table`'s
+/// canonical form, in select_of()'s order, so that canonical_row() reads the row as stored
+/// without a second statement. The text lives as long as the process (statements are cached by
+/// its address).
+const char* returning_canonical(const char* insert_sql, FactTable table);
+
+/// Rows already in canonical form, by table and id.
+using ReturnedRows = std::map<std::pair<FactTable, std::int64_t>, nlohmann::json>;
+
 /// The payload of an audit entry: {"table": [row, ...], ...}, tables sorted by name, rows by id,
-/// serialised compactly. This text is what the entry's hash covers.
+/// serialised compactly. This text is what the entry's hash covers. Rows in `returned` are taken
+/// from there; the others are read back from their tables.
 class PayloadBuilder {
  public:
   explicit PayloadBuilder(Database& db) : db_(db) {}
-  std::string payload(const std::vector<std::pair<FactTable, std::int64_t>>& rows);
+  std::string payload(const std::vector<std::pair<FactTable, std::int64_t>>& rows,
+                      const ReturnedRows& returned = {});
 
  private:
   Database& db_;

@@ -190,7 +190,7 @@ std::vector<ResultStatusEvent> PgRuns::status_events_of(ResultId id) {
 RunId PgRuns::add_run(const Run& r) {
   WriteState& w = writing();
   return guarded(db_, [&] {
-    auto& s = db_.statement(sql::kInsertRun);
+    auto& s = db_.statement(returning_canonical(sql::kInsertRun, FactTable::Runs));
     bind_int(s, ":mv", r.method_version_id.value);
     bind_int(s, ":instrument", r.instrument_id.value);
     bind_instant(s, ":at", r.acquired_at);
@@ -201,9 +201,7 @@ RunId PgRuns::add_run(const Run& r) {
     bind_text(s, ":columns", column_mapping_to_json(r.columns).dump());
     bind_opt_text(s, ":again", r.again_reason);
     bind_int(s, ":seq", w.seq);
-    s.exec();
-    const RunId id{db_.last_insert_id()};
-    w.add_row(FactTable::Runs, id.value);
+    const RunId id{w.insert_row(s, FactTable::Runs, db_.path)};
     return id;
   });
 }
@@ -211,13 +209,12 @@ RunId PgRuns::add_run(const Run& r) {
 void PgRuns::add_run_result(RunId run, long position, ResultId result) {
   WriteState& w = writing();
   guarded(db_, [&] {
-    auto& s = db_.statement(sql::kInsertRunResult);
+    auto& s = db_.statement(returning_canonical(sql::kInsertRunResult, FactTable::RunResults));
     bind_int(s, ":run", run.value);
     bind_int(s, ":position", position);
     bind_int(s, ":result", result.value);
     bind_int(s, ":seq", w.seq);
-    s.exec();
-    w.add_row(FactTable::RunResults, db_.last_insert_id());
+    w.insert_row(s, FactTable::RunResults, db_.path);
   });
 }
 
@@ -225,14 +222,13 @@ void PgRuns::add_run_check(RunId run, long position, CheckId check,
                            const std::optional<std::string>& label) {
   WriteState& w = writing();
   guarded(db_, [&] {
-    auto& s = db_.statement(sql::kInsertRunCheck);
+    auto& s = db_.statement(returning_canonical(sql::kInsertRunCheck, FactTable::RunChecks));
     bind_int(s, ":run", run.value);
     bind_int(s, ":position", position);
     bind_int(s, ":check", check.value);
     bind_opt_text(s, ":label", label);
     bind_int(s, ":seq", w.seq);
-    s.exec();
-    w.add_row(FactTable::RunChecks, db_.last_insert_id());
+    w.insert_row(s, FactTable::RunChecks, db_.path);
   });
 }
 
@@ -242,7 +238,8 @@ StatusEventId PgRuns::add_status_event(const ResultStatusEvent& e) {
     throw std::logic_error("a status event can only make a result rerun-required");
   }
   return guarded(db_, [&] {
-    auto& s = db_.statement(sql::kInsertStatusEvent);
+    auto& s =
+        db_.statement(returning_canonical(sql::kInsertStatusEvent, FactTable::ResultStatusEvents));
     bind_int(s, ":result", e.result_id.value);
     bind_text(s, ":status", std::string(to_string(e.status)));
     bind_text(s, ":reason", std::string(to_string(e.reason)));
@@ -251,9 +248,7 @@ StatusEventId PgRuns::add_status_event(const ResultStatusEvent& e) {
     bind_opt_int(s, ":run", opt_id(e.run_id));
     bind_instant(s, ":at", e.occurred_at);
     bind_int(s, ":seq", w.seq);
-    s.exec();
-    const StatusEventId id{db_.last_insert_id()};
-    w.add_row(FactTable::ResultStatusEvents, id.value);
+    const StatusEventId id{w.insert_row(s, FactTable::ResultStatusEvents, db_.path)};
     return id;
   });
 }

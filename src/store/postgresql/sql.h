@@ -233,12 +233,18 @@ inline constexpr const char* kInsertCurve =
     ":method, :instrument, :at, :analyte, :model, :weighting, :a, :b, :c, :sa, :sb, :sc, :r2, "
     ":sd, :dof, :n, :levels, :low, :high, :lod, :loq, :rsd, :verdict, :failed, :statistics, "
     ":acceptance, :expires, :seq) RETURNING id";
-inline constexpr const char* kInsertPoint =
+// Every point of a curve in one statement: one array per column, unnested in the points'
+// order; ids follow the table's largest, in that order.
+inline constexpr const char* kInsertPoints =
     "INSERT INTO curve_points (id, curve_id, source_line, level, replicate, nominal, response, "
     "is_response, y, back_calculated, error_pct, within_limits, excluded, exclude_reason, "
-    "audit_seq) VALUES ((SELECT coalesce(max(id), 0) + 1 FROM curve_points), :curve, :line, "
-    ":level, :rep, :nominal, :response, :is, :y, :back, :re, "
-    ":within, :excluded, :why, :seq) RETURNING id";
+    "audit_seq) SELECT (SELECT coalesce(max(id), 0) FROM curve_points) + p.n, :curve, p.line, "
+    "p.level, p.rep, p.nominal, p.response, p.is_response, p.y, p.back, p.re, p.within, "
+    "p.excluded, p.why, :seq FROM unnest(:lines::bigint[], :levels::text[], :reps::bigint[], "
+    ":nominals::float8[], :responses::float8[], :is_responses::float8[], :ys::float8[], "
+    ":backs::float8[], :res::float8[], :withins::bigint[], :excludeds::bigint[], :whys::text[]) "
+    "WITH ORDINALITY AS p(line, level, rep, nominal, response, is_response, y, back, re, within, "
+    "excluded, why, n) ORDER BY p.n RETURNING id";
 inline constexpr const char* kInsertReview =
     "INSERT INTO curve_reviews (id, curve_id, decision, reviewer, reason, occurred_at, audit_seq) "
     "VALUES ((SELECT coalesce(max(id), 0) + 1 FROM curve_reviews), :curve, :decision, :reviewer, "
@@ -505,11 +511,14 @@ inline constexpr const char* kAuditFiltered =
     "WHERE (CAST(:since AS text) IS NULL OR recorded_at >= :since) AND "
     "(CAST(:kind AS text) IS NULL OR entity_kind = :kind) "
     "AND (CAST(:id AS text) IS NULL OR entity_id = :id) ORDER BY seq";
-inline constexpr const char* kInsertAudit =
+// Entries made by one write unit, many at a time (PgAudit::flush): one array per column.
+inline constexpr const char* kInsertAudits =
     "INSERT INTO audit_log (seq, recorded_at, occurred_at, actor, action, entity_kind, "
     "entity_id, reason, clock_overridden, tool_version, payload, prev_hash, hash, os_login) "
-    "VALUES (:seq, :recorded_at, :occurred_at, :actor, :action, :entity_kind, :entity_id, "
-    ":reason, :clock_overridden, :tool_version, :payload, :prev_hash, :hash, :os_login)";
+    "SELECT * FROM unnest(:seqs::bigint[], :recorded_ats::text[], :occurred_ats::text[], "
+    ":actors::text[], :actions::text[], :entity_kinds::text[], :entity_ids::text[], "
+    ":reasons::text[], :clock_overriddens::bigint[], :tool_versions::text[], :payloads::text[], "
+    ":prev_hashes::text[], :hashes::text[], :os_logins::text[])";
 inline constexpr const char* kTriggerNames =
     "SELECT c.relname, t.tgname FROM pg_trigger t JOIN pg_class c ON c.oid = t.tgrelid "
     "JOIN pg_namespace n ON n.oid = c.relnamespace "
