@@ -430,7 +430,7 @@ int exec_sql(const Sandbox& box, const std::string& sql, std::string* error) {
 }
 
 int latest_schema_version(const Sandbox& box) {
-  return box.backend() == Backend::Sqlite ? 10 : 4;
+  return box.backend() == Backend::Sqlite ? 10 : 5;
 }
 
 std::string text_join(const Sandbox& box) {

@@ -209,13 +209,16 @@ TEST_CASE("postgresql: init creates the store, migrates it and prints the grants
   const auto j = r.json();
   CHECK(j["created"] == true);
   CHECK(j["store"] == db.uri());
-  CHECK(j["schema_version"] == 4);
+  CHECK(j["schema_version"] == 5);
   REQUIRE(j["grants"].is_string());
   CHECK_THAT(j["grants"].get<std::string>(), Catch::Contains("GRANT SELECT, INSERT ON TABLE"));
   CHECK_THAT(j["grants"].get<std::string>(), Catch::Contains("\"public\".audit_log"));
   CHECK_THAT(j["grants"].get<std::string>(), Catch::Contains("\"public\".settled_tallies"));
   CHECK_THAT(j["grants"].get<std::string>(), Catch::Contains("\"public\".settled_totals"));
-  CHECK(db.sql("SELECT count(*) FROM schema_migrations") == "4");
+  CHECK(db.sql("SELECT count(*) FROM schema_migrations") == "5");
+  // Migration 5: the planner counts a (method, instrument, analyte) group's curves.
+  CHECK(db.sql("SELECT count(*) FROM pg_statistic_ext WHERE stxname = "
+               "'curves_group_statistics'") == "1");
   CHECK(db.sql("SELECT application_id FROM curvewarden_store") == "1129796164");
   // The lab key is where CURVEWARDEN_KEY says.
   CHECK(std::filesystem::exists(box.path("lab.key")));
@@ -627,14 +630,14 @@ TEST_CASE("postgresql: with the grants init prints, the workstations' role only 
   // A store that needs a migration: the workstations' role names the owner, not the grants.
   db.sql(
       "ALTER TABLE schema_migrations DISABLE TRIGGER schema_migrations_no_delete; "
-      "DELETE FROM schema_migrations WHERE version = 4; "
+      "DELETE FROM schema_migrations WHERE version = 5; "
       "ALTER TABLE schema_migrations ENABLE TRIGGER schema_migrations_no_delete");
   const RunResult behind = box.run({"instrument", "list"}, app);
   INFO(behind.describe());
   CHECK(behind.exit_code == 4);
-  CHECK_THAT(behind.err, Catch::Contains("needs migration 4"));
+  CHECK_THAT(behind.err, Catch::Contains("needs migration 5"));
   CHECK_THAT(behind.err, Catch::Contains("as the owner role"));
-  CHECK(db.sql("SELECT count(*) FROM schema_migrations") == "3");
+  CHECK(db.sql("SELECT count(*) FROM schema_migrations") == "4");
   db.sql("REASSIGN OWNED BY " + role + " TO CURRENT_USER; DROP OWNED BY " + role);
   pqxx::connection c(db.admin());
   pqxx::nontransaction n(c);
@@ -717,7 +720,7 @@ TEST_CASE("postgresql: store copy moves a file store to PostgreSQL and back with
       run_ok(box, {"store", "copy", "--from", db.uri(), "--to", "back.db", "--json"});
   CHECK(back.json()["source_head_hash"] == head);
   CHECK(back.json()["destination_head_hash"] == head);
-  CHECK(back.json()["schema_version"] == 4);
+  CHECK(back.json()["schema_version"] == 5);
   CHECK(verify("back.db")["head_hash"] == head);
   // Every row arrived as it was: the same counts table by table as the original file (the
   // derived settled_tallies are built on each copy from the facts: compared through status).
