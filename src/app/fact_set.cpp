@@ -264,6 +264,52 @@ std::map<CurveId, CurveStatus> FactSet::statuses(const std::vector<CurveId>& ids
   return out;
 }
 
+std::map<CurveGroup, FactSet::GroupActive> FactSet::active_in_groups(
+    const std::vector<CurveGroup>& groups, Instant at) {
+  struct Walk {
+    const CurveGroup* group;
+    std::vector<CurveId> live;  // newest first
+    std::size_t next = 0;       // live[0, next) were decided and are not active
+  };
+  std::vector<Walk> walks;
+  walks.reserve(groups.size());
+  for (const CurveGroup& g : groups) {
+    walks.push_back(
+        {&g, unit_.curves().live_in_group(g.method, g.instrument, g.analyte, std::nullopt, at)});
+  }
+  std::map<CurveGroup, GroupActive> out;
+  std::vector<Walk*> open;
+  for (Walk& w : walks) {
+    if (!w.live.empty()) open.push_back(&w);
+  }
+  // The newest curve of a group is most often its active one: one at first, then twice as many
+  // of each group still open at every round.
+  for (std::size_t take = 1; !open.empty(); take *= 2) {
+    std::vector<CurveId> batch;
+    for (const Walk* w : open) {
+      const std::size_t end = std::min(w->live.size(), w->next + take);
+      batch.insert(batch.end(), w->live.begin() + static_cast<std::ptrdiff_t>(w->next),
+                   w->live.begin() + static_cast<std::ptrdiff_t>(end));
+    }
+    load(batch, store::CurveDetail::State);
+    std::vector<Walk*> still;
+    for (Walk* w : open) {
+      const std::size_t end = std::min(w->live.size(), w->next + take);
+      bool found = false;
+      for (; w->next < end && !found; ++w->next) {
+        const CurveId id = w->live[w->next];
+        CurveStatus status = rules::evaluate(state_facts(id), at, zone_);
+        if (status.state != CurveState::Active) continue;
+        out.emplace(*w->group, GroupActive{id, std::move(status)});
+        found = true;
+      }
+      if (!found && w->next < w->live.size()) still.push_back(w);
+    }
+    open = std::move(still);
+  }
+  return out;
+}
+
 std::vector<Signature> FactSet::signatures_of(const std::vector<CurveId>& ids) {
   std::vector<std::string> keys;
   keys.reserve(ids.size());

@@ -33,6 +33,9 @@ class FactSet {
   const Curve& state_curve(CurveId id);
   /// The facts of a curve whose statistics are loaded.
   const rules::CurveFacts& facts(CurveId id);
+  /// The facts of a loaded curve as they are: its statistics may be absent (what the rules
+  /// engine reads does not include them).
+  const rules::CurveFacts& state_facts(CurveId id);
   const Method& method(MethodId id);
   const Instrument& instrument(InstrumentId id);
   const Calibration& calibration(CalibrationId id);
@@ -47,11 +50,22 @@ class FactSet {
   /// analyte) and one batch load.
   std::map<CurveId, CurveStatus> statuses(const std::vector<CurveId>& ids, Instant at);
 
+  /// The active curve of a group at `at`, with its state.
+  struct GroupActive {
+    CurveId curve;
+    CurveStatus status;
+  };
+  /// The active curve of each group at `at` (groups with none are left out), reading no more of
+  /// a group than it takes to find it. A group's live curves are decided newest first, on their
+  /// own: the first active one is the group's (a curve is superseded only by a newer one active
+  /// on its own, and no newer one is), every older one is superseded by it, and so none of those
+  /// needs reading. One query per group for its live curves, then batch loads of the next few
+  /// of every group still without an answer.
+  std::map<CurveGroup, GroupActive> active_in_groups(const std::vector<CurveGroup>& groups,
+                                                     Instant at);
+
  private:
   std::vector<CurveId> newer_live_in_group(const Curve& c, Instant at);
-  /// The facts of a loaded curve as they are: its statistics may be absent (what the rules
-  /// engine reads does not include them).
-  const rules::CurveFacts& state_facts(CurveId id);
 
   store::ReadUnit& unit_;
   const LabZone& zone_;

@@ -102,12 +102,9 @@ std::optional<CurveId> choose_curve(store::ReadUnit& unit, FactSet& facts, const
                                     const Instrument& instrument, const std::string& analyte,
                                     Instant at, const LabZone& zone,
                                     std::vector<Finding>& why_none) {
-  const auto live =
-      unit.curves().live_in_group(method.id, instrument.id, analyte, std::nullopt, at);
-  const auto states = facts.statuses(live, at);
-  for (CurveId id : live) {  // newest first
-    if (states.at(id).state == CurveState::Active) return id;
-  }
+  const CurveGroup group{method.id, instrument.id, analyte};
+  const auto active = facts.active_in_groups({group}, at);
+  if (auto it = active.find(group); it != active.end()) return it->second.curve;
   std::string message = "no active curve for method " + method.code + ", instrument " +
                         instrument.code + ", analyte " + analyte + " at " + zone.format_local(at);
   // Explain with the latest curve that passed acceptance (the one the analyst expects to use);

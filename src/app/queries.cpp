@@ -18,47 +18,49 @@
 namespace cw::app {
 namespace {
 
-/// How an expiring curve's expiry is limited, as the listing shows it.
-ExpiringCurve expiring_entry(FactSet& facts, CurveView view, const LabZone& zone) {
+/// An active curve of `facts` as the expiring lists show it, with how its expiry is limited.
+ExpiringCurve expiring_entry(FactSet& facts, CurveId id, const LabZone& zone) {
+  const rules::CurveFacts& f = facts.state_facts(id);
+  const Curve& c = *f.curve;
+  const MethodVersion& version = f.version();
+  const CurveExpiry expiry = expiry_of(c.acquired_at, version, f.lots, zone);
   ExpiringCurve e;
-  const CurveExpiry expiry =
-      expiry_of(view.curve.acquired_at, view.version, facts.lots_of(view.curve.id), zone);
+  e.id = c.id;
+  e.analyte = c.analyte;
+  e.method_code = f.method->code;
+  e.method_version = version.version;
+  e.instrument_code = f.instrument->code;
+  e.expires_at = c.expires_at;
   e.limited_by = expiry.limiting_lot != nullptr
                      ? "lot " + expiry.limiting_lot->code + " expiry"
-                     : "valid for " + to_string(view.version.definition.calibration.valid_for);
-  e.curve = std::move(view);
+                     : "valid for " + to_string(version.definition.calibration.valid_for);
   return e;
 }
 
 void sort_soonest_first(std::vector<ExpiringCurve>& curves) {
   std::sort(curves.begin(), curves.end(), [](const ExpiringCurve& a, const ExpiringCurve& b) {
-    return std::tie(a.curve.curve.expires_at, a.curve.curve.id) <
-           std::tie(b.curve.curve.expires_at, b.curve.curve.id);
+    return std::tie(a.expires_at, a.id) < std::tie(b.expires_at, b.id);
   });
 }
 
-// `chunk_size` candidates share one FactSet: memory stays bounded however many curves a busy
-// store has expiring in the window. The candidates come group by group, so a group's live
-// curves and checks are read once (twice for the group a chunk boundary splits); each chunk's
-// states are exact, as statuses() reads the groups it needs.
+// The active curves expiring in [now, to): a group has at most one active curve, so each group
+// with a curve expiring in the window is asked for its active one, which is listed when it
+// expires in the window (being active, its expiry is still ahead of `now`). `chunk_size` groups
+// share one FactSet: memory stays bounded however many groups a busy store has.
 std::vector<ExpiringCurve> active_expiring(store::ReadUnit& unit, const LabZone& zone, Instant now,
                                            Instant to, std::size_t chunk_size) {
   chunk_size = std::max<std::size_t>(chunk_size, 1);
-  const std::vector<CurveId> candidates = unit.curves().expiring_between(now, to);
+  const std::vector<CurveGroup> groups = unit.curves().groups_expiring_between(now, to);
   std::vector<ExpiringCurve> out;
-  for (std::size_t begin = 0; begin < candidates.size(); begin += chunk_size) {
-    const std::vector<CurveId> chunk(
-        candidates.begin() + static_cast<std::ptrdiff_t>(begin),
-        candidates.begin() +
-            static_cast<std::ptrdiff_t>(std::min(candidates.size(), begin + chunk_size)));
+  for (std::size_t begin = 0; begin < groups.size(); begin += chunk_size) {
+    const std::vector<CurveGroup> chunk(
+        groups.begin() + static_cast<std::ptrdiff_t>(begin),
+        groups.begin() + static_cast<std::ptrdiff_t>(std::min(groups.size(), begin + chunk_size)));
     FactSet facts(unit, zone);
-    // The state of every candidate is decided without its fit statistics; only the active ones
-    // are read in full to be shown. (Active implies acquired by `now` and not yet expired.)
-    auto states = facts.statuses(chunk, now);
-    std::erase_if(states,
-                  [](const auto& entry) { return entry.second.state != CurveState::Active; });
-    for (auto& v : make_views(facts, states, now)) {
-      out.push_back(expiring_entry(facts, std::move(v), zone));
+    for (const auto& [group, active] : facts.active_in_groups(chunk, now)) {
+      if (facts.state_curve(active.curve).expires_at < to) {
+        out.push_back(expiring_entry(facts, active.curve, zone));
+      }
     }
   }
   sort_soonest_first(out);
@@ -101,16 +103,12 @@ std::vector<InstrumentStatus> status_board(Session& s) {
     // the week: an active curve's expiry is still ahead of it.
     const auto live = unit->curves().live_of_instrument(instrument.id, now);
     std::set<std::pair<MethodId, std::string>> with_active;
-    std::map<CurveId, CurveStatus> expiring_week;
     for (const auto& [id, status] : facts.statuses(live, now)) {
       st.counts[status.state] += 1;
       if (status.state != CurveState::Active) continue;
       const Curve& c = facts.state_curve(id);
       with_active.emplace(c.method_id, c.analyte);
-      if (c.expires_at < week) expiring_week.emplace(id, status);
-    }
-    for (auto& v : make_views(facts, expiring_week, now)) {
-      st.expiring_soon.push_back(expiring_entry(facts, std::move(v), s.zone()));
+      if (c.expires_at < week) st.expiring_soon.push_back(expiring_entry(facts, id, s.zone()));
     }
     sort_soonest_first(st.expiring_soon);
     for (const auto& [method_id, analyte] : unit->curves().method_analytes(instrument.id)) {

@@ -19,12 +19,19 @@ namespace cw::app {
 struct ExpiringRequest {
   bool this_week = false;
   std::optional<Duration> within;  ///< default 7 days
-  /// How many candidates are evaluated together: bounds memory whatever the window holds (the
-  /// answer does not depend on it; tests vary it).
-  std::size_t chunk = 512;
+  /// How many groups are decided together: bounds memory whatever the window holds (the answer
+  /// does not depend on it; tests vary it).
+  std::size_t chunk = 256;
 };
+/// An active curve whose validity ends in a window, as `expiring` and the status board list it
+/// (read without its fit statistics, which neither shows).
 struct ExpiringCurve {
-  CurveView curve;
+  CurveId id;
+  std::string analyte;
+  std::string method_code;
+  int method_version = 0;
+  std::string instrument_code;
+  Instant expires_at;
   std::string limited_by;  ///< "valid for 7 days" or "lot CODE expiry"
 };
 struct ExpiringOutcome {

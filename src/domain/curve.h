@@ -62,6 +62,16 @@ struct Calibration {
   std::vector<LotId> lots;
 };
 
+/// A curve's group: the curves of one method on one instrument for one analyte, of which at
+/// most one is active at a time (product.md §5.2, `superseded`).
+struct CurveGroup {
+  MethodId method;
+  InstrumentId instrument;
+  std::string analyte;
+
+  auto operator<=>(const CurveGroup&) const = default;
+};
+
 struct Curve {
   CurveId id;
   CalibrationId calibration_id;

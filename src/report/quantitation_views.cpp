@@ -241,12 +241,12 @@ void print_quantify(std::ostream& out, const app::QuantifyOutcome& o, const LabZ
 Json expiring_json(const app::ExpiringOutcome& o) {
   Json curves = Json::array();
   for (const auto& e : o.curves) {
-    curves.push_back({{"id", e.curve.curve.id.value},
-                      {"analyte", e.curve.curve.analyte},
-                      {"method", e.curve.method_code},
-                      {"method_version", e.curve.version.version},
-                      {"instrument", e.curve.instrument_code},
-                      {"expires_at", json_instant(e.curve.curve.expires_at)},
+    curves.push_back({{"id", e.id.value},
+                      {"analyte", e.analyte},
+                      {"method", e.method_code},
+                      {"method_version", e.method_version},
+                      {"instrument", e.instrument_code},
+                      {"expires_at", json_instant(e.expires_at)},
                       {"limited_by", e.limited_by}});
   }
   return Json{{"window", {{"from", json_instant(o.from)}, {"to", json_instant(o.to)}}},
@@ -267,10 +267,9 @@ void print_expiring(std::ostream& out, const app::ExpiringOutcome& o, const LabZ
            {"instrument"},
            {"limited by"}});
   for (const auto& e : o.curves) {
-    t.add_row({zone.format_local(e.curve.curve.expires_at), std::to_string(e.curve.curve.id.value),
-               e.curve.curve.analyte,
-               e.curve.method_code + " v" + std::to_string(e.curve.version.version),
-               e.curve.instrument_code, e.limited_by});
+    t.add_row({zone.format_local(e.expires_at), std::to_string(e.id.value), e.analyte,
+               e.method_code + " v" + std::to_string(e.method_version), e.instrument_code,
+               e.limited_by});
   }
   t.print(out, 2);
 }
@@ -282,10 +281,10 @@ Json status_json(const std::vector<app::InstrumentStatus>& board, Instant at) {
     for (const auto& [state, n] : st.counts) counts[std::string(to_string(state))] = n;
     Json expiring = Json::array();
     for (const auto& e : st.expiring_soon) {
-      expiring.push_back({{"id", e.curve.curve.id.value},
-                          {"analyte", e.curve.curve.analyte},
-                          {"method", e.curve.method_code},
-                          {"expires_at", json_instant(e.curve.curve.expires_at)}});
+      expiring.push_back({{"id", e.id.value},
+                          {"analyte", e.analyte},
+                          {"method", e.method_code},
+                          {"expires_at", json_instant(e.expires_at)}});
     }
     Json blocked = Json::array();
     for (const auto& [method, analyte] : st.blocked)
@@ -318,9 +317,8 @@ void print_status_board(std::ostream& out, const std::vector<app::InstrumentStat
     if (!st.expiring_soon.empty()) {
       out << "  expiring in the next 7 days:\n";
       for (const auto& e : st.expiring_soon) {
-        out << "    " << zone.format_local(e.curve.curve.expires_at) << "  curve "
-            << e.curve.curve.id.value << " " << e.curve.curve.analyte << " (" << e.curve.method_code
-            << ")\n";
+        out << "    " << zone.format_local(e.expires_at) << "  curve " << e.id.value << " "
+            << e.analyte << " (" << e.method_code << ")\n";
       }
     }
     if (!st.blocked.empty()) {

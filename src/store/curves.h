@@ -68,9 +68,9 @@ class CurveReader {
   virtual std::optional<CurveId> latest_in_group(MethodId method, InstrumentId instrument,
                                                  const std::string& analyte, Instant by,
                                                  bool accepted_only) = 0;
-  /// Curves whose expiry moment lies in [from, to), group by group (method, instrument,
-  /// analyte), each group's soonest first.
-  virtual std::vector<CurveId> expiring_between(Instant from, Instant to) = 0;
+  /// The groups (method, instrument, analyte) with a curve whose expiry moment lies in
+  /// [from, to), each once, in that order.
+  virtual std::vector<CurveGroup> groups_expiring_between(Instant from, Instant to) = 0;
   /// Curves of an instrument acquired by `t` whose expiry is after `t`.
   virtual std::vector<CurveId> live_of_instrument(InstrumentId instrument, Instant t) = 0;
   /// How many curves of an instrument are settled (expiry at or before `t`) in each state at

@@ -19,6 +19,7 @@
 #include "app/fact_set.h"
 #include "app/queries.h"
 #include "app/session.h"
+#include "domain/expiry.h"
 #include "store_generator.h"
 
 namespace {
@@ -89,9 +90,7 @@ TEST_CASE("status and expiring: equal to the rules engine applied curve by curve
       cw::app::ExpiringRequest small;
       small.chunk = chunk;
       chunked.emplace_back();
-      for (const auto& e : cw::app::expiring(s, small).curves) {
-        chunked.back().push_back(e.curve.curve.id);
-      }
+      for (const auto& e : cw::app::expiring(s, small).curves) chunked.back().push_back(e.id);
     }
 
     // The same questions, answered one curve at a time by the rules engine.
@@ -108,6 +107,35 @@ TEST_CASE("status and expiring: equal to the rules engine applied curve by curve
       counts[c.instrument_id][status.state] += 1;
       if (status.state == cw::CurveState::Active && c.expires_at > at && c.expires_at < week) {
         expected_expiring.push_back(id);
+      }
+    }
+    // Each group's active curve, found by deciding its live curves newest first until one is
+    // active, is the one the engine finds active among all the group's curves (and with the same
+    // state and reasons); a group with none active has no answer.
+    {
+      std::set<cw::CurveGroup> groups;
+      std::map<cw::CurveGroup, cw::CurveId> expected_active;
+      for (const auto& [id, status] : facts.statuses(ids, at)) {
+        const cw::Curve& c = facts.curve(id);
+        const cw::CurveGroup g{c.method_id, c.instrument_id, c.analyte};
+        groups.insert(g);
+        if (status.state == cw::CurveState::Active) {
+          CHECK(expected_active.emplace(g, id).second);  // at most one per group
+        }
+      }
+      cw::app::FactSet walking(*unit, s.zone());
+      const auto found =
+          walking.active_in_groups(std::vector<cw::CurveGroup>(groups.begin(), groups.end()), at);
+      CHECK(found.size() == expected_active.size());
+      for (const auto& [g, id] : expected_active) {
+        INFO("group of curve " << id.value);
+        const auto it = found.find(g);
+        REQUIRE(it != found.end());
+        CHECK(it->second.curve == id);
+        const cw::CurveStatus expected = facts.status(id, at);
+        CHECK(it->second.status.state == expected.state);
+        CHECK(it->second.status.reasons == expected.reasons);
+        CHECK(it->second.status.cause == expected.cause);
       }
     }
     // Blocked: a (method, analyte) the instrument has curves for, named by the method's current
@@ -144,7 +172,7 @@ TEST_CASE("status and expiring: equal to the rules engine applied curve by curve
         return std::tie(facts.curve(a).expires_at, a) < std::tie(facts.curve(b).expires_at, b);
       });
       std::vector<cw::CurveId> soon;
-      for (const auto& e : st.expiring_soon) soon.push_back(e.curve.curve.id);
+      for (const auto& e : st.expiring_soon) soon.push_back(e.id);
       INFO("instrument " << st.instrument.code);
       CHECK(soon == expected_soon);
       const std::set<std::pair<std::string, std::string>> got_blocked(st.blocked.begin(),
@@ -164,25 +192,31 @@ TEST_CASE("status and expiring: equal to the rules engine applied curve by curve
         CHECK(status.reasons == with_statistics.at(id).reasons);
         CHECK(status.cause == with_statistics.at(id).cause);
       }
+      // What the lists show of a curve (read without its statistics) is the curve read in full.
       for (const auto& e : expiring.curves) {
         ++shown_expiring;
-        const cw::Curve& shown = e.curve.curve;
-        const cw::Curve& read = full.curve(shown.id);
-        CHECK(shown.fit.slope == read.fit.slope);
-        CHECK(shown.fit.r2 == read.fit.r2);
-        CHECK(shown.fit.n_points == read.fit.n_points);
-        CHECK(shown.fit.n_points > 0);
-        CHECK(shown.acceptance.warnings.size() == read.acceptance.warnings.size());
+        const cw::Curve& read = full.curve(e.id);
+        const cw::MethodVersion& version = full.version_of(e.id);
+        CHECK(e.analyte == read.analyte);
+        CHECK(e.expires_at == read.expires_at);
+        CHECK(e.method_code == full.method(read.method_id).code);
+        CHECK(e.method_version == version.version);
+        CHECK(e.instrument_code == full.instrument(read.instrument_id).code);
+        const cw::CurveExpiry expiry =
+            cw::expiry_of(read.acquired_at, version, full.lots_of(e.id), s.zone());
+        CHECK(e.limited_by ==
+              (expiry.limiting_lot != nullptr
+                   ? "lot " + expiry.limiting_lot->code + " expiry"
+                   : "valid for " + to_string(version.definition.calibration.valid_for)));
       }
     }
     std::vector<cw::CurveId> got;
-    for (const auto& e : expiring.curves) got.push_back(e.curve.curve.id);
+    for (const auto& e : expiring.curves) got.push_back(e.id);
     for (const auto& in_chunks : chunked) CHECK(in_chunks == got);
     // Soonest first, ties by id, whatever order the candidates were evaluated in.
     CHECK(std::is_sorted(expiring.curves.begin(), expiring.curves.end(),
                          [](const auto& a, const auto& b) {
-                           return std::tie(a.curve.curve.expires_at, a.curve.curve.id) <
-                                  std::tie(b.curve.curve.expires_at, b.curve.curve.id);
+                           return std::tie(a.expires_at, a.id) < std::tie(b.expires_at, b.id);
                          }));
     std::sort(got.begin(), got.end());
     std::sort(expected_expiring.begin(), expected_expiring.end());

@@ -116,7 +116,7 @@ TEST_CASE("expiring: the window query uses the index curves_by_expiry", "[scenar
   auto store = cw::store::Store::open(options);
   // The very statement the repository executes for 'expiring'.
   const std::string plan =
-      cw::store::sqlite::query_plan(*store, cw::store::sqlite::sql::kCurvesExpiringBetween);
+      cw::store::sqlite::query_plan(*store, cw::store::sqlite::sql::kGroupsExpiringBetween);
   INFO("plan:\n" << plan);
   CHECK_THAT(plan, Catch::Contains("curves_by_expiry"));
   CHECK_THAT(plan, !Catch::Contains("SCAN curves\n"));  // no full table scan

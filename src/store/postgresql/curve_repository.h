@@ -40,7 +40,7 @@ class PgCurves final : public CurveReader, public CurveWriter {
   std::optional<CurveId> latest_in_group(MethodId method, InstrumentId instrument,
                                          const std::string& analyte, Instant by,
                                          bool accepted_only) override;
-  std::vector<CurveId> expiring_between(Instant from, Instant to) override;
+  std::vector<CurveGroup> groups_expiring_between(Instant from, Instant to) override;
   std::vector<CurveId> live_of_instrument(InstrumentId instrument, Instant t) override;
   std::vector<std::pair<CurveState, std::int64_t>> settled_counts(InstrumentId instrument,
                                                                   Instant t) override;

@@ -180,9 +180,9 @@ inline constexpr const char* kLatestAcceptedInGroup =
     "SELECT id FROM curves WHERE method_id = :method AND instrument_id = :instrument AND "
     "analyte = :analyte AND acquired_at <= :by AND verdict = 'accepted' "
     "ORDER BY acquired_at DESC, id DESC LIMIT 1";
-inline constexpr const char* kCurvesExpiringBetween =
-    "SELECT id FROM curves WHERE expires_at >= :from AND expires_at < :to "
-    "ORDER BY method_id, instrument_id, analyte, expires_at, id";
+inline constexpr const char* kGroupsExpiringBetween =
+    "SELECT DISTINCT method_id, instrument_id, analyte FROM curves "
+    "WHERE expires_at >= :from AND expires_at < :to ORDER BY method_id, instrument_id, analyte";
 inline constexpr const char* kLiveOfInstrument =
     "SELECT id FROM curves WHERE instrument_id = :instrument AND expires_at > :t AND "
     "acquired_at <= :t ORDER BY acquired_at, id";

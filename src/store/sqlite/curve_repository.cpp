@@ -379,12 +379,18 @@ std::optional<CurveId> SqliteCurves::latest_in_group(MethodId method, Instrument
   });
 }
 
-std::vector<CurveId> SqliteCurves::expiring_between(Instant from, Instant to) {
+std::vector<CurveGroup> SqliteCurves::groups_expiring_between(Instant from, Instant to) {
   return guarded(db_, [&] {
-    auto& s = db_.statement(sql::kCurvesExpiringBetween);
+    auto& s = db_.statement(sql::kGroupsExpiringBetween);
     bind_instant(s, ":from", from);
     bind_text(s, ":to", format_utc(to));  // an exclusive bound may lie past the year 9999
-    return curve_ids(s);
+    std::vector<CurveGroup> out;
+    while (s.executeStep()) {
+      out.push_back({MethodId{s.getColumn(0).getInt64()}, InstrumentId{s.getColumn(1).getInt64()},
+                     s.getColumn(2).getString()});
+    }
+    s.reset();
+    return out;
   });
 }
 

@@ -27,7 +27,7 @@ TEST_CASE("store: every per-curve and per-group lookup searches an index", "[sto
     const char* table;  ///< must not be scanned in full
   };
   const std::vector<Expectation> expected = {
-      {"expiring", sql::kCurvesExpiringBetween, "curves_by_expiry", "curves"},
+      {"groups expiring", sql::kGroupsExpiringBetween, "curves_by_expiry", "curves"},
       {"live in group", sql::kLiveInGroup, "curves_by_group_expiry", "curves"},
       {"latest in group", sql::kLatestInGroup, "curves_by_group", "curves"},
       {"live of instrument", sql::kLiveOfInstrument, "curves_by_instrument", "curves"},
