@@ -88,7 +88,11 @@ std::vector<InstrumentStatus> status_board(Session& s) {
   const Instant week = add_duration(now, Duration{7, Duration::Unit::Days}, s.zone());
   auto unit = s.read();
   std::vector<InstrumentStatus> out;
-  for (const auto& instrument : unit->registry().instruments()) {
+  const std::vector<Instrument> instruments = unit->registry().instruments();
+  std::vector<InstrumentId> ids;
+  for (const auto& instrument : instruments) ids.push_back(instrument.id);
+  auto failures = unit->curves().recent_failed_checks(ids, now, 5);
+  for (const auto& instrument : instruments) {
     FactSet facts(*unit, s.zone());  // one instrument's live curves at a time
     InstrumentStatus st;
     st.instrument = instrument;
@@ -117,7 +121,7 @@ std::vector<InstrumentStatus> status_board(Session& s) {
       if (!v || !v->definition.has_analyte(analyte)) continue;
       if (!with_active.count({method_id, analyte})) st.blocked.emplace_back(method.code, analyte);
     }
-    st.recent_failures = unit->curves().recent_failed_checks(instrument.id, now, 5);
+    st.recent_failures = std::move(failures.at(instrument.id));
     out.push_back(std::move(st));
   }
   return out;

@@ -5,6 +5,7 @@
 
 #include <cstddef>
 #include <cstdint>
+#include <map>
 #include <optional>
 #include <string>
 #include <vector>
@@ -87,9 +88,11 @@ class CurveReader {
   virtual std::optional<std::string> settled_tallies_disagreement() = 0;
 
   virtual std::optional<Check> check(CheckId id) = 0;
-  /// The most recent failed checks (at or before `by`) of an instrument's curves, newest first.
-  virtual std::vector<Check> recent_failed_checks(InstrumentId instrument, Instant by,
-                                                  std::size_t limit) = 0;
+  /// The most recent failed checks (at or before `by`) of each instrument's curves, at most
+  /// `limit` each, newest first; every instrument asked for has an entry. One pass back through
+  /// the lab's failed checks, which ends once every instrument has its `limit`.
+  virtual std::map<InstrumentId, std::vector<Check>> recent_failed_checks(
+      const std::vector<InstrumentId>& instruments, Instant by, std::size_t limit) = 0;
 
   virtual std::optional<Result> result(ResultId id) = 0;
   /// Results of the curves, in time order.

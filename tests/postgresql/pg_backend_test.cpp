@@ -573,6 +573,64 @@ TEST_CASE("postgresql: rows streamed in batches read the same as a file store's"
   CHECK(verify["ok"] == true);
 }
 
+TEST_CASE("postgresql: status reads failed checks back page by page as SQLite steps through them",
+          "[postgresql]") {
+  // 300 failed checks of one run on IC-02, all at the run's time (ties broken by id across the
+  // 256-row pages), after 7 on IC-03 and none on IC-04: IC-03's five come from the second page.
+  TestDatabase db;
+  Sandbox pg_box;
+  Sandbox file_box;
+  const auto failing_run = [](int checks) {
+    std::string run = "position,kind,sample,analyte,response,nominal\n";
+    for (int i = 0; i < checks; ++i) run += std::to_string(i + 1) + ",check,,nitrate,1.5,10\n";
+    return run;
+  };
+  for (Sandbox* box : {&pg_box, &file_box}) {
+    const cw::test::EnvOverrides env = box == &pg_box ? on(db, pg_box) : cw::test::EnvOverrides{};
+    run_ok(*box, {"init", "--tz", "UTC"}, env);
+    for (const char* code : {"IC-02", "IC-03", "IC-04"})
+      run_ok(*box, {"instrument", "add", code}, env);
+    box->write_file("anion.toml", cw::test::method_toml());
+    run_ok(*box, {"method", "add", "anion.toml"}, env);
+    run_ok(*box,
+           {"lot", "add", "CRM-1", "--material", "m", "--expires", "2027-03-31", "--value",
+            "nitrate=1000", "--value", "sulfate=1000"},
+           env);
+    box->write_file("points.csv",
+                    "analyte,level,nominal,response\n"
+                    "nitrate,1,1,0.101\nnitrate,2,2,0.199\nnitrate,3,5,0.502\nnitrate,4,10,1.001\n"
+                    "nitrate,5,20,1.998\n"
+                    "sulfate,1,1,0.0301\nsulfate,2,2,0.0598\nsulfate,3,5,0.1502\n"
+                    "sulfate,4,10,0.2999\nsulfate,5,20,0.6003\n");
+    for (const char* code : {"IC-02", "IC-03"}) {
+      run_ok(*box,
+             {"curve", "log", "--method", "ANION-IC", "--instrument", code, "--lot", "CRM-1",
+              "--points", "points.csv"},
+             env);
+    }
+    box->now = "2026-03-02T10:00:00Z";
+    box->write_file("early.csv", failing_run(7));
+    box->run({"run", "import", "early.csv", "--method", "ANION-IC", "--instrument", "IC-03"}, env);
+    box->now = "2026-03-02T11:00:00Z";
+    box->write_file("late.csv", failing_run(300));
+    box->run({"run", "import", "late.csv", "--method", "ANION-IC", "--instrument", "IC-02"}, env);
+  }
+  REQUIRE(db.sql("SELECT count(*) FROM checks WHERE passed = 0") == "307");
+  const auto pg = run_ok(pg_box, {"status", "--json"}, on(db, pg_box)).json();
+  const auto file = run_ok(file_box, {"status", "--json"}).json();
+  CHECK(pg == file);
+  std::map<std::string, std::vector<std::int64_t>> failed;
+  for (const auto& i : pg.at("instruments")) {
+    auto& ids = failed[i.at("instrument").get<std::string>()];
+    for (const auto& k : i.at("recent_failed_checks"))
+      ids.push_back(k.at("check_id").get<std::int64_t>());
+  }
+  // Check ids follow the imports: IC-03's are 1-7, IC-02's 8-307; newest first, five each.
+  CHECK(failed["IC-02"] == std::vector<std::int64_t>{307, 306, 305, 304, 303});
+  CHECK(failed["IC-03"] == std::vector<std::int64_t>{7, 6, 5, 4, 3});
+  CHECK(failed["IC-04"].empty());
+}
+
 TEST_CASE("postgresql: with the grants init prints, the workstations' role only reads and appends",
           "[postgresql]") {
   TestDatabase db;

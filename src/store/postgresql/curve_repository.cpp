@@ -2,6 +2,7 @@
 // SQL for calibrations, curves, points, reviews, retirements, checks, results and refusals.
 #include "store/postgresql/curve_repository.h"
 
+#include <limits>
 #include <map>
 #include <stdexcept>
 
@@ -458,16 +459,36 @@ std::optional<Check> PgCurves::check(CheckId id) {
   });
 }
 
-std::vector<Check> PgCurves::recent_failed_checks(InstrumentId instrument, Instant by,
-                                                  std::size_t limit) {
+std::map<InstrumentId, std::vector<Check>> PgCurves::recent_failed_checks(
+    const std::vector<InstrumentId>& instruments, Instant by, std::size_t limit) {
   return guarded(db_, [&] {
-    auto& s = db_.statement(sql::kRecentFailedChecks);
-    bind_int(s, ":instrument", instrument.value);
-    bind_instant(s, ":by", by);
-    bind_int(s, ":limit", static_cast<std::int64_t>(limit));
-    std::vector<Check> out;
-    while (s.executeStep()) out.push_back(check_of(s));
-    s.reset();
+    std::map<InstrumentId, std::vector<Check>> out;
+    for (InstrumentId id : instruments) out[id];
+    std::size_t open = limit == 0 ? 0 : out.size();  // instruments still short of `limit`
+    // Pages back from `by` (each after the last row of the one before), so that the pass ends
+    // soon after the last instrument has its `limit`.
+    constexpr std::int64_t kPage = 256;
+    std::string before = format_utc(by);
+    std::int64_t before_id = std::numeric_limits<std::int64_t>::max();
+    while (open > 0) {
+      auto& s = db_.statement(sql::kFailedChecksBack);
+      bind_text(s, ":t", before);
+      bind_int(s, ":id", before_id);
+      bind_int(s, ":page", kPage);
+      std::int64_t rows = 0;
+      while (s.executeStep()) {
+        ++rows;
+        Check k = check_of(s);
+        before = format_utc(k.occurred_at);
+        before_id = k.id.value;
+        auto it = out.find(InstrumentId{s.getColumn(14).getInt64()});
+        if (it == out.end() || it->second.size() >= limit) continue;
+        it->second.push_back(std::move(k));
+        if (it->second.size() == limit) --open;
+      }
+      s.reset();
+      if (rows < kPage) break;
+    }
     return out;
   });
 }

@@ -338,13 +338,15 @@ inline constexpr const char* kChecksFiltered =
     "WHERE (CAST(:curve AS bigint) IS NULL OR k.curve_id = :curve) AND "
     "(CAST(:since AS text) IS NULL OR k.occurred_at >= :since) "
     "AND k.occurred_at <= :until ORDER BY k.occurred_at, k.id";
-inline constexpr const char* kRecentFailedChecks =
+// The lab's failed checks before (:t, :id) in (time, id) order, newest first, a page at a time,
+// with their curve's instrument (column 14): read until each instrument asked about has its few.
+inline constexpr const char* kFailedChecksBack =
     "SELECT k.id, k.curve_id, k.kind, k.nominal, k.response, k.is_response, k.measured, "
-    "k.recovery_pct, k.limit_low, k.limit_high, k.passed, k.analyst, k.occurred_at, m.run_id "
-    "FROM checks k JOIN curves c ON c.id = k.curve_id "
-    "LEFT JOIN run_checks m ON m.check_id = k.id WHERE c.instrument_id = :instrument "
-    "AND k.passed = 0 AND k.occurred_at <= :by ORDER BY k.occurred_at DESC, k.id DESC "
-    "LIMIT :limit";
+    "k.recovery_pct, k.limit_low, k.limit_high, k.passed, k.analyst, k.occurred_at, m.run_id, "
+    "c.instrument_id FROM checks k JOIN curves c ON c.id = k.curve_id "
+    "LEFT JOIN run_checks m ON m.check_id = k.id WHERE k.passed = 0 "
+    "AND k.occurred_at <= :t AND (k.occurred_at < :t OR k.id < :id) "
+    "ORDER BY k.occurred_at DESC, k.id DESC LIMIT :page";
 inline constexpr const char* kInsertCheck =
     "INSERT INTO checks (id, curve_id, kind, nominal, response, is_response, measured, "
     "recovery_pct, "

@@ -465,15 +465,21 @@ std::optional<Check> SqliteCurves::check(CheckId id) {
   });
 }
 
-std::vector<Check> SqliteCurves::recent_failed_checks(InstrumentId instrument, Instant by,
-                                                      std::size_t limit) {
+std::map<InstrumentId, std::vector<Check>> SqliteCurves::recent_failed_checks(
+    const std::vector<InstrumentId>& instruments, Instant by, std::size_t limit) {
   return guarded(db_, [&] {
-    auto& s = db_.statement(sql::kRecentFailedChecks);
-    bind_int(s, ":instrument", instrument.value);
+    std::map<InstrumentId, std::vector<Check>> out;
+    for (InstrumentId id : instruments) out[id];
+    std::size_t open = limit == 0 ? 0 : out.size();  // instruments still short of `limit`
+    auto& s = db_.statement(sql::kFailedChecksBack);
     bind_instant(s, ":by", by);
-    bind_int(s, ":limit", static_cast<std::int64_t>(limit));
-    std::vector<Check> out;
-    while (s.executeStep()) out.push_back(check_of(s));
+    // Stepped lazily: the pass ends at the first row that leaves no instrument short.
+    while (open > 0 && s.executeStep()) {
+      auto it = out.find(InstrumentId{s.getColumn(14).getInt64()});
+      if (it == out.end() || it->second.size() >= limit) continue;
+      it->second.push_back(check_of(s));
+      if (it->second.size() == limit) --open;
+    }
     s.reset();
     return out;
   });

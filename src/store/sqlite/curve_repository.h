@@ -48,8 +48,8 @@ class SqliteCurves final : public CurveReader, public CurveWriter {
   std::vector<CurveId> of_lot(LotId lot) override;
   std::optional<std::string> settled_tallies_disagreement() override;
   std::optional<Check> check(CheckId id) override;
-  std::vector<Check> recent_failed_checks(InstrumentId instrument, Instant by,
-                                          std::size_t limit) override;
+  std::map<InstrumentId, std::vector<Check>> recent_failed_checks(
+      const std::vector<InstrumentId>& instruments, Instant by, std::size_t limit) override;
   std::optional<Result> result(ResultId id) override;
   std::vector<Result> results_of(const std::vector<CurveId>& ids) override;
   std::vector<Result> reported_between(CurveId id, std::optional<Instant> after,

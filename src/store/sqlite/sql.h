@@ -308,13 +308,14 @@ inline constexpr const char* kChecksFiltered =
     "FROM checks k LEFT JOIN run_checks m ON m.check_id = k.id "
     "WHERE (:curve IS NULL OR k.curve_id = :curve) AND (:since IS NULL OR k.occurred_at >= :since) "
     "AND k.occurred_at <= :until ORDER BY k.occurred_at, k.id";
-inline constexpr const char* kRecentFailedChecks =
+// The lab's failed checks back from a moment, with their curve's instrument (column 14): read
+// until each instrument asked about has its few.
+inline constexpr const char* kFailedChecksBack =
     "SELECT k.id, k.curve_id, k.kind, k.nominal, k.response, k.is_response, k.measured, "
-    "k.recovery_pct, k.limit_low, k.limit_high, k.passed, k.analyst, k.occurred_at, m.run_id "
-    "FROM checks k INDEXED BY checks_failed_by_time JOIN curves c ON c.id = k.curve_id "
-    "LEFT JOIN run_checks m ON m.check_id = k.id WHERE c.instrument_id = :instrument "
-    "AND k.passed = 0 AND k.occurred_at <= :by ORDER BY k.occurred_at DESC, k.id DESC "
-    "LIMIT :limit";
+    "k.recovery_pct, k.limit_low, k.limit_high, k.passed, k.analyst, k.occurred_at, m.run_id, "
+    "c.instrument_id FROM checks k INDEXED BY checks_failed_by_time JOIN curves c ON "
+    "c.id = k.curve_id LEFT JOIN run_checks m ON m.check_id = k.id WHERE k.passed = 0 AND "
+    "k.occurred_at <= :by ORDER BY k.occurred_at DESC, k.id DESC";
 inline constexpr const char* kInsertCheck =
     "INSERT INTO checks (curve_id, kind, nominal, response, is_response, measured, recovery_pct, "
     "limit_low, limit_high, passed, analyst, occurred_at, audit_seq) VALUES (:curve, :kind, "
