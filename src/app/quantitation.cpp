@@ -78,7 +78,7 @@ CheckOutcome log_check(Session& s, const CheckRequest& r) {
     // acquisition) must be re-run: each becomes rerun-required by a status event of its own.
     const auto& checks = after.facts(r.curve).checks;
     const SinceLastPass since = since_last_pass(checks, at, check.id);
-    out.affected_results = unit->curves().reported_between(r.curve, since.at, at);
+    out.affected_results = unit->curves().reported_between(r.curve, since.at, since.check, at);
     std::vector<ResultId> open;
     for (const auto& result : out.affected_results) {
       if (result.current_status() != ResultStatus::RerunRequired) open.push_back(result.id);
@@ -180,8 +180,8 @@ QuantifyOutcome quantify(Session& s, const QuantifyRequest& r) {
       const SinceLastPass since = since_last_pass(facts.facts(*chosen).checks, at);
       ChecksSoFar so_far;
       so_far.last_passing_check = since.check;
-      so_far.reported_since_check =
-          static_cast<long>(unit->curves().count_reported_between(*chosen, since.at, at));
+      so_far.reported_since_check = static_cast<long>(
+          unit->curves().count_reported_between(*chosen, since.at, since.check, at));
       decision = decide_quantitation(c, status, version.definition, facts.lots_of(*chosen),
                                      r.reading, {}, so_far);
       result.curve_id = *chosen;

@@ -277,7 +277,7 @@ RunImportOutcome import_run(Session& s, const RunImportRequest& r) {
   // Brackets start from each curve's last passing check standard before the run.
   for (auto& [analyte, a] : analytes) {
     const SinceLastPass since = since_last_pass(a.facts.checks, at);
-    const auto reported = unit->curves().reported_between(a.curve, since.at, at);
+    const auto reported = unit->curves().reported_between(a.curve, since.at, since.check, at);
     std::vector<ResultId> open;
     for (const auto& result : reported) {
       if (result.current_status() != ResultStatus::RerunRequired) open.push_back(result.id);

@@ -97,12 +97,17 @@ class CurveReader {
   virtual std::optional<Result> result(ResultId id) = 0;
   /// Results of the curves, in time order.
   virtual std::vector<Result> results_of(const std::vector<CurveId>& ids) = 0;
-  /// Reported results of a curve in (after, until], in time order (as recorded: results a
-  /// status event later made rerun-required included).
+  /// Reported results of a curve after check `after_check`, which happened at `after` (from the
+  /// curve's acquisition when both are nullopt), and at or before `until`, in time order (as
+  /// recorded: results a status event later made rerun-required included). Times are kept to
+  /// the second: a result of the check's second counts when it was recorded after the check.
   virtual std::vector<Result> reported_between(CurveId id, std::optional<Instant> after,
+                                               std::optional<CheckId> after_check,
                                                Instant until) = 0;
-  /// How many results of a curve were recorded as reported in (after, until].
+  /// How many results of a curve were recorded as reported in the same span as
+  /// reported_between().
   virtual std::int64_t count_reported_between(CurveId id, std::optional<Instant> after,
+                                              std::optional<CheckId> after_check,
                                               Instant until) = 0;
 };
 

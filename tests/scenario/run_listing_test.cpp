@@ -56,6 +56,28 @@ TEST_CASE("quantify: refused with check-due once samples_per_check results are r
   CHECK(quantify(rl.lab, rl.nitrate, "2026-03-02T10:00:00Z", "W-3").at("status") == "reported");
 }
 
+TEST_CASE("quantify, check log: a result of the passing check's own second counts after it",
+          "[scenario][run]") {
+  // Times are kept to the second, and a lab entering work afterwards often gives the same --at
+  // to a check and the samples it bracketed: what was recorded after the check counts after it.
+  MethodSpec spec;
+  spec.samples_per_check = "2";
+  RunLab rl(spec);
+  const std::string t = "2026-03-02T09:00:00Z";
+  const auto before = quantify(rl.lab, rl.nitrate, t, "W-0").at("result_id");  // before the check
+  check(rl.lab, rl.nitrate, t, kNitratePass);
+  const auto r1 = quantify(rl.lab, rl.nitrate, t, "W-1").at("result_id");
+  const auto r2 = quantify(rl.lab, rl.nitrate, t, "W-2").at("result_id");
+  const Json due = quantify(rl.lab, rl.nitrate, t, "W-3", 3);
+  CHECK(due.at("reasons") == Json::array({"check-due"}));
+  const Json fail = check(rl.lab, rl.nitrate, "2026-03-02T09:30:00Z", kNitrateFail, 3);
+  CHECK(fail.at("affected_results") == Json::array({r1, r2}));
+  CHECK(before != r1);
+  const Json w0 =
+      rl.lab.json_at("2026-03-02T09:40:00Z", {"result", "show", std::to_string(before.get<int>())});
+  CHECK(w0.at("status") == "reported");  // bracketed by the passing check recorded after it
+}
+
 TEST_CASE("check log: a failure makes the results it lists rerun-required, once",
           "[scenario][run]") {
   RunLab rl;

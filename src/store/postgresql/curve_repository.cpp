@@ -517,7 +517,7 @@ std::vector<Result> PgCurves::results_of(const std::vector<CurveId>& ids) {
 }
 
 std::vector<Result> PgCurves::reported_between(CurveId id, std::optional<Instant> after,
-                                               Instant until) {
+                                               std::optional<CheckId> after_check, Instant until) {
   return guarded(db_, [&] {
     auto& s = db_.statement(sql::kReportedBetween);
     bind_int(s, ":id", id.value);
@@ -526,6 +526,8 @@ std::vector<Result> PgCurves::reported_between(CurveId id, std::optional<Instant
     } else {
       bind_text(s, ":after", "");  // every stored time sorts after the empty text
     }
+    bind_opt_int(s, ":check",
+                 after_check ? std::optional<std::int64_t>(after_check->value) : std::nullopt);
     bind_instant(s, ":until", until);
     std::vector<Result> out;
     while (s.executeStep()) out.push_back(result_of(s));
@@ -535,7 +537,7 @@ std::vector<Result> PgCurves::reported_between(CurveId id, std::optional<Instant
 }
 
 std::int64_t PgCurves::count_reported_between(CurveId id, std::optional<Instant> after,
-                                              Instant until) {
+                                              std::optional<CheckId> after_check, Instant until) {
   return guarded(db_, [&] {
     auto& s = db_.statement(sql::kCountReportedBetween);
     bind_int(s, ":id", id.value);
@@ -544,6 +546,8 @@ std::int64_t PgCurves::count_reported_between(CurveId id, std::optional<Instant>
     } else {
       bind_text(s, ":after", "");  // every stored time sorts after the empty text
     }
+    bind_opt_int(s, ":check",
+                 after_check ? std::optional<std::int64_t>(after_check->value) : std::nullopt);
     bind_instant(s, ":until", until);
     s.executeStep();
     const std::int64_t n = s.getColumn(0).getInt64();

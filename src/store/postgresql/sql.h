@@ -385,11 +385,15 @@ inline constexpr const char* kReportedBetween =
     "e.occurred_at FROM results r LEFT JOIN run_results m ON m.result_id = r.id "
     "LEFT JOIN result_status_events e ON e.id = "
     "(SELECT max(x.id) FROM result_status_events x WHERE x.result_id = r.id) "
-    "WHERE r.curve_id = :id AND r.status = 'reported' AND r.occurred_at > :after "
-    "AND r.occurred_at <= :until ORDER BY r.occurred_at, r.id";
+    "WHERE r.curve_id = :id AND r.status = 'reported' AND r.occurred_at >= :after "
+    "AND r.occurred_at <= :until AND (r.occurred_at > :after OR r.audit_seq > "
+    "coalesce((SELECT k.audit_seq FROM checks k WHERE k.id = CAST(:check AS bigint)), 0)) ORDER BY "
+    "r.occurred_at, r.id";
 inline constexpr const char* kCountReportedBetween =
-    "SELECT count(*) FROM results WHERE curve_id = :id AND status = 'reported' AND "
-    "occurred_at > :after AND occurred_at <= :until";
+    "SELECT count(*) FROM results r WHERE r.curve_id = :id AND r.status = 'reported' AND "
+    "r.occurred_at >= :after AND r.occurred_at <= :until AND (r.occurred_at > :after OR "
+    "r.audit_seq > coalesce((SELECT k.audit_seq FROM checks k WHERE k.id = CAST(:check AS "
+    "bigint)), 0))";
 inline constexpr const char* kResultsFiltered =
     "SELECT r.id, r.sample, r.analyte, r.status, r.curve_id, r.method_id, r.instrument_id, "
     "r.response, r.is_response, r.replicates, r.dilution, r.x0, r.sd_x0, r.concentration, "

@@ -509,6 +509,7 @@ std::vector<Result> SqliteCurves::results_of(const std::vector<CurveId>& ids) {
 }
 
 std::vector<Result> SqliteCurves::reported_between(CurveId id, std::optional<Instant> after,
+                                                   std::optional<CheckId> after_check,
                                                    Instant until) {
   return guarded(db_, [&] {
     auto& s = db_.statement(sql::kReportedBetween);
@@ -518,6 +519,8 @@ std::vector<Result> SqliteCurves::reported_between(CurveId id, std::optional<Ins
     } else {
       bind_text(s, ":after", "");  // every stored time sorts after the empty text
     }
+    bind_opt_int(s, ":check",
+                 after_check ? std::optional<std::int64_t>(after_check->value) : std::nullopt);
     bind_instant(s, ":until", until);
     std::vector<Result> out;
     while (s.executeStep()) out.push_back(result_of(s));
@@ -527,6 +530,7 @@ std::vector<Result> SqliteCurves::reported_between(CurveId id, std::optional<Ins
 }
 
 std::int64_t SqliteCurves::count_reported_between(CurveId id, std::optional<Instant> after,
+                                                  std::optional<CheckId> after_check,
                                                   Instant until) {
   return guarded(db_, [&] {
     auto& s = db_.statement(sql::kCountReportedBetween);
@@ -536,6 +540,8 @@ std::int64_t SqliteCurves::count_reported_between(CurveId id, std::optional<Inst
     } else {
       bind_text(s, ":after", "");  // every stored time sorts after the empty text
     }
+    bind_opt_int(s, ":check",
+                 after_check ? std::optional<std::int64_t>(after_check->value) : std::nullopt);
     bind_instant(s, ":until", until);
     s.executeStep();
     const std::int64_t n = s.getColumn(0).getInt64();

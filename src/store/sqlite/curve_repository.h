@@ -53,9 +53,9 @@ class SqliteCurves final : public CurveReader, public CurveWriter {
   std::optional<Result> result(ResultId id) override;
   std::vector<Result> results_of(const std::vector<CurveId>& ids) override;
   std::vector<Result> reported_between(CurveId id, std::optional<Instant> after,
-                                       Instant until) override;
+                                       std::optional<CheckId> after_check, Instant until) override;
   std::int64_t count_reported_between(CurveId id, std::optional<Instant> after,
-                                      Instant until) override;
+                                      std::optional<CheckId> after_check, Instant until) override;
 
   CalibrationId add_calibration(const Calibration& c) override;
   CurveId add_curve(const Curve& c) override;
