@@ -9,11 +9,13 @@
 namespace cw::app {
 namespace {
 
-std::unique_ptr<store::Store> open_store(const std::string& location, bool create,
+/// The source is only read (never migrated); the destination is created when missing.
+std::unique_ptr<store::Store> open_store(const std::string& location, bool destination,
                                          const std::string& os_login) {
   store::OpenOptions o;
   o.location = location;
-  o.create = create;
+  o.create = destination;
+  o.migrate = destination;
   o.os_login = os_login;
   return store::Store::open(o);
 }
@@ -25,8 +27,8 @@ std::string joined(const std::vector<std::string>& names) {
 }
 
 /// Refuses (StoreError, exit 4) a store that is not at the latest migration this program knows
-/// for its backend. Opening applies pending migrations, so this fails only when a migration did
-/// not leave the store where it should be.
+/// for its backend. The source is opened without migrating (refused when it needs it) and the
+/// destination with, so this fails only when a migration did not leave a store where it should.
 void require_current(store::Store& s, const std::string& location) {
   const int version = s.schema_version();
   const int latest = s.latest_schema_version();
@@ -53,15 +55,14 @@ StoreCopyOutcome copy_store(const StoreCopyRequest& request) {
                          "); nothing was copied",
                      "run 'curvewarden audit verify' on it and restore it from a backup");
   }
-  auto destination = open_store(request.to, true, request.os_login);
   // Each backend numbers its own migrations, so the numbers of a SQLite and a PostgreSQL store
   // never match; what a verbatim copy needs is that both hold the tables and columns of
   // copy_tables(), which every store at its backend's latest migration does.
   out.schema_version = source->schema_version();
   require_current(*source, from);
-  require_current(*destination, to);
 
-  // One snapshot of the source: what is verified is what is copied.
+  // One snapshot of the source: what is verified is what is copied. Verified before the
+  // destination is opened, so that a source that cannot be copied leaves nothing there.
   auto reading = source->read();
   const store::VerifyReport chain = reading->audit().verify();
   if (!chain.ok) {
@@ -74,6 +75,8 @@ StoreCopyOutcome copy_store(const StoreCopyRequest& request) {
   out.entries = chain.entries;
   out.source_head_hash = chain.head_hash;
 
+  auto destination = open_store(request.to, true, request.os_login);
+  require_current(*destination, to);
   auto loader = destination->load();
   if (!loader->empty()) {
     throw UsageError("store '" + to +

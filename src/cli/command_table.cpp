@@ -418,7 +418,9 @@ const std::vector<CommandSpec>& command_table() {
        "verifying the source first and the copy after: both have the same head hash (the derived "
        "counts of expired curves are built afresh from the copied facts)",
        {value("--from", "STORE",
-              "The store to copy (a file path or a postgresql:// URI); it is only read", true),
+              "The store to copy (a file path or a postgresql:// URI); it is only read, and "
+              "refused when it needs an upgrade to the latest schema",
+              true),
         value("--to", "STORE",
               "The destination: a new file (created with mode 0600, removed if the copy fails) "
               "or a store that holds nothing yet",

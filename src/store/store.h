@@ -37,6 +37,9 @@ struct OpenOptions {
   bool create = false;         ///< create the store when missing (init only)
   int busy_timeout_ms = 5000;  ///< how long a writer waits for another writer
   std::string os_login;        ///< the process's login, for entries written by a migration
+  /// Apply pending migrations; when false, a store that needs one is refused (StoreError,
+  /// nothing written), as a source that is only to be read (`store copy`).
+  bool migrate = true;
 };
 
 /// Who acts and what "now" is, for every entry written in a unit.

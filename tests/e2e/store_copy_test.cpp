@@ -178,3 +178,30 @@ TEST_CASE("e2e store copy: a tampered source is refused before anything is writt
   REQUIRE(box.run({"store", "copy", "--from", box.location(), "--to", "fresh.db"}).exit_code == 4);
   CHECK_FALSE(std::filesystem::exists(box.path("fresh.db")));
 }
+
+TEST_CASE("e2e store copy: a source below the latest schema is refused, not upgraded",
+          "[e2e][store-copy][sqlite-only]") {
+  // A store written by the version before runs existed (schema 4): copying must not change it.
+  Sandbox box;
+  box.write_file("old.db", "");  // an empty file is an empty SQLite database
+  const auto old = box.path("old.db");
+  std::string error;
+  REQUIRE(cw::test::exec_sql(
+              old, cw::test::read_file(std::string(CW_TEST_DATA_DIR) + "/stores/schema4-demo.sql"),
+              &error) == 0);
+  INFO(error);
+  const std::string before = cw::test::read_file(old);
+  RunResult r = box.run({"store", "copy", "--from", old.string(), "--to", "copy.db", "--json"});
+  INFO(r.describe());
+  CHECK(r.exit_code == 4);
+  CHECK_THAT(r.json().at("error").at("message").get<std::string>(),
+             Catch::Contains("schema version 4") && Catch::Contains("nothing was written"));
+  CHECK(cw::test::read_file(old) == before);
+  CHECK(cw::test::query_text(old, "PRAGMA user_version") == "4");
+  CHECK_FALSE(std::filesystem::exists(box.path("copy.db")));
+  // Upgraded by an ordinary command, it copies.
+  REQUIRE(box.run({"--db", old.string(), "audit", "verify"}).exit_code == 0);
+  r = box.run({"store", "copy", "--from", old.string(), "--to", "copy.db"});
+  INFO(r.describe());
+  CHECK(r.exit_code == 0);
+}

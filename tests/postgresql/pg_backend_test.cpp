@@ -760,7 +760,7 @@ TEST_CASE("postgresql: store copy moves a file store to PostgreSQL and back with
   const auto source = verify(box.location());
   const std::string head = source["head_hash"];
 
-  // SQLite -> PostgreSQL: the file's schema is at 9, the database's at 3; both are the latest
+  // SQLite -> PostgreSQL: the file's schema is at 10, the database's at 5; both are the latest
   // this program knows for their backend.
   const RunResult there =
       run_ok(box, {"store", "copy", "--from", box.location(), "--to", db.uri(), "--json"});
@@ -826,6 +826,29 @@ TEST_CASE("postgresql: store copy moves a file store to PostgreSQL and back with
   CHECK(again.exit_code == 2);
   CHECK_THAT(again.err, Catch::Contains("already holds entries or facts"));
   CHECK(verify(db.uri())["entries"] == source["entries"].get<int>() + 1);
+}
+
+TEST_CASE("postgresql: a source that does not verify leaves an empty database untouched",
+          "[postgresql][store-copy]") {
+  TestDatabase db;
+  Sandbox box;
+  play_script(box, {});
+  // An edit behind the tool's back: the guard dropped, a row changed, the guard put back.
+  const std::string trigger = cw::test::query_text(
+      box.db(), "SELECT sql FROM sqlite_master WHERE name = 'instruments_no_update'");
+  REQUIRE(cw::test::exec_sql(box.db(),
+                             "DROP TRIGGER instruments_no_update; UPDATE instruments "
+                             "SET name = 'renamed'; " +
+                                 trigger) == 0);
+  const RunResult r = box.run({"store", "copy", "--from", box.location(), "--to", db.uri()});
+  INFO(r.describe());
+  CHECK(r.exit_code == 5);
+  CHECK_THAT(r.err, Catch::Contains("nothing was copied"));
+  CHECK(db.sql("SELECT count(*) FROM pg_class c JOIN pg_namespace n ON n.oid = c.relnamespace "
+               "WHERE n.nspname = current_schema()") == "0");
+  const RunResult status = box.run({"status"}, on(db, box));
+  CHECK(status.exit_code == 4);
+  CHECK_THAT(status.err, Catch::Contains("empty database, not an initialised store"));
 }
 
 TEST_CASE("postgresql: reals round-trip exactly whatever extra_float_digits the database sets",

@@ -624,7 +624,8 @@ void damaged(const std::string& path, const std::string& what) {
 }
 
 std::unique_ptr<Database> Database::open(const std::string& location, bool create,
-                                         int busy_timeout_ms, const std::string& os_login) {
+                                         int busy_timeout_ms, const std::string& os_login,
+                                         bool may_migrate) {
   auto d = std::make_unique<Database>();
   d->location = location;
   d->busy_timeout_ms = busy_timeout_ms;
@@ -655,6 +656,14 @@ std::unique_ptr<Database> Database::open(const std::string& location, bool creat
     const int latest = migrations.empty() ? 0 : migrations.back().version;
     const int current = id.marked ? d->schema_version() : 0;
     if (current > latest) too_new(*d, current, latest);
+    if (current < latest && id.marked && !may_migrate) {
+      throw StoreError("store '" + d->path + "' is at schema version " + std::to_string(current) +
+                           ", older than " + std::to_string(latest) +
+                           ", the latest this program knows, and is opened here only to be "
+                           "read: nothing was written",
+                       "run any command on it once with this version of curvewarden as the "
+                       "owner role (it upgrades the store), then try again");
+    }
     if (current < latest && id.marked) {
       // A role that may not create in the schema (the workstations' role) cannot migrate: say
       // who can, rather than advising grants.

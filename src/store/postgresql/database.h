@@ -114,7 +114,8 @@ struct Database {
   /// that the database is a Curvewarden store (or empty, with `create`), and applies pending
   /// migrations.
   static std::unique_ptr<Database> open(const std::string& location, bool create,
-                                        int busy_timeout_ms, const std::string& os_login);
+                                        int busy_timeout_ms, const std::string& os_login,
+                                        bool may_migrate = true);
 
   /// `text` with the password, in any form the URI holds it, replaced by "***": every message
   /// that leaves the backend goes through it (libpq's own texts may echo the URI).

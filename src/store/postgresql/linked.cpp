@@ -9,8 +9,9 @@
 namespace cw::store::postgresql {
 
 std::unique_ptr<Store> open_postgresql(const OpenOptions& options) {
-  return std::make_unique<PgStore>(
-      Database::open(options.location, options.create, options.busy_timeout_ms, options.os_login));
+  return std::make_unique<PgStore>(Database::open(options.location, options.create,
+                                                  options.busy_timeout_ms, options.os_login,
+                                                  options.migrate));
 }
 
 }  // namespace cw::store::postgresql

@@ -96,6 +96,16 @@ std::string immutable_uri(const std::string& path) {
   return uri + "?immutable=1";
 }
 
+/// Refuses a store that needs migrating when it was opened only to be read.
+[[noreturn]] void needs_migration_to_read(const std::string& path, int version, int latest) {
+  throw StoreError("store '" + path + "' is at schema version " + std::to_string(version) +
+                       ", older than " + std::to_string(latest) +
+                       ", the latest this program knows, and is opened here only to be read: "
+                       "nothing was written",
+                   "run any command on it once with this version of curvewarden (it upgrades "
+                   "the store, e.g. 'curvewarden audit verify'), then try again");
+}
+
 }  // namespace
 
 std::vector<MigrationSpec> embedded_migrations() {
@@ -138,7 +148,7 @@ void damaged(const std::string& path, const std::string& what) {
 
 std::unique_ptr<Database> Database::open(const std::string& path, bool create, int busy_timeout_ms,
                                          const std::vector<MigrationSpec>& migrations,
-                                         const std::string& os_login) {
+                                         const std::string& os_login, bool may_migrate) {
   auto d = std::make_unique<Database>();
   d->path = path;
   d->os_login = os_login;
@@ -193,6 +203,9 @@ std::unique_ptr<Database> Database::open(const std::string& path, bool create, i
     }
     const int latest = migrations.empty() ? 0 : migrations.back().version;
     if (user_version > latest) too_new(path, user_version, latest);
+    if (!may_migrate && !empty && user_version < latest) {
+      needs_migration_to_read(path, user_version, latest);
+    }
     if (d->read_only && user_version < latest) {
       throw StoreError("store '" + path + "' was written by an older curvewarden and needs " +
                            "its schema upgraded, which this user cannot do: the store is " +

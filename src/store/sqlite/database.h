@@ -39,7 +39,7 @@ struct Database {
   /// when a writer's -wal exists, it is read through the writer's files.
   static std::unique_ptr<Database> open(const std::string& path, bool create, int busy_timeout_ms,
                                         const std::vector<MigrationSpec>& migrations,
-                                        const std::string& os_login = {});
+                                        const std::string& os_login = {}, bool may_migrate = true);
 
   /// A cached prepared statement for a static SQL text, reset and with bindings cleared.
   SQLite::Statement& statement(const char* sql);

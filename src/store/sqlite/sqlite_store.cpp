@@ -161,8 +161,9 @@ std::vector<std::string> SqliteStore::missing_guards() {
 
 std::unique_ptr<Store> open_sqlite(const OpenOptions& options,
                                    const std::vector<MigrationSpec>& migrations) {
-  return std::make_unique<SqliteStore>(Database::open(
-      options.location, options.create, options.busy_timeout_ms, migrations, options.os_login));
+  return std::make_unique<SqliteStore>(Database::open(options.location, options.create,
+                                                      options.busy_timeout_ms, migrations,
+                                                      options.os_login, options.migrate));
 }
 
 }  // namespace cw::store::sqlite
