@@ -29,7 +29,8 @@ constexpr const char* kModuleDirs[] = {".", CURVEWARDEN_MODULE_DIR_FROM_BIN};
 }  // namespace
 
 const char* module_abi() {
-  return "curvewarden " CURVEWARDEN_VERSION " / " __VERSION__;
+  return "curvewarden " CURVEWARDEN_VERSION " / " __VERSION__
+         " / interface " CURVEWARDEN_INTERFACE_DIGEST;
 }
 
 const Module& Module::load(const std::string& file, const std::string& purpose) {

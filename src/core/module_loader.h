@@ -12,7 +12,8 @@
 
 namespace cw {
 
-/// This build's identity (version and compiler); a module exports the same string as
+/// This build's identity (version, compiler and the digest of every header under src/, which
+/// declare what crosses between binary and module); a module exports the same string as
 /// `extern "C" const char* cw_module_abi()`.
 const char* module_abi();
 
