@@ -2,6 +2,7 @@
 // Handlers of init, instrument, method and lot commands.
 #include <grp.h>
 
+#include <optional>
 #include <set>
 
 #include "app/anchors.h"
@@ -40,6 +41,11 @@ int init(Invocation& in) {
                        "PostgreSQL server is shared through its roles",
                        "leave out --group; see README, \"Choosing a backend\", for the grants");
   }
+  // Inits that make a store file in this folder take turns: one that fails removes only a file
+  // nobody else has written meanwhile.
+  std::optional<store::FolderLock> making;
+  if (!store::is_server_location(where))
+    making.emplace(where, store::OpenOptions{}.busy_timeout_ms);
   const bool created = !store::is_server_location(where) && store::create_store_file(where, group);
   try {
     auto s = in.open_session(/*create=*/true);

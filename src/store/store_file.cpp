@@ -3,11 +3,15 @@
 #include "store/store_file.h"
 
 #include <fcntl.h>
+#include <sys/file.h>
 #include <sys/stat.h>
 #include <unistd.h>
 
 #include <cerrno>
+#include <chrono>
 #include <cstring>
+#include <filesystem>
+#include <thread>
 
 #include "core/error.h"
 
@@ -45,6 +49,35 @@ bool create_store_file(const std::string& path, std::optional<gid_t> group) {
 
 void remove_new_store_files(const std::string& path) {
   for (const char* suffix : {"-wal", "-shm", ""}) ::unlink((path + suffix).c_str());
+}
+
+FolderLock::FolderLock(const std::string& path_in_folder, int timeout_ms) {
+  const std::filesystem::path folder = std::filesystem::path(path_in_folder).parent_path().empty()
+                                           ? std::filesystem::path(".")
+                                           : std::filesystem::path(path_in_folder).parent_path();
+  fd_ = ::open(folder.c_str(), O_RDONLY | O_DIRECTORY | O_CLOEXEC);
+  if (fd_ < 0) return;
+  const auto deadline = std::chrono::steady_clock::now() + std::chrono::milliseconds(timeout_ms);
+  while (::flock(fd_, LOCK_EX | LOCK_NB) != 0) {
+    if (errno != EWOULDBLOCK && errno != EINTR) {
+      ::close(fd_);  // a folder that cannot be locked (some network file systems): go on as before
+      fd_ = -1;
+      return;
+    }
+    if (std::chrono::steady_clock::now() >= deadline) {
+      ::close(fd_);
+      fd_ = -1;
+      throw StoreError("another 'curvewarden init' is creating a store in '" + folder.string() +
+                           "' and still busy after " + std::to_string(timeout_ms / 1000) +
+                           " s; nothing was written",
+                       "wait for it to finish (it may be asking for a passphrase), then try again");
+    }
+    std::this_thread::sleep_for(std::chrono::milliseconds(20));
+  }
+}
+
+FolderLock::~FolderLock() {
+  if (fd_ >= 0) ::close(fd_);  // closing releases the flock
 }
 
 bool is_symlink(const std::string& path) {

@@ -20,6 +20,22 @@ bool create_store_file(const std::string& path, std::optional<gid_t> group);
 /// failed leaves nothing behind). Errors are ignored: the files may not exist.
 void remove_new_store_files(const std::string& path);
 
+/// Serializes the making of new store files in one folder across processes (an flock on the
+/// folder, held for the object's life), so that an `init` which fails and removes the file it
+/// created never removes one that another `init` has meanwhile written and reported. Waits up to
+/// `timeout_ms` for another holder, then throws StoreError (exit 4). Locks nothing when the
+/// folder cannot be opened: creating the file then fails with its own message.
+class FolderLock {
+ public:
+  FolderLock(const std::string& path_in_folder, int timeout_ms);
+  ~FolderLock();
+  FolderLock(const FolderLock&) = delete;
+  FolderLock& operator=(const FolderLock&) = delete;
+
+ private:
+  int fd_ = -1;
+};
+
 /// True when `path` is a symbolic link.
 bool is_symlink(const std::string& path);
 

@@ -7,6 +7,7 @@
 
 #include <catch2/catch.hpp>
 #include <chrono>
+#include <filesystem>
 #include <mutex>
 #include <string>
 #include <thread>
@@ -148,4 +149,29 @@ TEST_CASE("e2e concurrency: 8 writers and 2 readers for a bounded time lose noth
         std::to_string(1 + acknowledged.size()));
   const RunResult verify = box.run({"audit", "verify", "--json"});
   CHECK(verify.exit_code == 0);
+}
+
+TEST_CASE("e2e concurrency: two inits of one new store file never leave it removed",
+          "[e2e][sqlite-only]") {
+  // An init that fails removes the file it created; it must never remove one that the other
+  // init has meanwhile written and reported.
+  Sandbox box;
+  for (int round = 0; round < 8; ++round) {
+    const std::string file = "race-" + std::to_string(round) + ".db";
+    std::vector<RunResult> results(2);
+    auto init = [&](int who) {
+      results[who] = box.run({"--db", file, "--as", who == 0 ? "ana" : "bob", "init", "--tz", "UTC",
+                              "--lab", who == 0 ? "Lab A" : "Lab B"});
+    };
+    std::thread a(init, 0), b(init, 1);
+    a.join();
+    b.join();
+    INFO("round " << round << "\n" << results[0].describe() << "\n" << results[1].describe());
+    const bool reported = results[0].exit_code == 0 || results[1].exit_code == 0;
+    CHECK(reported);
+    if (!reported) continue;
+    CHECK(std::filesystem::exists(box.path(file)));
+    const RunResult verify = box.run({"--db", file, "audit", "verify", "--json"});
+    CHECK(verify.exit_code == 0);
+  }
 }
