@@ -227,7 +227,13 @@ int store_copy(Invocation& in) {
   // when the copy fails; an existing one is used only when it holds no entry and no fact.
   const bool created = !is_server(r.to) && store::create_store_file(r.to, std::nullopt);
   try {
-    const auto outcome = app::copy_store(r);
+    const auto outcome = [&] {
+      try {
+        return app::copy_store(r);
+      } catch (const LocationError& e) {
+        throw Invocation::named_location_error(e, e.location() == r.from ? "--from" : "--to");
+      }
+    }();
     if (in.json()) {
       in.emit(report::store_copy_json(outcome));
     } else {

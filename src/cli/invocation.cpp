@@ -36,6 +36,13 @@ std::string label(std::string_view option, std::string_view what) {
   return option.rfind("--", 0) == 0 ? std::string(option) : std::string(what);
 }
 
+/// A malformed store location, named by the option or variable that gave it.
+LocationError location_error(const LocationError& e, const std::string& option) {
+  LocationError named(e.location(), option + ": " + e.what(), e.hint());
+  named.set_option(option);
+  return named;
+}
+
 template <class Fn>
 auto naming(std::string_view option, Fn&& fn) -> decltype(fn()) {
   try {
@@ -313,8 +320,16 @@ app::Session Invocation::open_session(bool create) const {
   app::PassphraseSource source = [input](const std::string& prompt, bool is_new) {
     return input->read(prompt, is_new);
   };
-  return app::Session::open(
-      {location(), who.code, who.source, os_login(), at, clock, create, std::move(source)});
+  try {
+    return app::Session::open(
+        {location(), who.code, who.source, os_login(), at, clock, create, std::move(source)});
+  } catch (const LocationError& e) {
+    throw location_error(e, single("--db") != nullptr ? "--db" : "CURVEWARDEN_DB");
+  }
+}
+
+LocationError Invocation::named_location_error(const LocationError& e, const std::string& option) {
+  return location_error(e, option);
 }
 
 std::optional<std::string> Invocation::lab_key_if_any() const {

@@ -92,7 +92,10 @@ class Invocation {
   bool either(std::string_view first, std::string_view second) const;
 
   // ---- the session, from --db, --as and --at (or their environment variables)
+  /// The session; a malformed store location is refused naming --db or CURVEWARDEN_DB.
   app::Session open_session(bool create = false) const;
+  /// `e` with its message and JSON `option` naming `option`, which gave the location.
+  static LocationError named_location_error(const LocationError& e, const std::string& option);
   /// The store location as resolved (--db, $CURVEWARDEN_DB, ./curvewarden.db).
   std::string location() const;
   /// The lab key file: --key, else $CURVEWARDEN_KEY, else the store's path with ".key" added.

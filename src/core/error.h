@@ -51,6 +51,19 @@ class UsageError : public Error {
       : Error(ExitCode::BadInput, "bad-usage", message, std::move(hint)) {}
 };
 
+/// A store location that cannot be used as written (a malformed PostgreSQL URI). Exit 2. The
+/// command line decides which option or variable gave it (`--db`, `CURVEWARDEN_DB`, `--from`,
+/// `--to`) by comparing `location()`, which may hold a password and is never shown.
+class LocationError : public UsageError {
+ public:
+  LocationError(std::string location, const std::string& message, std::string hint = {})
+      : UsageError(message, std::move(hint)), location_(std::move(location)) {}
+  const std::string& location() const { return location_; }
+
+ private:
+  std::string location_;
+};
+
 /// Input data that breaks a rule of its format or of the domain. Exit 2, nothing written.
 class ValidationError : public Error {
  public:

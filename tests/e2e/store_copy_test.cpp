@@ -149,6 +149,24 @@ TEST_CASE("e2e store copy: bad --from and --to are refused naming the option",
   CHECK(r.json().at("error").at("option") == "--to");
   r = box.run({"store", "copy", "--from", box.location()});
   CHECK(r.exit_code == 2);
+  // A malformed PostgreSQL URI is named by the option that gave it (as --db and CURVEWARDEN_DB
+  // are for the other commands).
+  const std::string bad_uri = "postgresql://cw@127.0.0.1:notaport/x";
+  r = box.run({"store", "copy", "--from", box.location(), "--to", bad_uri, "--json"});
+  CHECK(r.exit_code == 2);
+  CHECK(r.json().at("error").at("option") == "--to");
+  CHECK_THAT(r.json().at("error").at("message").get<std::string>(),
+             Catch::StartsWith("--to: '" + bad_uri + "' is not a usable PostgreSQL"));
+  r = box.run({"store", "copy", "--from", bad_uri, "--to", "new.db", "--json"});
+  CHECK(r.exit_code == 2);
+  CHECK(r.json().at("error").at("option") == "--from");
+  CHECK_FALSE(std::filesystem::exists(box.path("new.db")));
+  r = box.run({"--db", bad_uri, "status", "--json"});
+  CHECK(r.exit_code == 2);
+  CHECK(r.json().at("error").at("option") == "--db");
+  r = box.run({"status", "--json"}, {{"CURVEWARDEN_DB", bad_uri}});
+  CHECK(r.exit_code == 2);
+  CHECK(r.json().at("error").at("option") == "CURVEWARDEN_DB");
   box.write_file("notes.txt", "not a store, and precious");
   r = box.run({"store", "copy", "--from", box.location(), "--to", "notes.txt"});
   CHECK(r.exit_code == 4);

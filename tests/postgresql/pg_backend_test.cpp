@@ -888,7 +888,8 @@ TEST_CASE("postgresql: a password shows nowhere, in text or JSON, whatever the U
       CHECK(r.err.find("q7") == std::string::npos);
       CHECK_THAT(r.err, Catch::Contains("cw:***@"));
       if (code == 2) {
-        CHECK_THAT(r.err, Catch::Contains("--db / CURVEWARDEN_DB"));
+        CHECK_THAT(r.err, Catch::Contains("error: CURVEWARDEN_DB: 'postgresql://cw:***@"));
+        if (json) CHECK(r.json().at("error").at("option") == "CURVEWARDEN_DB");
         CHECK(r.seconds < 2);  // refused at once, not after the connection retries
       }
     }
