@@ -851,6 +851,26 @@ TEST_CASE("postgresql: a source that does not verify leaves an empty database un
   CHECK_THAT(status.err, Catch::Contains("empty database, not an initialised store"));
 }
 
+TEST_CASE("postgresql: a database that accepts only reads refuses writes clearly, reads go on",
+          "[postgresql]") {
+  // As on a standby server: every transaction read-only.
+  TestDatabase db;
+  Sandbox box;
+  run_ok(box, {"init", "--tz", "UTC"}, on(db, box));
+  run_ok(box, {"instrument", "add", "IC-01"}, on(db, box));
+  db.sql("ALTER DATABASE " + db.name() + " SET default_transaction_read_only = on");
+  const RunResult r = box.run({"instrument", "add", "IC-02", "--json"}, on(db, box));
+  INFO(r.describe());
+  CHECK(r.exit_code == 4);
+  CHECK_THAT(
+      r.json().at("error").at("message").get<std::string>(),
+      Catch::Contains("read-only for this connection") && Catch::Contains("nothing was written"));
+  CHECK_THAT(r.json().at("error").at("hint").get<std::string>(), Catch::Contains("primary server"));
+  const RunResult list = run_ok(box, {"instrument", "list", "--json"}, on(db, box));
+  CHECK(list.json().size() == 1);
+  CHECK(run_ok(box, {"audit", "verify", "--json"}, on(db, box)).json()["ok"] == true);
+}
+
 TEST_CASE("postgresql: reals round-trip exactly whatever extra_float_digits the database sets",
           "[postgresql]") {
   TestDatabase db;

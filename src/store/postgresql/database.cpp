@@ -610,6 +610,14 @@ void rethrow(const std::exception& e, const Database& d) {
         "store '" + d.path + "': concurrent commands kept conflicting (" + message + ")",
         "try again; nothing of this command was written");
   }
+  if (state == "25006") {
+    // default_transaction_read_only, or a standby server in recovery.
+    throw StoreError("store '" + d.path +
+                         "' is read-only for this connection (the server or database accepts "
+                         "reads only): nothing was written",
+                     "connect to the primary server, or ask the database administrator whether "
+                     "the database was made read-only on purpose (default_transaction_read_only)");
+  }
   if (state == "42501" || dynamic_cast<const pqxx::insufficient_privilege*>(&e) != nullptr) {
     throw StoreError(
         "the role connected to the PostgreSQL store '" + d.path + "' lacks a privilege: " + message,
