@@ -527,6 +527,37 @@ TEST_CASE("postgresql: a writer kept out past the busy timeout exits 4 and write
   run_ok(box, {"instrument", "add", "IC-01"}, on(db, box));
 }
 
+namespace {
+
+/// A new store holding the instruments, the ion chromatography method, a lot and a nitrate and
+/// sulfate curve on each of `with_curves`.
+void anion_lab(Sandbox& box, const cw::test::EnvOverrides& env,
+               const std::vector<std::string>& instruments,
+               const std::vector<std::string>& with_curves) {
+  run_ok(box, {"init", "--tz", "UTC"}, env);
+  for (const auto& code : instruments) run_ok(box, {"instrument", "add", code}, env);
+  box.write_file("anion.toml", cw::test::method_toml());
+  run_ok(box, {"method", "add", "anion.toml"}, env);
+  run_ok(box,
+         {"lot", "add", "CRM-1", "--material", "m", "--expires", "2027-03-31", "--value",
+          "nitrate=1000", "--value", "sulfate=1000"},
+         env);
+  box.write_file("points.csv",
+                 "analyte,level,nominal,response\n"
+                 "nitrate,1,1,0.101\nnitrate,2,2,0.199\nnitrate,3,5,0.502\nnitrate,4,10,1.001\n"
+                 "nitrate,5,20,1.998\n"
+                 "sulfate,1,1,0.0301\nsulfate,2,2,0.0598\nsulfate,3,5,0.1502\n"
+                 "sulfate,4,10,0.2999\nsulfate,5,20,0.6003\n");
+  for (const auto& code : with_curves) {
+    run_ok(box,
+           {"curve", "log", "--method", "ANION-IC", "--instrument", code, "--lot", "CRM-1",
+            "--points", "points.csv"},
+           env);
+  }
+}
+
+}  // namespace
+
 TEST_CASE("postgresql: rows streamed in batches read the same as a file store's", "[postgresql]") {
   // More rows than one batch of a cursor (1000): a run's results, a listing and audit verify
   // read them through several fetches.
@@ -542,24 +573,7 @@ TEST_CASE("postgresql: rows streamed in batches read the same as a file store's"
   run += std::to_string(kSamples + 2) + ",check,,nitrate,1.0,10\n";
   for (Sandbox* box : {&pg_box, &file_box}) {
     const cw::test::EnvOverrides env = box == &pg_box ? on(db, pg_box) : cw::test::EnvOverrides{};
-    run_ok(*box, {"init", "--tz", "UTC"}, env);
-    run_ok(*box, {"instrument", "add", "IC-02"}, env);
-    box->write_file("anion.toml", cw::test::method_toml());
-    run_ok(*box, {"method", "add", "anion.toml"}, env);
-    run_ok(*box,
-           {"lot", "add", "CRM-1", "--material", "m", "--expires", "2027-03-31", "--value",
-            "nitrate=1000", "--value", "sulfate=1000"},
-           env);
-    box->write_file("points.csv",
-                    "analyte,level,nominal,response\n"
-                    "nitrate,1,1,0.101\nnitrate,2,2,0.199\nnitrate,3,5,0.502\nnitrate,4,10,1.001\n"
-                    "nitrate,5,20,1.998\n"
-                    "sulfate,1,1,0.0301\nsulfate,2,2,0.0598\nsulfate,3,5,0.1502\n"
-                    "sulfate,4,10,0.2999\nsulfate,5,20,0.6003\n");
-    run_ok(*box,
-           {"curve", "log", "--method", "ANION-IC", "--instrument", "IC-02", "--lot", "CRM-1",
-            "--points", "points.csv"},
-           env);
+    anion_lab(*box, env, {"IC-02"}, {"IC-02"});
     box->now = "2026-03-02T10:00:00Z";
     box->write_file("run.csv", run);
     box->run({"run", "import", "run.csv", "--method", "ANION-IC", "--instrument", "IC-02"}, env);
@@ -587,27 +601,7 @@ TEST_CASE("postgresql: status reads failed checks back page by page as SQLite st
   };
   for (Sandbox* box : {&pg_box, &file_box}) {
     const cw::test::EnvOverrides env = box == &pg_box ? on(db, pg_box) : cw::test::EnvOverrides{};
-    run_ok(*box, {"init", "--tz", "UTC"}, env);
-    for (const char* code : {"IC-02", "IC-03", "IC-04"})
-      run_ok(*box, {"instrument", "add", code}, env);
-    box->write_file("anion.toml", cw::test::method_toml());
-    run_ok(*box, {"method", "add", "anion.toml"}, env);
-    run_ok(*box,
-           {"lot", "add", "CRM-1", "--material", "m", "--expires", "2027-03-31", "--value",
-            "nitrate=1000", "--value", "sulfate=1000"},
-           env);
-    box->write_file("points.csv",
-                    "analyte,level,nominal,response\n"
-                    "nitrate,1,1,0.101\nnitrate,2,2,0.199\nnitrate,3,5,0.502\nnitrate,4,10,1.001\n"
-                    "nitrate,5,20,1.998\n"
-                    "sulfate,1,1,0.0301\nsulfate,2,2,0.0598\nsulfate,3,5,0.1502\n"
-                    "sulfate,4,10,0.2999\nsulfate,5,20,0.6003\n");
-    for (const char* code : {"IC-02", "IC-03"}) {
-      run_ok(*box,
-             {"curve", "log", "--method", "ANION-IC", "--instrument", code, "--lot", "CRM-1",
-              "--points", "points.csv"},
-             env);
-    }
+    anion_lab(*box, env, {"IC-02", "IC-03", "IC-04"}, {"IC-02", "IC-03"});
     box->now = "2026-03-02T10:00:00Z";
     box->write_file("early.csv", failing_run(7));
     box->run({"run", "import", "early.csv", "--method", "ANION-IC", "--instrument", "IC-03"}, env);
