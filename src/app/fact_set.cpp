@@ -4,6 +4,7 @@
 
 #include <algorithm>
 #include <set>
+#include <stdexcept>
 #include <tuple>
 
 #include "core/error.h"
@@ -230,7 +231,6 @@ std::map<CurveId, CurveStatus> FactSet::statuses(const std::vector<CurveId>& ids
     if (!curves_.count(id)) curve(id);  // NotFoundError for an unknown id
   }
   // One query per group: the live curves acquired since the group's oldest curve asked about.
-  using Group = std::tuple<MethodId, InstrumentId, std::string>;
   std::map<Group, Instant> oldest;
   for (CurveId id : ids) {
     const Curve& c = *curves_.at(id);
@@ -248,15 +248,38 @@ std::map<CurveId, CurveStatus> FactSet::statuses(const std::vector<CurveId>& ids
     members[g] = std::move(live);
   }
   load(all, store::CurveDetail::State);
+  return decide(ids, members, at);
+}
+
+std::map<CurveId, CurveStatus> FactSet::live_statuses(const std::vector<CurveId>& live,
+                                                      Instant at) {
+  load(live, store::CurveDetail::State);
+  std::map<Group, std::vector<CurveId>> members;
+  for (CurveId id : live) {
+    if (!curves_.count(id)) curve(id);  // NotFoundError for an unknown id
+    const Curve& c = *curves_.at(id);
+    if (c.acquired_at > at || c.expires_at <= at) {
+      throw std::logic_error("curve " + std::to_string(id.value) + " is not live at the moment");
+    }
+    members[{c.method_id, c.instrument_id, c.analyte}].push_back(id);
+  }
+  return decide(live, members, at);
+}
+
+std::map<CurveId, CurveStatus> FactSet::decide(const std::vector<CurveId>& ids,
+                                               const std::map<Group, std::vector<CurveId>>& members,
+                                               Instant at) {
   std::map<CurveId, CurveStatus> out;
   for (CurveId id : ids) {
     const rules::CurveFacts& own = state_facts(id);
     std::vector<const rules::CurveFacts*> newer;
     const Curve& c = *own.curve;
     if (c.acquired_at <= at) {
-      for (CurveId other : members[{c.method_id, c.instrument_id, c.analyte}]) {
-        const Curve& o = *curves_.at(other);
-        if (other != id && o.acquired_at >= c.acquired_at) newer.push_back(&state_facts(other));
+      if (auto m = members.find({c.method_id, c.instrument_id, c.analyte}); m != members.end()) {
+        for (CurveId other : m->second) {
+          const Curve& o = *curves_.at(other);
+          if (other != id && o.acquired_at >= c.acquired_at) newer.push_back(&state_facts(other));
+        }
       }
     }
     out.emplace(id, rules::evaluate(own, at, zone_, newer));

@@ -49,6 +49,11 @@ class FactSet {
   /// The states of many curves at `at`, with one group query per distinct (method, instrument,
   /// analyte) and one batch load.
   std::map<CurveId, CurveStatus> statuses(const std::vector<CurveId>& ids, Instant at);
+  /// The states at `at` of `live`: the live curves (acquired by `at`, expiry after it) of whole
+  /// groups, as CurveReader::live_of_instrument and live_in_group return them. A curve's newer
+  /// live curves are then among them, so no group is read again; one batch load. A logic_error
+  /// for a curve that is not live at `at`.
+  std::map<CurveId, CurveStatus> live_statuses(const std::vector<CurveId>& live, Instant at);
 
   /// The active curve of a group at `at`, with its state.
   struct GroupActive {
@@ -66,6 +71,12 @@ class FactSet {
 
  private:
   std::vector<CurveId> newer_live_in_group(const Curve& c, Instant at);
+  using Group = std::tuple<MethodId, InstrumentId, std::string>;
+  /// The states at `at` of `ids` (loaded), each against the curves of `members` (its group's
+  /// live curves, loaded) acquired no earlier than itself.
+  std::map<CurveId, CurveStatus> decide(const std::vector<CurveId>& ids,
+                                        const std::map<Group, std::vector<CurveId>>& members,
+                                        Instant at);
 
   store::ReadUnit& unit_;
   const LabZone& zone_;

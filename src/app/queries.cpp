@@ -107,7 +107,7 @@ std::vector<InstrumentStatus> status_board(Session& s) {
     // the week: an active curve's expiry is still ahead of it.
     const auto live = unit->curves().live_of_instrument(instrument.id, now);
     std::set<std::pair<MethodId, std::string>> with_active;
-    for (const auto& [id, status] : facts.statuses(live, now)) {
+    for (const auto& [id, status] : facts.live_statuses(live, now)) {
       st.counts[status.state] += 1;
       if (status.state != CurveState::Active) continue;
       const Curve& c = facts.state_curve(id);

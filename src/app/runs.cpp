@@ -225,7 +225,7 @@ RunImportOutcome import_run(Session& s, const RunImportRequest& r) {
   for (const auto& analyte : scan.analytes) {
     const auto live =
         unit->curves().live_in_group(now.method.id, now.instrument.id, analyte, std::nullopt, at);
-    const auto states = facts.statuses(live, at);
+    const auto states = facts.live_statuses(live, at);
     const auto chosen = choose_run_curve(live, states);
     if (!chosen) {
       without_curve.push_back(analyte);
