@@ -125,6 +125,11 @@ User enable_user(Session& s, const std::string& code, std::optional<Role> role,
     throw ValidationError("user " + quote(u.code) + " is already enabled as " +
                           std::string(to_string(u.role())));
   }
+  // The one acting is an enabled admin: as long as it keeps that role, one always remains.
+  if (u.code == by.code && new_role != Role::Admin) {
+    throw ValidationError("an admin cannot take away its own admin role",
+                          "another admin changes this user's role, so that one always remains");
+  }
   sign(s, *unit, by, passphrase, {"user.enable", "enabled", "user", u.code});
   unit->registry_writer().add_user_event(u.id,
                                          {UserStatus::Enabled, new_role, reason, by.code, s.at()});

@@ -105,6 +105,40 @@ TEST_CASE("users: an unknown or disabled user records nothing (exit 2)", "[scena
   CHECK(verify(lab) == "true 0");
 }
 
+TEST_CASE("users: an admin cannot demote itself, so that one admin always remains", "[scenario]") {
+  Lab lab;
+  const auto before = lab.counts();
+  const std::string digest_before = lab.sql("SELECT hash FROM audit_log ORDER BY seq DESC LIMIT 1");
+  for (const std::string role : {"analyst", "reviewer", "quality"}) {
+    INFO(role);
+    const auto self = lab.run_at("2026-03-02T10:00:00Z",
+                                 {"user", "enable", "alice", "--role", role, "--reason", "demote"});
+    INFO(self.describe());
+    CHECK(self.exit_code == 2);
+    CHECK_THAT(self.err, Catch::Contains("cannot take away its own admin role"));
+    CHECK(self.json().at("error").at("code") == "bad-input");
+  }
+  CHECK(lab.counts() == before);
+  CHECK(lab.sql("SELECT hash FROM audit_log ORDER BY seq DESC LIMIT 1") == digest_before);
+  // Nothing let a newcomer take the store over through init.
+  const auto take = lab.box.run({"init", "--name", "Zed Outsider"}, {{"CURVEWARDEN_USER", "zed"}});
+  CHECK(take.exit_code != 0);
+  CHECK(lab.counts() == before);
+
+  // A second admin may change the first one's role; the second remains.
+  REQUIRE(lab.run_at("2026-03-02T10:05:00Z",
+                     {"user", "enable", "bob", "--role", "admin", "--reason", "deputy"})
+              .exit_code == 0);
+  const auto other = lab.run_at(
+      "2026-03-02T10:10:00Z",
+      {"--as", "bob", "user", "enable", "alice", "--role", "analyst", "--reason", "handover"});
+  INFO(other.describe());
+  CHECK(other.exit_code == 0);
+  CHECK(other.json().at("role") == "analyst");
+  CHECK(lab.sql("SELECT count(*) FROM audit_log WHERE action = 'user.enable'") == "2");
+  CHECK(verify(lab) == "true 0");
+}
+
 TEST_CASE("users: a role without the right is refused and recorded (exit 3)", "[scenario]") {
   Lab lab;
   const std::string id = lab_with_curve(lab);
