@@ -25,6 +25,18 @@ SinceLastPass since_last_pass(const std::vector<Check>& checks, Instant at,
   return out;
 }
 
+std::optional<Check> next_bracket_check(const std::vector<Check>& checks, Instant at) {
+  std::optional<Check> out;
+  for (const auto& k : checks) {
+    if (k.occurred_at <= at || (k.passed && !closes_bracket(k))) continue;
+    if (!out || k.occurred_at < out->occurred_at ||
+        (k.occurred_at == out->occurred_at && k.id < out->id)) {
+      out = k;
+    }
+  }
+  return out;
+}
+
 void record_rerun(store::WriteUnit& unit, const RerunDecision& decision, std::optional<RunId> run,
                   Instant at) {
   ResultStatusEvent e;
@@ -76,9 +88,12 @@ CheckOutcome log_check(Session& s, const CheckRequest& r) {
   if (!check.passed) {
     // Results reported since the last passing check standard before this one (or since
     // acquisition) must be re-run: each becomes rerun-required by a status event of its own.
+    // A check logged for an earlier time takes the results reported after it too: the curve
+    // was stale from its failure on (check-failed does not clear).
     const auto& checks = after.facts(r.curve).checks;
     const SinceLastPass since = since_last_pass(checks, at, check.id);
-    out.affected_results = unit->curves().reported_between(r.curve, since.at, since.check, at);
+    out.affected_results =
+        unit->curves().reported_between(r.curve, since.at, since.check, last_stored_moment());
     std::vector<ResultId> open;
     for (const auto& result : out.affected_results) {
       if (result.current_status() != ResultStatus::RerunRequired) open.push_back(result.id);
@@ -180,6 +195,7 @@ QuantifyOutcome quantify(Session& s, const QuantifyRequest& r) {
       const SinceLastPass since = since_last_pass(facts.facts(*chosen).checks, at);
       ChecksSoFar so_far;
       so_far.last_passing_check = since.check;
+      so_far.next_check = next_bracket_check(facts.facts(*chosen).checks, at);
       so_far.reported_since_check = static_cast<long>(
           unit->curves().count_reported_between(*chosen, since.at, since.check, at));
       decision = decide_quantitation(c, status, version.definition, facts.lots_of(*chosen),

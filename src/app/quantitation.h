@@ -36,6 +36,11 @@ struct SinceLastPass {
 SinceLastPass since_last_pass(const std::vector<Check>& checks, Instant at,
                               std::optional<CheckId> except = std::nullopt);
 
+/// The first check among `checks` after `at` that closes or fails the bracket `at` lies in (a
+/// passing check standard, or a failed check or blank); checks of one second in the order they
+/// were recorded. Nullopt when none was logged for a later time.
+std::optional<Check> next_bracket_check(const std::vector<Check>& checks, Instant at);
+
 /// Records `decision` as a rerun-required status event with its own audit entry.
 void record_rerun(store::WriteUnit& unit, const RerunDecision& decision, std::optional<RunId> run,
                   Instant at);

@@ -195,10 +195,14 @@ Instant parse_instant(std::string_view raw, std::string_view what) {
   return t;
 }
 
+Instant last_stored_moment() {
+  return Instant{date::sys_days{date::year{9999} / 12 / 31} + std::chrono::hours{24} -
+                 std::chrono::seconds{1}};
+}
+
 bool in_supported_range(Instant t) {
   static const Instant first{date::sys_days{date::year{1} / 1 / 1}};
-  static const Instant last{date::sys_days{date::year{9999} / 12 / 31} + std::chrono::hours{24} -
-                            std::chrono::seconds{1}};
+  static const Instant last = last_stored_moment();
   return t >= first && t <= last;
 }
 

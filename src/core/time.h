@@ -36,6 +36,8 @@ Instant parse_instant(std::string_view text, std::string_view what = "time");
 
 /// True for instants in the years 0001 to 9999 (UTC): the only ones the store holds.
 bool in_supported_range(Instant t);
+/// The last instant the store holds: 9999-12-31T23:59:59Z.
+Instant last_stored_moment();
 
 /// Formats as `YYYY-MM-DDTHH:MM:SSZ` (the stored form).
 std::string format_utc(Instant t);

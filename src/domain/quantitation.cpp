@@ -7,6 +7,7 @@
 #include "core/error.h"
 #include "core/number.h"
 #include "core/text.h"
+#include "domain/bracketing.h"
 #include "fitting/uncertainty.h"
 
 namespace cw {
@@ -103,6 +104,15 @@ std::optional<Finding> check_due(const CheckRules& rules, const Curve& curve,
                      " since " + since + ": measure a check standard first"};
 }
 
+std::optional<Finding> bracket_failed(const ChecksSoFar& so_far) {
+  if (!so_far.next_check || so_far.next_check->passed) return std::nullopt;
+  const Check& k = *so_far.next_check;
+  return Finding{Reason::CheckFailed, k.occurred_at,
+                 describe_failure(k, std::nullopt) +
+                     ", at a later time with no passing check standard between: every result "
+                     "of this bracket must be re-run"};
+}
+
 QuantitationDecision decide_quantitation(const Curve& curve, const CurveStatus& status,
                                          const MethodDefinition& method,
                                          const std::vector<const Lot*>& lots,
@@ -116,6 +126,7 @@ QuantitationDecision decide_quantitation(const Curve& curve, const CurveStatus& 
   if (!status.is_usable()) blocking = status.blocking();
   if (so_far) {
     if (auto due = check_due(method.check, curve, *so_far)) blocking.push_back(std::move(*due));
+    if (auto failed = bracket_failed(*so_far)) blocking.push_back(std::move(*failed));
   }
   if (!blocking.empty()) return refuse_without_curve(std::move(blocking));
   const auto& fit = curve.fit;

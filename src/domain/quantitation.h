@@ -50,13 +50,18 @@ double release_limit(const Curve& curve, const MethodDefinition& method);
 struct ChecksSoFar {
   long reported_since_check = 0;              ///< reported results since that check
   std::optional<CheckId> last_passing_check;  ///< nullopt: none since the curve was acquired
+  /// The first check standard or blank on the curve after the moment that closes or fails the
+  /// moment's bracket (a quantitation given an earlier time than checks already logged): a
+  /// failed one means the bracket is already known to need re-running.
+  std::optional<Check> next_check;
 };
 
 /// Decides a quantitation on `curve` (made under `method` from `lots`) whose state at the moment is
 /// `status`:
 /// - refused with every blocking reason unless the curve is active, and with check-due when
 ///   `so_far` is given and the method's samples_per_check samples have been reported since the
-///   last passing check (a check standard is due first);
+///   last passing check (a check standard is due first), and with check-failed when the check
+///   that ends the moment's bracket (`so_far.next_check`, logged for a later time) failed;
 /// - refused as above-range when the estimate exceeds the highest calibrator ("dilute and re-run",
 ///   with a suggested factor);
 /// - censored below the release limit (release_limit()): released as "< limit × dilution", never
@@ -84,6 +89,10 @@ void record_decision(Result& result, const QuantitationDecision& d);
 /// The check-due finding when `so_far` has used up the method's samples_per_check, else nullopt.
 std::optional<Finding> check_due(const CheckRules& rules, const Curve& curve,
                                  const ChecksSoFar& so_far);
+
+/// Finding check-failed when the check that ends the moment's bracket (`so_far.next_check`)
+/// failed; nullopt otherwise.
+std::optional<Finding> bracket_failed(const ChecksSoFar& so_far);
 
 /// The refusal when no curve could be chosen: `reasons` say why.
 QuantitationDecision refuse_without_curve(std::vector<Finding> reasons);

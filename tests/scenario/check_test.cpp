@@ -164,3 +164,73 @@ TEST_CASE("check log: a check against a rejected curve is refused and recorded",
   CHECK(lab.sql("SELECT action || '|' || reasons FROM refusals") == "check.log|[\"rejected\"]");
   CHECK(lab.sql("SELECT action FROM audit_log ORDER BY seq DESC LIMIT 1") == "check.log-refused");
 }
+
+namespace {
+
+/// Runs `args` with --json at `at` while the clock reads `now` (a time given after the fact).
+Json back_dated(const Lab& lab, const std::string& now, const std::string& at,
+                const std::vector<std::string>& args, int exit) {
+  std::vector<std::string> full{"--json", "--at", at};
+  full.insert(full.end(), args.begin(), args.end());
+  const auto r = lab.box.run(full, {{"CURVEWARDEN_NOW", now}});
+  INFO(r.describe());
+  REQUIRE(r.exit_code == exit);
+  return r.json();
+}
+
+}  // namespace
+
+TEST_CASE("check log, quantify: a time before checks already logged falls in their brackets",
+          "[scenario]") {
+  const std::string now = "2026-03-02T12:00:00Z";
+  SECTION("a result given a time inside a bracket a later check failed is refused") {
+    Lab lab;
+    const std::int64_t curve = set_up(lab);
+    const std::string id = std::to_string(curve);
+    back_dated(lab, now, "2026-03-02T10:00:00Z",
+               {"check", "log", "--curve", id, "--nominal", "6", "--response", "13.5"}, 0);
+    const Json fail =
+        back_dated(lab, now, "2026-03-02T11:00:00Z",
+                   {"check", "log", "--curve", id, "--nominal", "6", "--response", "17.3"}, 3);
+    const auto before = lab.counts();
+    const Json q =
+        back_dated(lab, now, "2026-03-02T10:30:00Z",
+                   {"quantify", "--curve", id, "--response", "13.5", "--sample", "W-09"}, 3);
+    CHECK(q.at("status") == "refused");
+    CHECK(q.at("reasons") == Json::array({"check-failed"}));
+    CHECK_THAT(q.at("reason_details")[0].at("message").get<std::string>(),
+               Catch::Contains("check " + std::to_string(fail.at("check_id").get<std::int64_t>()) +
+                               " failed") &&
+                   Catch::Contains("every result of this bracket must be re-run"));
+    CHECK(lab.counts().at("results") == before.at("results") + 1);  // the refusal is recorded
+    // Closed by a passing check first, the bracket stands: a time before it is reported.
+    back_dated(lab, now, "2026-03-02T09:40:00Z",
+               {"quantify", "--curve", id, "--response", "13.5", "--sample", "W-10"}, 0);
+  }
+  SECTION("a failed check given an earlier time takes the results reported after it too") {
+    Lab lab;
+    const std::int64_t curve = set_up(lab);
+    const std::string id = std::to_string(curve);
+    const std::int64_t r0 = quantify(lab, curve, "2026-03-02T09:30:00Z", "13.5", "W-00");
+    check(lab, curve, "2026-03-02T10:00:00Z", {"--nominal", "6", "--response", "13.5"}, 0);
+    const std::int64_t r1 = quantify(lab, curve, "2026-03-02T10:10:00Z", "13.5", "W-01");
+    const std::int64_t r2 = quantify(lab, curve, "2026-03-02T10:30:00Z", "9.0", "W-02");
+    const Json fail =
+        back_dated(lab, now, "2026-03-02T10:15:00Z",
+                   {"check", "log", "--curve", id, "--nominal", "6", "--response", "17.3"}, 3);
+    std::vector<std::int64_t> affected;
+    for (const auto& r : fail.at("affected_results")) affected.push_back(r.get<std::int64_t>());
+    CHECK(affected == std::vector<std::int64_t>{r1, r2});
+    CHECK(r0 < r1);
+    const Json listed = lab.json_at(now, {"result", "list"});
+    std::map<std::int64_t, std::string> status;
+    for (const auto& r : listed.at("results")) {
+      status[r.at("result_id").get<std::int64_t>()] = r.at("status").get<std::string>();
+    }
+    CHECK(status.at(r0) == "reported");
+    CHECK(status.at(r1) == "rerun-required");
+    CHECK(status.at(r2) == "rerun-required");
+    const auto v = lab.run({"audit", "verify", "--json"});
+    CHECK(v.exit_code == 0);
+  }
+}

@@ -85,7 +85,7 @@ TEST_CASE("rules: method-revised from the revision's time on, not before (time t
   CHECK(list.at("curves")[0].at("state") == "active");
 }
 
-TEST_CASE("rules: check-failed from the failing check on, and quantify before it is reported",
+TEST_CASE("rules: check-failed from the failing check on, and quantify before it is in its bracket",
           "[scenario]") {
   RulesLab r;
   const std::int64_t id = r.log();
@@ -96,9 +96,11 @@ TEST_CASE("rules: check-failed from the failing check on, and quantify before it
 
   const std::vector<std::string> q{"quantify", "--curve", std::to_string(id), "--response", "13.5",
                                    "--sample", "W-17"};
-  const Json before = r.lab.json_at("2026-03-02T11:59:00Z", q, 0);
-  CHECK(before.at("status") == "reported");
-  CHECK(before.at("reasons") == Json::array());
+  // The curve was active at 11:59, but no passing check stands between acquisition and the
+  // failure: a result given that time lies in the failed bracket (calibration-practice.md §5.4).
+  const Json before = r.lab.json_at("2026-03-02T11:59:00Z", q, 3);
+  CHECK(before.at("status") == "refused");
+  CHECK(strings(before.at("reasons")) == std::vector<std::string>{"check-failed"});
   const Json after = r.lab.json_at("2026-03-02T12:01:00Z", q, 3);
   CHECK(after.at("status") == "refused");
   CHECK(strings(after.at("reasons")) == std::vector<std::string>{"check-failed"});

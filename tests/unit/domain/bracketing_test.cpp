@@ -154,15 +154,32 @@ TEST_CASE("quantitation: check-due once samples_per_check results were reported"
   rules.samples_per_check = 10;
   Curve curve;
   curve.id = CurveId{7};
-  CHECK_FALSE(check_due(rules, curve, {9, CheckId{3}}));
-  const auto due = check_due(rules, curve, {10, CheckId{3}});
+  CHECK_FALSE(check_due(rules, curve, {9, CheckId{3}, std::nullopt}));
+  const auto due = check_due(rules, curve, {10, CheckId{3}, std::nullopt});
   REQUIRE(due);
   CHECK(due->reason == Reason::CheckDue);
   CHECK_THAT(due->message, Catch::Contains("allows 10 sample(s) after a passing check; 10 have "
                                            "been reported from curve 7 since check 3"));
-  const auto none = check_due(rules, curve, {10, std::nullopt});
+  const auto none = check_due(rules, curve, {10, std::nullopt, std::nullopt});
   REQUIRE(none);
   CHECK_THAT(none->message, Catch::Contains("since it was acquired"));
   rules.samples_per_check.reset();
-  CHECK_FALSE(check_due(rules, curve, {1000, std::nullopt}));
+  CHECK_FALSE(check_due(rules, curve, {1000, std::nullopt, std::nullopt}));
+}
+
+TEST_CASE("quantitation: check-failed when the check ending the moment's bracket failed",
+          "[domain]") {
+  ChecksSoFar so_far{0, CheckId{1}, std::nullopt};
+  CHECK_FALSE(bracket_failed(so_far));  // no check logged for a later time
+  so_far.next_check = passing(2);
+  CHECK_FALSE(bracket_failed(so_far));  // the bracket is closed by a passing check
+  Check later = failing(3);
+  later.occurred_at = Instant{std::chrono::seconds{1'780'000'000}};
+  so_far.next_check = later;
+  const auto failed = bracket_failed(so_far);
+  REQUIRE(failed);
+  CHECK(failed->reason == Reason::CheckFailed);
+  CHECK(failed->since == later.occurred_at);
+  CHECK_THAT(failed->message, Catch::Contains("check 3 failed: recovery 86.0 %") &&
+                                  Catch::Contains("every result of this bracket must be re-run"));
 }
