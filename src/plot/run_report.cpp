@@ -24,7 +24,8 @@ std::string status_display(SampleStatus status) {
 }
 
 struct Totals {
-  int reported = 0, censored = 0, refused = 0, rerun = 0, checks_passed = 0, checks_failed = 0;
+  int reported = 0, censored = 0, refused = 0, rerun = 0, checks_passed = 0, checks_failed = 0,
+      blanks_passed = 0, blanks_failed = 0;
 };
 
 Totals totals(const RunReport& r) {
@@ -43,7 +44,13 @@ Totals totals(const RunReport& r) {
         break;
     }
   }
-  for (const ReportCheckRow& c : r.checks) ++(c.passed ? t.checks_passed : t.checks_failed);
+  for (const ReportCheckRow& c : r.checks) {
+    if (c.blank) {
+      ++(c.passed ? t.blanks_passed : t.blanks_failed);
+    } else {
+      ++(c.passed ? t.checks_passed : t.checks_failed);
+    }
+  }
   return t;
 }
 
@@ -66,14 +73,24 @@ void add_header(Document& d, const RunReport& r) {
 void add_bracketing(Document& d, const RunReport& r) {
   d.blocks.push_back(Heading{"2  Bracketing outcome"});
   Table t;
-  t.columns = {
-      {"Analyte"},      {"Reported", true},      {"Below limit", true},   {"Refused", true},
-      {"Re-run", true}, {"Checks passed", true}, {"Checks failed", true}, {"Outcome", false, true}};
+  t.columns = {{"Analyte"},
+               {"Reported", true},
+               {"Below limit", true},
+               {"Refused", true},
+               {"Re-run", true},
+               {"Checks passed", true},
+               {"Checks failed", true},
+               {"Blanks passed", true},
+               {"Blanks failed", true},
+               {"Outcome", false, true}};
   for (const ReportBracketing& b : r.bracketing) {
     Table::Row row{{b.analyte, std::to_string(b.reported), std::to_string(b.censored),
                     std::to_string(b.refused), std::to_string(b.rerun_required),
-                    std::to_string(b.checks_passed), std::to_string(b.checks_failed), b.outcome}};
-    if (b.checks_failed > 0 || b.rerun_required > 0) row.style = Table::Row::Style::Strong;
+                    std::to_string(b.checks_passed), std::to_string(b.checks_failed),
+                    std::to_string(b.blanks_passed), std::to_string(b.blanks_failed), b.outcome}};
+    if (b.checks_failed + b.blanks_failed > 0 || b.rerun_required > 0) {
+      row.style = Table::Row::Style::Strong;
+    }
     t.rows.push_back(std::move(row));
   }
   t.empty_text = "no analytes";
@@ -144,8 +161,15 @@ int render_run_report(const RunReport& r, const std::string& path) {
              " to re-run";
   const std::string checks = std::to_string(t.checks_passed) + " of " +
                              std::to_string(t.checks_passed + t.checks_failed) + " passed";
-  d.blocks.push_back(Banner{
-      {{"Results", results, t.refused + t.rerun > 0}, {"Checks", checks, t.checks_failed > 0}}});
+  Banner banner{
+      {{"Results", results, t.refused + t.rerun > 0}, {"Checks", checks, t.checks_failed > 0}}};
+  if (t.blanks_passed + t.blanks_failed > 0) {
+    banner.items.push_back({"Blanks",
+                            std::to_string(t.blanks_passed) + " of " +
+                                std::to_string(t.blanks_passed + t.blanks_failed) + " passed",
+                            t.blanks_failed > 0});
+  }
+  d.blocks.push_back(banner);
   add_header(d, r);
   add_bracketing(d, r);
   add_checks(d, r);

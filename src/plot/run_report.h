@@ -41,6 +41,7 @@ struct ReportCheckRow {
   std::string recovery;  ///< e.g. "98.7 %"
   std::string limits;    ///< e.g. "90–110 %"; may be empty
   bool passed = true;
+  bool blank = false;  ///< a blank (judged against its limit), not a check standard
 };
 
 /// The bracketing outcome of one analyte: counts and a sentence.
@@ -50,8 +51,10 @@ struct ReportBracketing {
   int censored = 0;  ///< of which "< limit"
   int refused = 0;
   int rerun_required = 0;
-  int checks_passed = 0;
+  int checks_passed = 0;  ///< check standards
   int checks_failed = 0;
+  int blanks_passed = 0;
+  int blanks_failed = 0;
   std::string outcome;  ///< e.g. "positions 41–60 to re-run after the check at 61 failed"
 };
 

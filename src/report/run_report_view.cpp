@@ -107,10 +107,11 @@ void RunReportBuilder::check(const store::RunCheckRow& row) {
     c.limits = "< " + format_sig(*k.limit_high, 3) + " " + unit_;
   }
   c.passed = k.passed;
+  c.blank = k.kind == CheckKind::Blank;
   if (k.passed) {
-    ++t.passed;
+    ++(c.blank ? t.blanks_passed : t.passed);
   } else {
-    ++t.failed;
+    ++(c.blank ? t.blanks_failed : t.failed);
     t.failed_positions.push_back(row.position);
   }
   report_.checks.push_back(std::move(c));
@@ -127,7 +128,9 @@ void RunReportBuilder::end(const app::RunView& v) {
     b.rerun_required = static_cast<int>(t.rerun);
     b.checks_passed = static_cast<int>(t.passed);
     b.checks_failed = static_cast<int>(t.failed);
-    if (t.rerun == 0 && t.failed == 0 && t.refused == 0) {
+    b.blanks_passed = static_cast<int>(t.blanks_passed);
+    b.blanks_failed = static_cast<int>(t.blanks_failed);
+    if (t.rerun == 0 && t.failed == 0 && t.blanks_failed == 0 && t.refused == 0) {
       b.outcome = "every sample bracketed by passing check standards";
     } else {
       std::string s;

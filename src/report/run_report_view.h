@@ -29,6 +29,7 @@ class RunReportBuilder final : public app::RunVisitor {
     std::map<std::string, long> rerun_reasons;  ///< rerun reason token → count
     std::vector<long> failed_positions;
     long reported = 0, censored = 0, refused = 0, rerun = 0, passed = 0, failed = 0;
+    long blanks_passed = 0, blanks_failed = 0;
   };
   const LabZone& zone_;
   std::string unit_;

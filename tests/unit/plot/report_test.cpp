@@ -249,6 +249,40 @@ TEST_CASE("render_run_report: an empty run still makes a report", "[plot][report
   CHECK_THAT(text, Contains("no checks in this run"));
 }
 
+TEST_CASE("render_run_report: blanks are counted apart from check standards", "[plot][report]") {
+  cw::plot::RunReport report = report_test::run_report(0);
+  report.checks.clear();
+  report.bracketing.clear();
+  const auto row = [](int position, bool blank, bool passed) {
+    cw::plot::ReportCheckRow c;
+    c.position = position;
+    c.analyte = blank ? "nitrate (blank)" : "nitrate";
+    c.nominal = blank ? "blank" : "10";
+    c.measured = "1 mg/L";
+    c.passed = passed;
+    c.blank = blank;
+    return c;
+  };
+  report.checks = {row(1, false, true), row(2, true, true), row(3, true, false),
+                   row(4, false, true), row(5, false, false)};
+  cw::plot::ReportBracketing b;
+  b.analyte = "nitrate";
+  b.checks_passed = 2;
+  b.checks_failed = 1;
+  b.blanks_passed = 1;
+  b.blanks_failed = 1;
+  b.outcome = "check or blank failed at position 3, 5";
+  report.bracketing.push_back(b);
+  const std::string path = out_path("report-run-blanks.pdf");
+  const int pages = cw::plot::render_run_report(report, path);
+  if (!have_tool("pdftotext")) return;
+  CHECK(pages_of(path) == pages);
+  const std::string text = squeeze(pdf_text(path));
+  CHECK_THAT(text, Contains("2 of 3 passed"));  // the banner's check standards
+  CHECK_THAT(text, Contains("1 of 2 passed"));  // and its blanks
+  CHECK_THAT(text, Contains("Blanks"));
+}
+
 TEST_CASE("render reports: a path that is not a PDF or cannot be created is refused",
           "[plot][report]") {
   const cw::plot::RunReport run = report_test::run_report(10);
