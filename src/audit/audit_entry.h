@@ -13,15 +13,23 @@
 // entry 1 is 64 zeros.
 #pragma once
 
+#include <array>
 #include <cstdint>
 #include <optional>
 #include <string>
+#include <string_view>
 
 #include "audit/sha256.h"
 
 namespace cw::audit {
 
 inline const std::string kGenesisHash(64, '0');
+
+/// The kinds of entity an entry names (`entity_kind`), sorted: what `audit log --entity` takes.
+/// A refusal of `quantify` names its sample.
+inline constexpr std::array<std::string_view, 11> kEntityKinds = {
+    "calibration", "check",  "curve", "instrument", "lab", "lot",
+    "method",      "result", "run",   "sample",     "user"};
 
 struct AuditEntry {
   std::int64_t seq = 0;

@@ -129,7 +129,20 @@ std::vector<std::string> expand_help(std::vector<std::string> args) {
   auto first = std::find_if(args.begin(), args.end(),
                             [](const std::string& a) { return a.rfind("-", 0) != 0; });
   if (first == args.end() || *first != "help") return args;
-  args.erase(first);
+  const auto named = args.erase(first);
+  std::string path;
+  for (auto w = named; w != args.end() && w->rfind("-", 0) != 0; ++w) {
+    path += (path.empty() ? "" : " ") + *w;
+  }
+  if (!path.empty()) {
+    const auto& table = command_table();
+    const bool known = std::any_of(table.begin(), table.end(),
+                                   [&](const CommandSpec& spec) { return spec.path == path; });
+    if (!known) {
+      throw UsageError("'curvewarden help " + path + "': there is no such command",
+                       "'curvewarden --help' lists the commands");
+    }
+  }
   args.push_back("--help");
   return args;
 }

@@ -382,8 +382,8 @@ const std::vector<CommandSpec>& command_table() {
        "List audit entries",
        {value("--since", "TIME", "Only entries recorded at or after this time"),
         value("--entity", "KIND",
-              "Only this kind: lab, instrument, method, lot, calibration, curve, check, result, "
-              "run"),
+              "Only this kind: lab, user, instrument, method, lot, calibration, curve, check, "
+              "result, run, sample"),
         value("--id", "ID", "Only this entity id (a code or a number)"), kCsv},
        false,
        h::audit_log},

@@ -9,9 +9,11 @@
 #include "app/anchors.h"
 #include "app/audit.h"
 #include "app/store_copy.h"
+#include "audit/audit_entry.h"
 #include "cli/handlers.h"
 #include "core/clean_text.h"
 #include "core/error.h"
+#include "core/text.h"
 #include "import/input_file.h"
 #include "report/registry_views.h"
 #include "store/store.h"
@@ -37,6 +39,16 @@ int audit_log(Invocation& in) {
   store::AuditFilter filter;
   filter.since = in.optional_instant("--since");
   filter.entity_kind = in.optional_text("--entity", kMaxLabelChars);
+  if (filter.entity_kind && std::find(audit::kEntityKinds.begin(), audit::kEntityKinds.end(),
+                                      *filter.entity_kind) == audit::kEntityKinds.end()) {
+    std::string kinds;
+    for (const auto kind : audit::kEntityKinds)
+      kinds += (kinds.empty() ? "" : ", ") + std::string(kind);
+    UsageError e("--entity " + quote(*filter.entity_kind) + " is not a kind of entity",
+                 "one of: " + kinds);
+    e.set_option("--entity");
+    throw e;
+  }
   filter.entity_id = in.optional_text("--id", kMaxNameChars);
   auto s = in.open_session();
   const auto entries = app::audit_log(s, filter);

@@ -1092,3 +1092,23 @@ TEST_CASE("e2e bad input: an unknown subcommand is named in the message", "[e2e]
   CHECK(near.exit_code == 2);
   CHECK_THAT(near.err, Catch::Contains("did you mean 'retire'?"));
 }
+
+TEST_CASE("e2e bad input: help of an unknown command and an unknown entity kind", "[e2e]") {
+  Sandbox box;
+  const RunResult help = box.run({"help", "nosuch"});
+  CHECK(help.exit_code == 2);
+  CHECK_THAT(help.err, Catch::Contains("'curvewarden help nosuch': there is no such command"));
+  CHECK(box.run({"help", "curve", "log"}).exit_code == 0);
+  CHECK(box.run({"help", "curve"}).exit_code == 0);
+  CHECK(box.run({"help"}).exit_code == 0);
+
+  REQUIRE(box.run({"init", "--tz", "UTC", "--name", "Ada Quill"}).exit_code == 0);
+  const RunResult kind = box.run({"audit", "log", "--entity", "curves", "--json"});
+  CHECK(kind.exit_code == 2);
+  CHECK_THAT(kind.err, Catch::Contains("--entity 'curves' is not a kind of entity"));
+  CHECK(kind.json().at("error").at("option") == "--entity");
+  for (const std::string known : {"curve", "sample", "user", "lab"}) {
+    INFO(known);
+    CHECK(box.run({"audit", "log", "--entity", known}).exit_code == 0);
+  }
+}
