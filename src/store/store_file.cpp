@@ -17,10 +17,52 @@
 
 namespace cw::store {
 
+namespace {
+
+/// An empty file already at `path` (made ready by someone beforehand) becomes the store only
+/// when it belongs to this account, and then with the mode of a new store: a file another
+/// account made keeps that account's owner and mode, so it could read every fact, passphrase
+/// hashes included.
+void claim_empty_file(const std::string& path, mode_t mode, std::optional<gid_t> group) {
+  const int fd = ::open(path.c_str(), O_WRONLY | O_NOFOLLOW | O_NONBLOCK | O_CLOEXEC);
+  if (fd < 0) return;  // opening the store reports what is wrong with it
+  struct stat st {};
+  if (::fstat(fd, &st) != 0 || !S_ISREG(st.st_mode) || st.st_size != 0) {
+    ::close(fd);
+    return;
+  }
+  if (st.st_uid != ::geteuid()) {
+    ::close(fd);
+    throw StoreError("'" + path + "' is an empty file of another account (uid " +
+                         std::to_string(st.st_uid) +
+                         "): a store made in it would keep that owner and mode; nothing was "
+                         "written",
+                     "remove the file, or let its owner run the command: a store is created "
+                     "private to the account that makes it");
+  }
+  std::string why;
+  if (group && ::fchown(fd, static_cast<uid_t>(-1), *group) != 0) {
+    why = std::string("cannot give it the group: ") + std::strerror(errno);
+  } else if (::fchmod(fd, mode) != 0) {
+    why = std::strerror(errno);
+  }
+  ::close(fd);
+  if (!why.empty()) {
+    throw StoreError("cannot make the empty file '" + path + "' private for the store: " + why +
+                         "; nothing was written",
+                     "remove the file and run the command again, or choose another path");
+  }
+}
+
+}  // namespace
+
 bool create_store_file(const std::string& path, std::optional<gid_t> group) {
   struct stat st {};
-  if (::lstat(path.c_str(), &st) == 0) return false;
   const mode_t mode = group ? 0660 : 0600;
+  if (::lstat(path.c_str(), &st) == 0) {
+    if (S_ISREG(st.st_mode) && st.st_size == 0) claim_empty_file(path, mode, group);
+    return false;
+  }
   const int fd = ::open(path.c_str(), O_WRONLY | O_CREAT | O_EXCL | O_NOFOLLOW | O_CLOEXEC, mode);
   if (fd < 0) {
     if (errno == EEXIST) return false;  // another init created it meanwhile

@@ -11,9 +11,10 @@
 namespace cw::store {
 
 /// Creates the empty file `path` for a new store with mode 0600, or 0660 owned by `group` (a
-/// workstation shared by a group of users). Does nothing when `path` exists. Returns true when
-/// this call created the file. Throws StoreError naming the path when it cannot be created or
-/// given the group.
+/// workstation shared by a group of users). An empty file already there is given that mode
+/// when it belongs to this account and refused (StoreError) when it belongs to another; any
+/// other existing path is left alone. Returns true when this call created the file. Throws
+/// StoreError naming the path when it cannot be created or given the group.
 bool create_store_file(const std::string& path, std::optional<gid_t> group);
 
 /// Removes a store file this process created and its -wal and -shm side files (an `init` that

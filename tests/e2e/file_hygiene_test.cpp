@@ -9,6 +9,7 @@
 
 #include <catch2/catch.hpp>
 #include <filesystem>
+#include <fstream>
 #include <string>
 #include <vector>
 
@@ -38,6 +39,33 @@ TEST_CASE("e2e files: a new store, its -wal and -shm are readable by the owner o
     const fs::path p = box.db().string() + side;
     if (fs::exists(p)) CHECK(mode_of(p) == owner);
   }
+}
+
+TEST_CASE("e2e files: an empty file made beforehand becomes private, or is refused if not ours",
+          "[e2e][sqlite-only]") {
+  Sandbox box;
+  { std::ofstream(box.db()).flush(); }
+  fs::permissions(box.db(), fs::perms::all & ~(fs::perms::owner_exec | fs::perms::group_exec |
+                                               fs::perms::others_exec));  // 0666
+  const RunResult r = box.run({"init", "--tz", "UTC"});
+  INFO(r.describe());
+  REQUIRE(r.exit_code == 0);
+  CHECK(mode_of(box.db()) == (fs::perms::owner_read | fs::perms::owner_write));
+  if (::geteuid() != 0) return;  // giving a file to another account needs root
+  Sandbox other;
+  { std::ofstream(other.db()).flush(); }
+  fs::permissions(other.db(), fs::perms::all & ~(fs::perms::owner_exec | fs::perms::group_exec |
+                                                 fs::perms::others_exec));
+  REQUIRE(::chown(other.db().c_str(), 65534, 65534) == 0);
+  const RunResult refused = other.run({"init", "--tz", "UTC"});
+  INFO(refused.describe());
+  CHECK(refused.exit_code == 4);
+  CHECK_THAT(refused.err, Catch::Contains("is an empty file of another account (uid 65534)"));
+  CHECK(fs::file_size(other.db()) == 0);  // nothing written
+  const RunResult copy =
+      other.run({"store", "copy", "--from", box.db().string(), "--to", other.db().string()});
+  CHECK(copy.exit_code == 4);
+  CHECK(fs::file_size(other.db()) == 0);
 }
 
 TEST_CASE("e2e files: init --group shares the store with one group (0660)", "[e2e][sqlite-only]") {
