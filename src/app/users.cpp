@@ -23,6 +23,7 @@ User get_user(store::ReadUnit& unit, const std::string& code) {
                         "see 'curvewarden user list'; an admin registers users with "
                         "'curvewarden user add CODE --name TEXT --role ROLE'");
   }
+  u->locked = signature_locked(unit.registry().failed_signatures_in_a_row(u->id));
   return *u;
 }
 
@@ -85,7 +86,10 @@ User add_user(Session& s, const AddUserRequest& request) {
 
 std::vector<User> list_users(Session& s) {
   auto unit = s.read();
-  return unit->registry().users();
+  auto users = unit->registry().users();
+  for (auto& u : users)
+    u.locked = signature_locked(unit->registry().failed_signatures_in_a_row(u.id));
+  return users;
 }
 
 User show_user(Session& s, const std::string& code) {

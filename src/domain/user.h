@@ -63,6 +63,9 @@ struct User {
   std::string name;  ///< full name, shown with every signature
   Instant registered_at;
   std::vector<UserEvent> events;  ///< in time order, at least one
+  /// Locked by wrong passphrases in a row (signature_locked()) until an admin unlocks it: no
+  /// status event of its own, so set where the user is read to be shown.
+  bool locked = false;
 
   /// The latest event (status and role now).
   const UserEvent& current() const { return events.back(); }

@@ -119,7 +119,7 @@ const std::vector<CsvListing>& csv_listings() {
         "os_login"}},
       {"user list",
        "users",
-       {"code", "name", "role", "status", "permissions", "registered_at", "changed_at"}},
+       {"code", "name", "role", "status", "permissions", "registered_at", "changed_at", "locked"}},
   };
   return listings;
 }

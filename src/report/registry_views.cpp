@@ -448,6 +448,7 @@ Json user_json(const User& u) {
               {"name", u.name},
               {"role", std::string(to_string(u.role()))},
               {"status", std::string(to_string(u.current().status))},
+              {"locked", u.locked},
               {"permissions", permissions},
               {"registered_at", json_instant(u.registered_at)},
               {"changed_at", json_instant(u.current().occurred_at)},
@@ -457,7 +458,11 @@ Json user_json(const User& u) {
 void print_user(std::ostream& out, const User& u, const LabZone& zone) {
   out << "User " << u.code << ": " << u.name << "\n"
       << "  role:       " << to_string(u.role()) << "\n"
-      << "  status:     " << to_string(u.current().status) << "\n"
+      << "  status:     " << to_string(u.current().status)
+      << (u.locked ? " (locked by wrong passphrases: an admin runs 'curvewarden user unlock " +
+                         u.code + " --reason TEXT')"
+                   : "")
+      << "\n"
       << "  registered: " << zone.format_local(u.registered_at) << "\n";
   std::string rights;
   for (Permission p : all_permissions()) {
@@ -482,7 +487,7 @@ void print_user_list(std::ostream& out, const std::vector<User>& list, const Lab
   Table t({{"code"}, {"name"}, {"role"}, {"status"}, {"since"}});
   for (const auto& u : list) {
     t.add_row({u.code, u.name, std::string(to_string(u.role())),
-               std::string(to_string(u.current().status)),
+               std::string(to_string(u.current().status)) + (u.locked ? ", locked" : ""),
                zone.format_local(u.current().occurred_at)});
   }
   t.print(out);

@@ -75,6 +75,12 @@ TEST_CASE("signatures: a wrong passphrase is recorded and counted, and five lock
   CHECK(locked.exit_code == 3);
   CHECK_THAT(locked.err, Catch::Contains("user bob is locked after 5 wrong passphrases"));
   CHECK(lab.sql("SELECT reasons FROM refusals ORDER BY id DESC LIMIT 1") == "[\"user-locked\"]");
+  // The user views say so.
+  CHECK(lab.run({"user", "show", "bob", "--json"}).json().at("locked") == true);
+  CHECK(lab.run({"user", "show", "carol", "--json"}).json().at("locked") == false);
+  CHECK_THAT(lab.run({"user", "list"}).out, Catch::Contains("enabled, locked"));
+  CHECK_THAT(lab.run({"user", "list", "--csv"}).out,
+             Catch::Contains("bob,") && Catch::Contains(",true\r\n"));
 
   // Only an admin unlocks (a signed act of the admin); then bob signs.
   const auto self_unlock = signed_run(lab, "carol", "2026-03-02T10:20:00Z",
@@ -86,6 +92,7 @@ TEST_CASE("signatures: a wrong passphrase is recorded and counted, and five lock
                                  test_passphrase("alice") + "\n");
   INFO(unlock.describe());
   REQUIRE(unlock.exit_code == 0);
+  CHECK(unlock.json().at("locked") == false);
   const auto ok =
       signed_run(lab, "bob", "2026-03-02T10:30:00Z", approve, test_passphrase("bob") + "\n");
   INFO(ok.describe());

@@ -216,7 +216,8 @@ TEST_CASE("users: add, list (text, JSON, CSV), codes ignore case", "[scenario]")
                                          "carol:reviewer:enabled", "q.moreau:quality:enabled"});
   const auto csv = lab.run({"user", "list", "--csv"});
   REQUIRE(csv.exit_code == 0);
-  CHECK(csv.out.rfind("code,name,role,status,permissions,registered_at,changed_at\r\n", 0) == 0);
+  CHECK(csv.out.rfind("code,name,role,status,permissions,registered_at,changed_at,locked\r\n", 0) ==
+        0);
   CHECK_THAT(csv.out, Catch::Contains("q.moreau,Quinn Moreau,quality,enabled,"
                                       "log;review;retire;revise-methods;withdraw-lots;"
                                       "service-instruments,2026-02-01T08:00:00Z,"));
