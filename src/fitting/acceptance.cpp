@@ -84,14 +84,6 @@ Acceptance evaluate_acceptance(const FitResult& fit, const std::vector<std::stri
   }
   Acceptance out{true, {}, {}, {}};
 
-  if (fit.n_levels < criteria.min_levels) {
-    out.failures.push_back({Criterion::TooFewLevels,
-                            std::to_string(fit.n_levels) + " distinct levels fitted, at least " +
-                                std::to_string(criteria.min_levels) + " required",
-                            std::nullopt, static_cast<double>(fit.n_levels),
-                            static_cast<double>(criteria.min_levels)});
-  }
-
   if (criteria.min_r2 && fit.r2 < *criteria.min_r2) {
     out.failures.push_back({Criterion::R2BelowMin,
                             "r\u00b2 " + distinct_text(fit.r2, *criteria.min_r2, 4) +
@@ -124,11 +116,25 @@ Acceptance evaluate_acceptance(const FitResult& fit, const std::vector<std::stri
     }
     if (!p.excluded && p.x != 0) levels[k].judged.push_back(i);
   }
+  // A zero calibrator (a calibration blank) is fitted but neither judged by %RE nor counted as
+  // a level of the working range: the lowest level is the lowest non-zero one (the LLOQ), and
+  // the method's minimum counts non-zero levels (Standard Methods 6020 B: "non-zero").
   std::optional<double> lowest_nominal;
+  int non_zero_levels = 0;
   for (const Level& level : levels) {
-    if (level.fitted && (!lowest_nominal || level.nominal < *lowest_nominal)) {
-      lowest_nominal = level.nominal;
-    }
+    if (!level.fitted || level.nominal == 0) continue;
+    ++non_zero_levels;
+    if (!lowest_nominal || level.nominal < *lowest_nominal) lowest_nominal = level.nominal;
+  }
+  if (non_zero_levels < criteria.min_levels) {
+    const bool zero = non_zero_levels != fit.n_levels;
+    out.failures.insert(
+        out.failures.begin(),
+        {Criterion::TooFewLevels,
+         std::to_string(non_zero_levels) + " distinct " + (zero ? "non-zero " : "") +
+             "levels fitted, at least " + std::to_string(criteria.min_levels) + " required",
+         std::nullopt, static_cast<double>(non_zero_levels),
+         static_cast<double>(criteria.min_levels)});
   }
 
   // Points: |%RE| <= limit, inclusive (the lowest-level limit only for the lowest level).

@@ -188,6 +188,35 @@ TEST_CASE("acceptance: level-error detail names the level and its worst point", 
   CHECK(a.failures[1].value == -19.5);
 }
 
+TEST_CASE("acceptance: a zero calibrator is neither the lowest level nor counted", "[fitting]") {
+  // The lowest-level limit belongs to the LLOQ, the lowest non-zero calibrator
+  // (calibration-practice.md §4.4, §5.1: ICH M10 ±20 % at the LLOQ); levels are counted
+  // non-zero (Standard Methods 6020 B, ≥ 5 non-zero levels for a line).
+  AcceptanceCriteria c;
+  c.max_error_pct = 15;
+  c.max_error_pct_lowest = 20;
+  c.min_levels = 5;
+  std::vector<std::string> levels;
+  const FitResult f = from_table(
+      {{"0", 0, 0}, {"1", 2, -18.3}, {"2", 5, 1}, {"3", 10, -1}, {"4", 20, 2}, {"5", 50, 0}},
+      levels);
+  const Acceptance a = evaluate_acceptance(f, levels, c);
+  CHECK(a.accepted);
+  CHECK_FALSE(a.points[0].judged);
+  CHECK(a.points[1].limit_pct == 20);  // the LLOQ, not the blank
+  CHECK(a.points[2].limit_pct == 15);
+
+  const FitResult four =
+      from_table({{"0", 0, 0}, {"1", 2, 0}, {"2", 5, 0}, {"3", 10, 0}, {"4", 20, 0}}, levels);
+  CHECK(four.n_levels == 5);
+  const Acceptance b = evaluate_acceptance(four, levels, c);
+  CHECK_FALSE(b.accepted);
+  REQUIRE(b.failures.size() == 1);
+  CHECK(b.failures[0].criterion == Criterion::TooFewLevels);
+  CHECK(b.failures[0].value == 4);
+  CHECK(b.failures[0].detail == "4 distinct non-zero levels fitted, at least 5 required");
+}
+
 TEST_CASE("acceptance: lowest-level limit applies only to the lowest level", "[fitting]") {
   // ICH M10 (2022) §3 / FDA BMV 2018 via calibration-practice.md §5.1 [P2]: ±20 % at the LLOQ,
   // ±15 % elsewhere.
