@@ -216,6 +216,21 @@ const rules::CurveFacts& FactSet::state_facts(CurveId id) {
   return *slot;
 }
 
+void FactSet::leave_out_checks(CurveId id, const std::vector<CheckId>& checks) {
+  if (checks.empty()) return;
+  if (facts_.count(id)) throw std::logic_error("checks left out after the facts were used");
+  const auto left_out = [&](const Check& k) {
+    return std::find(checks.begin(), checks.end(), k.id) != checks.end();
+  };
+  if (auto it = checks_.find(id); it != checks_.end()) std::erase_if(it->second, left_out);
+  if (auto c = curves_.find(id); c != curves_.end()) {
+    const Curve& curve = *c->second;
+    const auto g =
+        group_checks_.find(std::make_tuple(curve.method_id, curve.instrument_id, curve.analyte));
+    if (g != group_checks_.end()) std::erase_if(g->second, left_out);
+  }
+}
+
 std::vector<CurveId> FactSet::newer_live_in_group(const Curve& c, Instant at) {
   if (c.acquired_at > at) return {};
   return unit_.curves().live_in_group(c.method_id, c.instrument_id, c.analyte, c.acquired_at, at);

@@ -44,6 +44,11 @@ class FactSet {
   /// The electronic signatures given to these curves, oldest first (one query).
   std::vector<Signature> signatures_of(const std::vector<CurveId>& ids);
 
+  /// Leaves `checks` of loaded curve `id` out of what its state is decided from: checks given
+  /// the moment asked about but recorded after what is traced at it. A logic_error once the
+  /// curve's facts have been used.
+  void leave_out_checks(CurveId id, const std::vector<CheckId>& checks);
+
   /// The state at `at`, superseded included (the group's newer live curves are loaded).
   CurveStatus status(CurveId id, Instant at);
   /// The states of many curves at `at`, with one group query per distinct (method, instrument,

@@ -142,6 +142,11 @@ ResultTrace trace_result(Session& s, ResultId id) {
   if (result->curve_id) {
     const CurveId cid = *result->curve_id;
     facts.load({cid}, store::CurveDetail::Points);
+    // Times are kept to the second: a check given the result's second but recorded after it
+    // came after it, and the state at the result's time is decided without it.
+    const std::vector<CheckId> later = unit->curves().checks_recorded_after(id);
+    const std::vector<Check> checks = unit->curves().checks_of({cid});
+    facts.leave_out_checks(cid, later);
     t.curve = make_views(facts, {cid}, result->occurred_at, true).front();
     t.calibration = facts.calibration(facts.curve(cid).calibration_id);
     t.method_version = facts.version_of(cid);
@@ -161,7 +166,7 @@ ResultTrace trace_result(Session& s, ResultId id) {
         }
       });
       if (!t.check_before) {
-        for (const auto& k : facts.facts(cid).checks) {
+        for (const auto& k : facts.facts(cid).checks) {  // the later ones left out
           if (k.kind == CheckKind::Check && k.run_id != result->run_id &&
               k.occurred_at <= result->occurred_at) {
             t.check_before = k;
@@ -169,8 +174,10 @@ ResultTrace trace_result(Session& s, ResultId id) {
         }
       }
     } else {
-      for (const auto& k : facts.facts(cid).checks) {
-        if (k.occurred_at <= result->occurred_at) {
+      for (const auto& k : checks) {
+        const bool recorded_after = std::find(later.begin(), later.end(), k.id) != later.end();
+        if (k.occurred_at < result->occurred_at ||
+            (k.occurred_at == result->occurred_at && !recorded_after)) {
           t.check_before = k;
         } else if (!t.check_after) {
           t.check_after = k;

@@ -52,6 +52,9 @@ class CurveReader {
   virtual std::vector<Curve> curves(const std::vector<CurveId>& ids, CurveDetail detail) = 0;
   /// Checks of the curves, each curve's in time order.
   virtual std::vector<Check> checks_of(const std::vector<CurveId>& ids) = 0;
+  /// Checks (and blanks) on result `id`'s curve given the result's own second but recorded
+  /// after it (times are kept to the second: the recorded order says which came first).
+  virtual std::vector<CheckId> checks_recorded_after(ResultId id) = 0;
   /// Checks (and blanks) of every curve of a method, instrument and analyte, in time order.
   virtual std::vector<Check> checks_of_group(MethodId method, InstrumentId instrument,
                                              const std::string& analyte) = 0;

@@ -151,6 +151,32 @@ TEST_CASE("trace result: the provenance of a result as it stood when it was repo
   CHECK(j5.at("state_at_result_time").at("state") == "active");
 }
 
+TEST_CASE("trace result: a check of the result's own second recorded after it came after it",
+          "[scenario]") {
+  TraceLab t;
+  const std::string at = "2026-03-02T10:30:00Z";
+  const std::int64_t r = t.quantify(t.c1, at, "W-6");
+  const Json failed = t.lab.json_at(
+      at, {"check", "log", "--curve", std::to_string(t.c1), "--nominal", "6", "--response", "17.3"},
+      3);
+  const Json j = t.lab.json_at(kNow, {"trace", "result", std::to_string(r)});
+  INFO(j.dump());
+  CHECK(j.at("state_at_result_time").at("state") == "active");
+  CHECK(j.at("state_at_result_time").at("reasons") == Json::array());
+  // The failure is the check after it; the result itself became rerun-required by it.
+  REQUIRE(j.at("checks").size() >= 1);
+  CHECK(j.at("checks").back().at("check_id") == failed.at("check_id"));
+  CHECK(j.at("checks").back().at("bracket") == "after");
+  CHECK(j.at("result").at("status") == "rerun-required");
+  // A result recorded after the failure at the same second is refused as stale.
+  const Json late = t.lab.json_at(
+      at, {"quantify", "--curve", std::to_string(t.c1), "--response", "13.5", "--sample", "W-7"},
+      3);
+  const Json jl = t.lab.json_at(
+      kNow, {"trace", "result", std::to_string(late.at("result_id").get<std::int64_t>())});
+  CHECK(jl.at("state_at_result_time").at("state") == "stale");
+}
+
 TEST_CASE("trace curve: every check and result a curve produced", "[scenario]") {
   TraceLab t;
   const Json j = t.lab.json_at(kNow, {"trace", "curve", std::to_string(t.c3)});

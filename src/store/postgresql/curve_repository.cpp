@@ -448,6 +448,17 @@ std::vector<CurveId> PgCurves::of_lot(LotId lot) {
   });
 }
 
+std::vector<CheckId> PgCurves::checks_recorded_after(ResultId id) {
+  return guarded(db_, [&] {
+    std::vector<CheckId> out;
+    auto& s = db_.statement(sql::kChecksRecordedAfterResult);
+    bind_int(s, ":id", id.value);
+    while (s.executeStep()) out.emplace_back(s.getColumn(0).getInt64());
+    s.reset();
+    return out;
+  });
+}
+
 std::optional<Check> PgCurves::check(CheckId id) {
   return guarded(db_, [&]() -> std::optional<Check> {
     auto& s = db_.statement(sql::kCheckById);

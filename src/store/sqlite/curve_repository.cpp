@@ -454,6 +454,17 @@ std::optional<std::string> SqliteCurves::settled_tallies_disagreement() {
   return guarded(db_, [&] { return sqlite::settled_tallies_disagreement(db_); });
 }
 
+std::vector<CheckId> SqliteCurves::checks_recorded_after(ResultId id) {
+  return guarded(db_, [&] {
+    std::vector<CheckId> out;
+    auto& s = db_.statement(sql::kChecksRecordedAfterResult);
+    bind_int(s, ":id", id.value);
+    while (s.executeStep()) out.emplace_back(s.getColumn(0).getInt64());
+    s.reset();
+    return out;
+  });
+}
+
 std::optional<Check> SqliteCurves::check(CheckId id) {
   return guarded(db_, [&]() -> std::optional<Check> {
     auto& s = db_.statement(sql::kCheckById);

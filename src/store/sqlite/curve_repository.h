@@ -30,6 +30,7 @@ class SqliteCurves final : public CurveReader, public CurveWriter {
   std::vector<Calibration> calibrations(const std::vector<CalibrationId>& ids) override;
   std::vector<Curve> curves(const std::vector<CurveId>& ids, CurveDetail detail) override;
   std::vector<Check> checks_of(const std::vector<CurveId>& ids) override;
+  std::vector<CheckId> checks_recorded_after(ResultId id) override;
   std::vector<Check> checks_of_group(MethodId method, InstrumentId instrument,
                                      const std::string& analyte) override;
   std::vector<CurveId> list(const CurveFilter& f) override;

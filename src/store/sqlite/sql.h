@@ -291,6 +291,10 @@ inline constexpr const char* kChecksOf =
     "FROM checks k LEFT JOIN run_checks m ON m.check_id = k.id "
     "WHERE k.curve_id IN (SELECT value FROM json_each(:ids)) "
     "ORDER BY k.curve_id, k.occurred_at, k.id";
+// The checks on a result's curve given the result's own second but recorded after it.
+inline constexpr const char* kChecksRecordedAfterResult =
+    "SELECT k.id FROM results r JOIN checks k ON k.curve_id = r.curve_id AND "
+    "k.occurred_at = r.occurred_at AND k.audit_seq > r.audit_seq WHERE r.id = :id ORDER BY k.id";
 inline constexpr const char* kCheckById =
     "SELECT k.id, k.curve_id, k.kind, k.nominal, k.response, k.is_response, k.measured, "
     "k.recovery_pct, k.limit_low, k.limit_high, k.passed, k.analyst, k.occurred_at, m.run_id "
