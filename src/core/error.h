@@ -8,6 +8,7 @@
 #include <string>
 
 #include "core/exit_code.h"
+#include "core/text.h"
 
 namespace cw {
 
@@ -22,8 +23,12 @@ struct SourceLocation {
 /// Base of every error the tool reports to the user.
 class Error : public std::runtime_error {
  public:
+  /// The message and hint are kept as readable_message() shows them (core/text.h).
   Error(ExitCode code, std::string kind, const std::string& message, std::string hint = {})
-      : std::runtime_error(message), code_(code), kind_(std::move(kind)), hint_(std::move(hint)) {}
+      : std::runtime_error(readable_message(message)),
+        code_(code),
+        kind_(std::move(kind)),
+        hint_(readable_message(hint)) {}
 
   ExitCode exit_code() const { return code_; }
   /// Stable machine token for the JSON error object ("bad-usage", "bad-input", ...).
@@ -31,7 +36,11 @@ class Error : public std::runtime_error {
   /// Optional advice printed as "curvewarden: hint: ...".
   const std::string& hint() const { return hint_; }
   const std::optional<SourceLocation>& location() const { return location_; }
-  void set_location(SourceLocation where) { location_ = std::move(where); }
+  void set_location(SourceLocation where) {
+    where.file = readable_message(where.file, 1000);
+    where.field = readable_message(where.field, 200);
+    location_ = std::move(where);
+  }
   /// The command-line option (or environment variable) the error is about, e.g. "--response".
   const std::string& option() const { return option_; }
   void set_option(std::string option) { option_ = std::move(option); }

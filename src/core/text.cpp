@@ -182,4 +182,34 @@ std::string quote(std::string_view s) {
   return "'" + std::string(s) + "'";
 }
 
+std::string readable_message(std::string_view s, std::size_t max_bytes) {
+  static constexpr char kHex[] = "0123456789ABCDEF";
+  std::string out;
+  out.reserve(std::min(s.size(), max_bytes) + 32);
+  std::size_t pos = 0;
+  while (pos < s.size()) {
+    if (out.size() >= max_bytes) {
+      out += "... (" + std::to_string(s.size() - pos) + " more bytes)";
+      break;
+    }
+    const std::size_t start = pos;
+    const auto cp = next_code_point(s, pos);
+    if (!cp) {
+      const auto byte = static_cast<unsigned char>(s[pos++]);
+      out += "\\x";
+      out += kHex[byte >> 4];
+      out += kHex[byte & 0xF];
+    } else if ((*cp < 0x20 && *cp != '\n' && *cp != '\t') || *cp == 0x7F) {
+      out += "\\x";
+      out += kHex[(*cp >> 4) & 0xF];
+      out += kHex[*cp & 0xF];
+    } else if (*cp == 0xFEFF) {
+      out += "\\u{FEFF}";
+    } else {
+      out.append(s.substr(start, pos - start));
+    }
+  }
+  return out;
+}
+
 }  // namespace cw

@@ -49,4 +49,10 @@ std::string format_sig_against(double value, std::initializer_list<double> refer
 /// Wraps `s` in single quotes (user values in messages).
 std::string quote(std::string_view s);
 
+/// `s` as a message can show it: control characters other than line breaks and tabs, bytes that
+/// are not UTF-8 and U+FEFF written as \xNN or \u{FEFF}, and text beyond `max_bytes` cut at a
+/// character boundary with "... (N more bytes)". Errors are made of user input echoed back: a
+/// NUL would end the message, a 200 000-character header would fill the terminal.
+std::string readable_message(std::string_view s, std::size_t max_bytes = 2000);
+
 }  // namespace cw

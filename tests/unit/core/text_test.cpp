@@ -6,6 +6,7 @@
 
 #include "core/error.h"
 #include "core/text.h"
+#include "core/utf8.h"
 
 namespace {
 
@@ -68,4 +69,27 @@ TEST_CASE("text: check_analyte_name refuses '=', control characters and edge spa
   CHECK_THAT(validation_message([] { cw::check_analyte_name(" nitrate", "analyte"); }),
              Catch::Contains("leading or trailing spaces"));
   CHECK(validation_message([] { cw::check_analyte_name("", "analyte"); }) == "analyte is empty");
+}
+
+TEST_CASE("text: messages show control characters, stray bytes and a BOM, and stay short",
+          "[core]") {
+  using namespace std::string_literals;
+  CHECK(cw::readable_message("plain 'ü' text\nnext line\tand tab") ==
+        "plain 'ü' text\nnext line\tand tab");
+  CHECK(cw::readable_message("'2.1\0'"s) == "'2.1\\x00'");
+  CHECK(cw::readable_message("a\x1b[31mred\x7f") == "a\\x1B[31mred\\x7F");
+  CHECK(cw::readable_message("bad \xff\xfe byte") == "bad \\xFF\\xFE byte");
+  CHECK(cw::readable_message("\xef\xbb\xbfname") == "\\u{FEFF}name");
+  const std::string long_text(200000, 'x');
+  const std::string shown = cw::readable_message("'" + long_text + "'");
+  CHECK(shown.size() < 2100);
+  CHECK_THAT(shown, Catch::EndsWith("... (198002 more bytes)"));
+  // A cut never splits a character: 'é' is two bytes.
+  std::string accents;
+  for (int i = 0; i < 1500; ++i) accents += "é";
+  const std::string cut = cw::readable_message(accents);
+  CHECK(cw::is_valid_utf8(cut));
+  // The error types keep their message so.
+  const cw::ValidationError e("'" + "a\0b"s + "' is not a number");
+  CHECK(std::string(e.what()) == "'a\\x00b' is not a number");
 }
