@@ -2,6 +2,7 @@
 // The quantitation decision.
 #include "domain/quantitation.h"
 
+#include <algorithm>
 #include <cmath>
 
 #include "core/error.h"
@@ -126,7 +127,12 @@ QuantitationDecision decide_quantitation(const Curve& curve, const CurveStatus& 
   if (!status.is_usable()) blocking = status.blocking();
   if (so_far) {
     if (auto due = check_due(method.check, curve, *so_far)) blocking.push_back(std::move(*due));
-    if (auto failed = bracket_failed(*so_far)) blocking.push_back(std::move(*failed));
+    const bool failed_already = std::any_of(blocking.begin(), blocking.end(), [](const Finding& f) {
+      return f.reason == Reason::CheckFailed;
+    });
+    if (auto failed = bracket_failed(*so_far); failed && !failed_already) {
+      blocking.push_back(std::move(*failed));
+    }
   }
   if (!blocking.empty()) return refuse_without_curve(std::move(blocking));
   const auto& fit = curve.fit;

@@ -203,6 +203,14 @@ TEST_CASE("check log, quantify: a time before checks already logged falls in the
                                " failed") &&
                    Catch::Contains("every result of this bracket must be re-run"));
     CHECK(lab.counts().at("results") == before.at("results") + 1);  // the refusal is recorded
+    // After the failure the curve is stale: check-failed once, not once more for the bracket
+    // a second failure (11:45) ends.
+    back_dated(lab, now, "2026-03-02T11:45:00Z",
+               {"check", "log", "--curve", id, "--nominal", "6", "--response", "17.3"}, 3);
+    const Json stale =
+        back_dated(lab, now, "2026-03-02T11:30:00Z",
+                   {"quantify", "--curve", id, "--response", "13.5", "--sample", "W-11"}, 3);
+    CHECK(stale.at("reasons") == Json::array({"check-failed"}));
     // Closed by a passing check first, the bracket stands: a time before it is reported.
     back_dated(lab, now, "2026-03-02T09:40:00Z",
                {"quantify", "--curve", id, "--response", "13.5", "--sample", "W-10"}, 0);
