@@ -153,6 +153,16 @@ const Method& FactSet::method(MethodId id) {
   return *it->second;
 }
 
+void FactSet::load_methods(const std::vector<MethodId>& ids) {
+  Missing<MethodId> missing;
+  for (MethodId id : ids) missing.add(methods_, id);
+  if (missing.empty()) return;
+  for (auto& m : unit_.registry().methods(missing.ids())) {
+    const MethodId id = m.id;
+    methods_[id] = std::make_unique<Method>(std::move(m));
+  }
+}
+
 const Instrument& FactSet::instrument(InstrumentId id) {
   auto it = instruments_.find(id);
   if (it == instruments_.end()) {

@@ -37,6 +37,9 @@ class FactSet {
   /// engine reads does not include them).
   const rules::CurveFacts& state_facts(CurveId id);
   const Method& method(MethodId id);
+  /// Loads the methods not loaded yet in one query, so that `method()` of each reads nothing.
+  /// Unknown ids are skipped (`method()` then reports the damage).
+  void load_methods(const std::vector<MethodId>& ids);
   const Instrument& instrument(InstrumentId id);
   const Calibration& calibration(CalibrationId id);
   const MethodVersion& version_of(CurveId id) { return facts(id).version(); }

@@ -115,7 +115,11 @@ std::vector<InstrumentStatus> status_board(Session& s) {
       if (c.expires_at < week) st.expiring_soon.push_back(expiring_entry(facts, id, s.zone()));
     }
     sort_soonest_first(st.expiring_soon);
-    for (const auto& [method_id, analyte] : unit->curves().method_analytes(instrument.id)) {
+    const auto pairs = unit->curves().method_analytes(instrument.id);
+    std::vector<MethodId> method_ids;
+    for (const auto& pair : pairs) method_ids.push_back(pair.first);
+    facts.load_methods(method_ids);  // one query, not one per pair
+    for (const auto& [method_id, analyte] : pairs) {
       const Method& method = facts.method(method_id);
       const MethodVersion* v = method.version_at(now);
       if (!v || !v->definition.has_analyte(analyte)) continue;
