@@ -91,6 +91,8 @@ std::string man_page() {
     << ".SH ENVIRONMENT\n"
     << ".TP\n.B CURVEWARDEN_DB\nthe store when \\-\\-db is not given\n"
     << ".TP\n.B CURVEWARDEN_USER\nthe person acting when \\-\\-as is not given\n"
+    << ".TP\n.B CURVEWARDEN_REPLY_TIMEOUT\nseconds a PostgreSQL server may take to answer one "
+       "request before the command gives up with exit 4 (default 30)\n"
     << ".TP\n.B CURVEWARDEN_NOW\nreplaces \"now\" (tests and demonstrations only; every audit "
        "entry records that it was set)\n"
     << ".SH FILES\n.TP\n.I ./curvewarden.db\nthe default store (SQLite, WAL mode)\n"

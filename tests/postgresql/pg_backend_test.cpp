@@ -6,6 +6,8 @@
 //
 // CURVEWARDEN_TEST_PG holds a libpq URI of a role that may CREATE DATABASE; every test creates a
 // database of its own and drops it at the end. Without the variable every test fails.
+#include <signal.h>
+#include <sys/wait.h>
 #include <unistd.h>
 
 #include <atomic>
@@ -970,4 +972,104 @@ TEST_CASE("postgresql: a guard on replica only or moved to another table counts 
   CHECK(r.exit_code == 4);
   CHECK_THAT(r.err, Catch::Contains("instruments_no_delete"));
   CHECK(db.sql("SELECT count(*) FROM instruments") == "1");
+}
+
+namespace {
+
+/// Stops a server process (SIGSTOP) and continues it when it goes out of scope. A child process
+/// continues it after 30 s whatever happens to the test (killed by a timeout), so that a server
+/// process is never left stopped and the cluster can always be shut down.
+class StoppedProcess {
+ public:
+  explicit StoppedProcess(int pid) : pid_(pid) {
+    rescuer_ = ::fork();
+    if (rescuer_ == 0) {
+      ::sleep(30);  // only async-signal-safe calls in the child of a threaded process
+      ::kill(pid, SIGCONT);
+      ::_exit(0);
+    }
+    if (::kill(pid_, SIGSTOP) != 0) {
+      FAIL("cannot stop server process " << pid_
+                                         << ": run the tests as the server's user or as root");
+    }
+  }
+  StoppedProcess(const StoppedProcess&) = delete;
+  StoppedProcess& operator=(const StoppedProcess&) = delete;
+  ~StoppedProcess() {
+    ::kill(pid_, SIGCONT);
+    if (rescuer_ > 0) {
+      ::kill(rescuer_, SIGKILL);
+      ::waitpid(rescuer_, nullptr, 0);
+    }
+  }
+
+ private:
+  int pid_;
+  pid_t rescuer_ = -1;
+};
+
+}  // namespace
+
+TEST_CASE("postgresql: a server that stops answering ends the command after the reply timeout",
+          "[postgresql]") {
+  TestDatabase db;
+  Sandbox box;
+  run_ok(box, {"init", "--tz", "UTC"}, on(db, box));
+  auto env = on(db, box);
+  env["CURVEWARDEN_REPLY_TIMEOUT"] = "2";
+  // The command waits for the store's lock, held here; its server process is then stopped, as a
+  // frozen server's would be, and the lock let go: nothing on the server will answer it again.
+  pqxx::connection holder(db.uri());
+  pqxx::work held(holder);
+  held.exec("SELECT pg_advisory_xact_lock(1129796164)");
+  RunResult r;
+  std::thread command([&] { r = box.run({"instrument", "add", "IC-01", "--json"}, env); });
+  int pid = 0;
+  for (int i = 0; i < 100 && pid == 0; ++i) {
+    pqxx::connection watcher(db.admin());
+    pqxx::nontransaction n(watcher);
+    const pqxx::result found =
+        n.exec("SELECT pid FROM pg_stat_activity WHERE datname = " + n.quote(db.name()) +
+               " AND application_name = 'curvewarden' AND wait_event_type = 'Lock'");
+    if (!found.empty()) pid = found[0][0].as<int>();
+    if (pid == 0) std::this_thread::sleep_for(std::chrono::milliseconds(50));
+  }
+  if (pid == 0) {
+    held.abort();
+    command.join();
+    FAIL("the command never waited for the lock: " << r.describe());
+  }
+  const auto start = std::chrono::steady_clock::now();
+  {
+    StoppedProcess frozen(pid);
+    held.abort();
+    command.join();
+  }
+  const auto waited = std::chrono::steady_clock::now() - start;
+  INFO(r.describe());
+  CHECK(r.exit_code == 4);
+  CHECK(r.json()["error"]["code"] == "store");
+  CHECK_THAT(r.err, Catch::Contains("did not answer within 2 s"));
+  CHECK_THAT(r.err, Catch::Contains("nothing of this command was written"));
+  CHECK(waited < std::chrono::seconds(10));
+  // The server goes on; nothing of the command was written and the trail verifies.
+  CHECK(db.sql("SELECT count(*) FROM instruments") == "0");
+  run_ok(box, {"audit", "verify"}, on(db, box));
+  run_ok(box, {"instrument", "add", "IC-01"}, on(db, box));
+}
+
+TEST_CASE("postgresql: a reply timeout that is not a number of seconds is refused, exit 2",
+          "[postgresql]") {
+  TestDatabase db;
+  Sandbox box;
+  run_ok(box, {"init", "--tz", "UTC"}, on(db, box));
+  for (const char* bad : {"0", "-5", "1.5", "abc", "86401", "9999999999"}) {
+    auto env = on(db, box);
+    env["CURVEWARDEN_REPLY_TIMEOUT"] = std::string(bad);
+    const RunResult r = box.run({"instrument", "add", "IC-01"}, env);
+    INFO(bad << ": " << r.describe());
+    CHECK(r.exit_code == 2);
+    CHECK_THAT(r.err, Catch::Contains("CURVEWARDEN_REPLY_TIMEOUT"));
+  }
+  CHECK(db.sql("SELECT count(*) FROM instruments") == "0");
 }

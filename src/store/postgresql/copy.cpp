@@ -148,8 +148,8 @@ void PgLoader::commit() {
     // The statistics of migration 5 are gathered by ANALYZE only: without this the first
     // commands after a move would plan a group's look-ups as if each held one curve, until
     // autovacuum's first analyze. It sees this transaction's rows.
-    db_.run("ANALYZE curves");
-    db_.run("COMMIT");
+    db_.run_bulk("ANALYZE curves");
+    db_.run_bulk("COMMIT");
   });
 }
 

@@ -248,27 +248,28 @@ std::unique_ptr<pqxx::connection> connect(const Database& d) {
 void configure(Database& d) {
   d.session = std::make_unique<pqxx::nontransaction>(*d.conn, "curvewarden");
   d.prepared.clear();
+  d.watch->watch_socket(d.conn->sock());
   if (d.conn->server_version() < kMinimumServerVersion) {
     throw StoreError("the PostgreSQL server of '" + d.path + "' is version " +
                          std::to_string(d.conn->server_version()) +
                          "; curvewarden needs PostgreSQL 12 or later",
                      "use a newer server; nothing was written");
   }
-  const pqxx::result encoding = d.session->exec("SHOW server_encoding");
+  const pqxx::result encoding = d.run("SHOW server_encoding");
   if (const std::string name = encoding[0][0].c_str(); name != "UTF8") {
     throw StoreError(
         "the PostgreSQL database of '" + d.path + "' is encoded in " + name + ", not UTF8",
         "create the database with ENCODING 'UTF8' (createdb -E UTF8 -T template0); "
         "nothing was written");
   }
-  d.session->exec("SET client_encoding = 'UTF8'");
-  d.session->exec("SET extra_float_digits = 3");
-  d.session->exec("SET lock_timeout = " + std::to_string(std::max(1, d.busy_timeout_ms)));
+  d.run("SET client_encoding = 'UTF8'");
+  d.run("SET extra_float_digits = 3");
+  d.run("SET lock_timeout = " + std::to_string(std::max(1, d.busy_timeout_ms)));
   // The store's schema, resolved once: where search_path finds its mark, else (a store still to
   // create) the current schema. Every statement then names tables in it alone, whatever the
   // role's own search_path ("$user" first) holds.
   if (d.schema.empty()) {
-    const pqxx::result r = d.session->exec(
+    const pqxx::result r = d.run(
         "SELECT coalesce((SELECT n.nspname FROM pg_class c JOIN pg_namespace n ON n.oid = "
         "c.relnamespace WHERE c.oid = to_regclass('curvewarden_store')), current_schema())");
     if (r[0][0].is_null()) {
@@ -279,7 +280,7 @@ void configure(Database& d) {
     }
     d.schema = r[0][0].c_str();
   }
-  d.session->exec("SET search_path = " + d.conn->quote_name(d.schema) + ", pg_catalog");
+  d.run("SET search_path = " + d.conn->quote_name(d.schema) + ", pg_catalog");
 }
 
 void reconnect(Database& d) {
@@ -299,7 +300,8 @@ void with_retry(Database& d, Fn&& start) {
       start();
       return;
     } catch (const pqxx::failure& e) {
-      if (!transient(e) || Clock_::now() >= deadline) {
+      // A server that did not answer in time is not tried again: it would be waited for again.
+      if (!transient(e) || d.watch->gave_up() || Clock_::now() >= deadline) {
         // No aborted transaction and no advisory lock is left behind on the connection.
         try {
           d.run("ROLLBACK");
@@ -354,8 +356,8 @@ void migrate(Database& d, const Clock& clock) {
         d.run("ROLLBACK");
         continue;
       }
-      if (!id.marked) d.run(sql::kBootstrap);
-      d.run(m.text);
+      if (!id.marked) d.run_bulk(sql::kBootstrap);
+      d.run_bulk(m.text);
       // A step SQL cannot do alone: the derived steps of the curves already stored.
       if (m.version == 3) build_settled_tallies(d);
       Statement record(d,
@@ -380,6 +382,12 @@ void migrate(Database& d, const Clock& clock) {
 }
 
 }  // namespace
+
+std::string Database::no_answer() const {
+  const auto seconds = std::chrono::duration_cast<std::chrono::seconds>(watch->exceeded()).count();
+  return "the PostgreSQL server of '" + path + "' did not answer within " +
+         std::to_string(seconds) + " s";
+}
 
 std::string Database::scrubbed(std::string text) const {
   for (const auto& secret : secrets) {
@@ -468,6 +476,7 @@ void Statement::close_cursor() noexcept {
   // A cursor ends with its transaction; closing it in a later one would fail that one.
   if (transaction_ != db_.transaction) return;
   try {
+    ReplyWatch::Waiting waiting(*db_.watch);
     db_.session->exec("CLOSE " + name);
   } catch (...) {
     // The transaction has failed already; it ends the cursor when it is rolled back.
@@ -476,6 +485,7 @@ void Statement::close_cursor() noexcept {
 
 void Statement::fetch() {
   constexpr int kBatch = 1000;
+  ReplyWatch::Waiting waiting(*db_.watch);
   result_ = db_.session->exec("FETCH FORWARD " + std::to_string(kBatch) + " FROM " + cursor_);
   exhausted_ = result_->size() < static_cast<pqxx::result::size_type>(kBatch);
   row_ = 0;
@@ -486,8 +496,11 @@ bool Statement::executeStep() {
     if (cursor_.empty() && !result_) {
       cursor_ = "cw_cursor_" + std::to_string(++db_.cursors);
       transaction_ = db_.transaction;
-      db_.session->exec_params("DECLARE " + cursor_ + " NO SCROLL CURSOR FOR " + sql_,
-                               pqxx::prepare::make_dynamic_params(values_));
+      {
+        ReplyWatch::Waiting waiting(*db_.watch);
+        db_.session->exec_params("DECLARE " + cursor_ + " NO SCROLL CURSOR FOR " + sql_,
+                                 pqxx::prepare::make_dynamic_params(values_));
+      }
       exhausted_ = false;
       fetch();
       return row_ < result_->size();
@@ -504,6 +517,7 @@ bool Statement::executeStep() {
   }
   if (!result_) {
     const std::string& prepared = db_.prepare(sql_);
+    ReplyWatch::Waiting waiting(*db_.watch);
     result_ = db_.session->exec_prepared(prepared, pqxx::prepare::make_dynamic_params(values_));
     row_ = 0;
   } else {
@@ -529,6 +543,7 @@ void Statement::clearBindings() {
 int Statement::exec() {
   reset();
   const std::string& prepared = db_.prepare(sql_);
+  ReplyWatch::Waiting waiting(*db_.watch);
   const pqxx::result r =
       db_.session->exec_prepared(prepared, pqxx::prepare::make_dynamic_params(values_));
   if (r.size() == 1 && r.columns() == 1) db_.last_id = r[0][0].as<std::int64_t>();
@@ -536,12 +551,19 @@ int Statement::exec() {
 }
 
 pqxx::result Database::run(const std::string& sql) {
+  ReplyWatch::Waiting waiting(*watch);
+  return session->exec(sql);
+}
+
+pqxx::result Database::run_bulk(const std::string& sql) {
+  ReplyWatch::Waiting waiting(*watch, true);
   return session->exec(sql);
 }
 
 const std::string& Database::prepare(const std::string& sql) {
   if (const auto found = prepared.find(sql); found != prepared.end()) return found->second;
   const std::string name = "cw" + std::to_string(prepared.size() + 1);
+  ReplyWatch::Waiting waiting(*watch);
   conn->prepare(name, sql);
   return prepared.emplace(sql, name).first->second;
 }
@@ -593,6 +615,12 @@ void rethrow(const std::exception& e, const Database& d) {
                          "' was lost while committing: " + message,
                      "run 'curvewarden audit log' to see whether the command was recorded");
   }
+  if (dynamic_cast<const pqxx::broken_connection*>(&e) != nullptr && d.watch->gave_up()) {
+    throw StoreError(d.no_answer(),
+                     "check that the server is running and not overloaded; "
+                     "nothing of this command was written (" +
+                         std::string(kReplyTimeoutHint) + ")");
+  }
   if (dynamic_cast<const pqxx::broken_connection*>(&e) != nullptr) {
     throw StoreError("lost the connection to the PostgreSQL store '" + d.path + "': " + message,
                      "check that the server is running and reachable; nothing of this command "
@@ -642,6 +670,7 @@ std::unique_ptr<Database> Database::open(const std::string& location, bool creat
   d->busy_timeout_ms = busy_timeout_ms;
   d->deadline = Clock_::now() + std::chrono::milliseconds(busy_timeout_ms);
   d->os_login = os_login;
+  d->watch = std::make_unique<ReplyWatch>(reply_limit_from_environment());
   parse_location(*d);
   d->conn = connect(*d);
   try {

@@ -22,6 +22,7 @@
 
 #include "core/clock.h"
 #include "core/time.h"
+#include "store/postgresql/reply_watch.h"
 
 namespace cw::store::postgresql {
 
@@ -30,6 +31,10 @@ namespace cw::store::postgresql {
 inline constexpr std::int64_t kApplicationId = 0x43575244;
 
 struct Database;
+
+/// How the reply timeout is changed, for the hints of the messages that report it.
+inline constexpr const char* kReplyTimeoutHint =
+    "CURVEWARDEN_REPLY_TIMEOUT sets how many seconds a request may take, 30 by default";
 
 /// One value of the current row; NULL reads as 0, 0.0 or "" (as SQLiteCpp's columns do).
 class Column {
@@ -99,6 +104,9 @@ struct Database {
   bool timeout_given = false;  ///< the URI sets connect_timeout
   std::vector<std::string> secrets;                ///< the password as written and as decoded
   std::chrono::steady_clock::time_point deadline;  ///< connecting gives up after it
+  /// Gives up on a request the server has not answered within the reply timeout; every round
+  /// trip below holds a ReplyWatch::Waiting.
+  std::unique_ptr<ReplyWatch> watch;
   std::unique_ptr<pqxx::connection> conn;
   std::unique_ptr<pqxx::nontransaction> session;
   bool created = false;
@@ -120,9 +128,14 @@ struct Database {
   /// `text` with the password, in any form the URI holds it, replaced by "***": every message
   /// that leaves the backend goes through it (libpq's own texts may echo the URI).
   std::string scrubbed(std::string text) const;
+  /// "the PostgreSQL server of '...' did not answer within N s": a request given up on.
+  std::string no_answer() const;
 
   /// Runs SQL without parameters (BEGIN, COMMIT, migrations).
   pqxx::result run(const std::string& sql);
+  /// Runs a statement over the whole store (a migration, building derived rows), which may take
+  /// longer than the reply timeout (ReplyWatch::Waiting::kBulkTimes as long).
+  pqxx::result run_bulk(const std::string& sql);
   /// The name `sql` is prepared under on this connection, preparing it the first time.
   const std::string& prepare(const std::string& sql);
   /// A cached statement for a static SQL text, reset and with bindings cleared.

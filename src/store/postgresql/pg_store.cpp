@@ -103,6 +103,10 @@ class PgWriteUnit final : public WriteUnit {
       // The server may have committed before the connection went: say so, never "nothing".
       std::string what = db_.scrubbed(e.what());
       what = what.substr(0, what.find('\n'));
+      if (db_.watch->gave_up()) {
+        throw StoreError(db_.no_answer() + " while committing",
+                         "run 'curvewarden audit log' to see whether the command was recorded");
+      }
       throw StoreError("the connection to the PostgreSQL store '" + db_.path +
                            "' was lost while committing: " + what,
                        "run 'curvewarden audit log' to see whether the command was recorded");

@@ -70,7 +70,7 @@ void build_settled_tallies(Database& db) {
 }
 
 void build_settled_totals(Database& db) {
-  db.run(sql::kBuildSettledTotals);
+  db.run_bulk(sql::kBuildSettledTotals);
 }
 
 std::optional<std::string> settled_tallies_disagreement(Database& db) {
