@@ -10,6 +10,31 @@
 #include "import/method_file.h"
 
 namespace cw::app {
+namespace {
+
+/// The hint of a code not found: the registered code it matches but for case, when there is one
+/// (codes match exactly), else `otherwise`.
+std::string not_found_hint(store::ReadUnit& unit, store::CodedRegistry kind,
+                           const std::string& code, const std::string& otherwise) {
+  if (auto twin = unit.registry().code_in_other_case(kind, code)) {
+    return "codes match case exactly: did you mean " + quote(*twin) + "?";
+  }
+  return otherwise;
+}
+
+/// The message refusing to register `code` when `what` is registered under a code that differs
+/// from it only in case: people read "IC-01" and "ic-01" as one object, so the store never
+/// holds both.
+std::optional<std::string> case_twin(store::ReadUnit& unit, store::CodedRegistry kind,
+                                     const std::string& what, const std::string& code) {
+  if (auto twin = unit.registry().code_in_other_case(kind, code)) {
+    return what + " " + quote(*twin) + " is already registered; " + quote(code) +
+           " differs from it only in case";
+  }
+  return std::nullopt;
+}
+
+}  // namespace
 
 // ------------------------------------------------------------------------------- lookups
 
@@ -18,7 +43,9 @@ Instrument get_instrument(store::ReadUnit& unit, const std::string& code) {
   if (!found) {
     throw NotFoundError(
         "no instrument " + quote(code),
-        "list them with 'curvewarden instrument list' or add it with 'instrument add'");
+        not_found_hint(unit, store::CodedRegistry::Instrument, code,
+                       "list them with 'curvewarden instrument list' or add it with "
+                       "'instrument add'"));
   }
   return *found;
 }
@@ -28,7 +55,9 @@ Method get_method(store::ReadUnit& unit, const std::string& code) {
   if (!found) {
     throw NotFoundError(
         "no method " + quote(code),
-        "list them with 'curvewarden method list' or add one with 'method add FILE.toml'");
+        not_found_hint(unit, store::CodedRegistry::Method, code,
+                       "list them with 'curvewarden method list' or add one with 'method add "
+                       "FILE.toml'"));
   }
   return *found;
 }
@@ -37,7 +66,9 @@ Lot get_lot(store::ReadUnit& unit, const std::string& code) {
   auto found = unit.registry().lot(code);
   if (!found) {
     throw NotFoundError("no lot " + quote(code),
-                        "list them with 'curvewarden lot list' or add it with 'lot add'");
+                        not_found_hint(unit, store::CodedRegistry::Lot, code,
+                                       "list them with 'curvewarden lot list' or add it with "
+                                       "'lot add'"));
   }
   return *found;
 }
@@ -157,6 +188,11 @@ Instrument add_instrument(Session& s, const std::string& code,
         "instrument " + quote(code) + " is already registered",
         "instrument codes are unique; see 'curvewarden instrument show " + code + "'");
   }
+  if (auto twin = case_twin(*unit, store::CodedRegistry::Instrument, "instrument", code)) {
+    throw ValidationError(*twin,
+                          "use the registered code, or a code that differs in more "
+                          "than case; see 'curvewarden instrument list'");
+  }
   unit->registry_writer().add_instrument(code, name, s.at());
   unit->append_entry({"instrument.add", "instrument", code, std::nullopt, s.at()});
   Instrument added = get_instrument(*unit, code);
@@ -251,6 +287,12 @@ MethodVersion add_method(Session& s, const std::string& file) {
             std::to_string(existing->latest().version) + ")",
         "register a new version with 'curvewarden method revise " + file + " --reason ...'");
   }
+  if (auto twin =
+          case_twin(*unit, store::CodedRegistry::Method, "method", parsed.definition.code)) {
+    throw ValidationError(SourceLocation{file, std::nullopt, std::nullopt, "code"}, *twin,
+                          "revise the registered method with 'curvewarden method revise', or "
+                          "give a code that differs in more than case");
+  }
   const MethodId id = unit->registry_writer().add_method(parsed.definition.code, s.at());
   MethodVersion v;
   v.method_id = id;
@@ -334,6 +376,11 @@ Lot add_lot(Session& s, Lot lot) {
   if (unit->registry().lot(lot.code)) {
     throw ValidationError("lot " + quote(lot.code) + " is already registered",
                           "lot codes are unique; see 'curvewarden lot show " + lot.code + "'");
+  }
+  if (auto twin = case_twin(*unit, store::CodedRegistry::Lot, "lot", lot.code)) {
+    throw ValidationError(*twin,
+                          "use the registered code, or a code that differs in more "
+                          "than case; see 'curvewarden lot list'");
   }
   unit->registry_writer().add_lot(lot);
   unit->append_entry({"lot.add", "lot", lot.code, std::nullopt, s.at()});

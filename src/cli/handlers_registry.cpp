@@ -269,7 +269,7 @@ int lot_add(Invocation& in) {
   } else {
     in.out() << "Registered lot " << added.code << " (" << added.material << "), usable through "
              << format_date(added.effective_expires_on()) << " (until "
-             << s.zone().format_local(added.expiry_instant(s.zone())) << ").\n";
+             << report::usable_until_text(added, s.zone()) << ").\n";
   }
   if (added.is_expired_at(s.at(), s.zone())) in.warn("lot " + added.code + " is already expired");
   return 0;

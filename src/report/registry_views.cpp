@@ -2,6 +2,8 @@
 // Views of the registries and the audit trail.
 #include "report/registry_views.h"
 
+#include <algorithm>
+
 #include "core/text.h"
 #include "report/table.h"
 
@@ -271,6 +273,12 @@ std::string lot_status(const Lot& lot, const LabZone& zone, Instant at) {
   return "usable";
 }
 
+std::string usable_until_text(const Lot& lot, const LabZone& zone) {
+  const Instant end = lot.expiry_instant(zone);
+  if (end > last_stored_moment()) return "the end of " + format_date(lot.effective_expires_on());
+  return zone.format_local(end);
+}
+
 Json lot_json(const Lot& lot, const LabZone& zone, Instant at) {
   Json values = Json::array();
   for (const auto& v : lot.values) {
@@ -288,7 +296,7 @@ Json lot_json(const Lot& lot, const LabZone& zone, Instant at) {
       {"in_use_days", json_optional(lot.in_use_days)},
       {"in_use_expires_on", in_use ? Json(format_date(*in_use)) : Json(nullptr)},
       {"effective_expires_on", format_date(lot.effective_expires_on())},
-      {"usable_until", json_instant(lot.expiry_instant(zone))},
+      {"usable_until", json_instant(std::min(lot.expiry_instant(zone), last_stored_moment()))},
       {"status", lot_status(lot, zone, at)},
       {"withdrawn_at", lot.withdrawal ? json_instant(lot.withdrawal->occurred_at) : Json(nullptr)},
       {"withdrawal_reason", lot.withdrawal ? Json(lot.withdrawal->reason) : Json(nullptr)},
@@ -309,8 +317,11 @@ void print_lot(std::ostream& out, const Lot& lot, const LabZone& zone, Instant a
     }
     out << "\n";
   }
-  out << "  usable until " << zone.format_local(lot.expiry_instant(zone)) << " (end of "
-      << format_date(lot.effective_expires_on()) << ")\n";
+  out << "  usable until " << usable_until_text(lot, zone);
+  if (lot.expiry_instant(zone) <= last_stored_moment()) {
+    out << " (end of " << format_date(lot.effective_expires_on()) << ")";
+  }
+  out << "\n";
   out << "  status      " << lot_status(lot, zone, at);
   if (lot.withdrawal) {
     out << " (withdrawn " << zone.format_local(lot.withdrawal->occurred_at) << ": "

@@ -29,6 +29,10 @@ void print_method_version(std::ostream& out, const Method& m, const MethodVersio
 void print_method_list(std::ostream& out, const std::vector<Method>& list, const LabZone& zone,
                        Instant at);
 
+/// The moment a lot stops being usable, as shown: the end of its last day in the lab's zone
+/// (local time), or "the end of 9999-12-31" when that end lies past the last moment the store holds (a lot
+/// registered as never expiring), which no ISO-8601 time of four-digit years can write.
+std::string usable_until_text(const Lot& lot, const LabZone& zone);
 Json lot_json(const Lot& lot, const LabZone& zone, Instant at);
 void print_lot(std::ostream& out, const Lot& lot, const LabZone& zone, Instant at);
 void print_lot_list(std::ostream& out, const std::vector<Lot>& list, const LabZone& zone,

@@ -23,6 +23,9 @@ struct LabSettings {
   std::string time_zone;
 };
 
+/// The registries whose objects are named by a code.
+enum class CodedRegistry { Instrument, Method, Lot };
+
 class RegistryReader {
  public:
   virtual ~RegistryReader() = default;
@@ -46,6 +49,11 @@ class RegistryReader {
   virtual std::optional<Lot> lot(std::string_view code) = 0;
   virtual std::vector<Lot> lots() = 0;
   virtual std::vector<Lot> lots(const std::vector<LotId>& ids) = 0;
+
+  /// A registered code of `kind` that equals `code` but for ASCII case ("IC-01" for "ic-01"),
+  /// nullopt when none does (codes are ASCII: core/text.h check_code).
+  virtual std::optional<std::string> code_in_other_case(CodedRegistry kind,
+                                                        std::string_view code) = 0;
 
   /// A user by canonical code, with every status event.
   virtual std::optional<User> user(std::string_view code) = 0;

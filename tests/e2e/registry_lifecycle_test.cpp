@@ -275,3 +275,75 @@ TEST_CASE("e2e registry: init is idempotent", "[e2e]") {
   CHECK(log["entries"][1]["reason"] == "soil section joined");
   CHECK(log["entries"][1]["values"]["lab_settings"][0]["time_zone"] == "America/New_York");
 }
+
+TEST_CASE("e2e registry: codes that differ only in case are one object to people, refused twice",
+          "[e2e]") {
+  Sandbox box;
+  REQUIRE(box.run({"init", "--tz", "UTC"}).exit_code == 0);
+  box.write_file("anion.toml", cw::test::method_toml());
+  box.write_file("anion-lower.toml", cw::test::method_toml("anion-ic", "0.995"));
+  for (const auto& args : std::vector<std::vector<std::string>>{
+           {"instrument", "add", "IC-02"},
+           {"method", "add", "anion.toml"},
+           {"lot", "add", "CRM-A1", "--material", "anion standard", "--expires", "2027-03-31",
+            "--value", "nitrate=1000"}}) {
+    const RunResult r = box.run(args);
+    INFO(r.describe());
+    REQUIRE(r.exit_code == 0);
+  }
+  const Counts before = cw::test::table_row_counts(box);
+  struct Twin {
+    std::vector<std::string> args;
+    std::string registered;
+  };
+  for (const auto& twin :
+       std::vector<Twin>{{{"instrument", "add", "ic-02", "--json"}, "instrument 'IC-02'"},
+                         {{"method", "add", "anion-lower.toml", "--json"}, "method 'ANION-IC'"},
+                         {{"lot", "add", "crm-a1", "--material", "m", "--expires", "2027-03-31",
+                           "--value", "nitrate=1000", "--json"},
+                          "lot 'CRM-A1'"}}) {
+    const RunResult r = box.run(twin.args);
+    INFO(r.describe());
+    CHECK(r.exit_code == 2);
+    const Json e = r.json()["error"];
+    CHECK_THAT(e["message"].get<std::string>(),
+               Catch::Contains(twin.registered + " is already registered") &&
+                   Catch::Contains("differs from it only in case"));
+  }
+  CHECK(box.run({"method", "add", "anion-lower.toml", "--json"}).json()["error"]["file"] ==
+        "anion-lower.toml");
+  CHECK(cw::test::table_row_counts(box) == before);
+  CHECK(box.run({"audit", "verify"}).exit_code == 0);
+  // Looking one up in the wrong case names the registered code.
+  for (const auto& [args, registered] :
+       std::vector<std::pair<std::vector<std::string>, std::string>>{
+           {{"instrument", "show", "ic-02"}, "'IC-02'"},
+           {{"method", "show", "Anion-IC"}, "'ANION-IC'"},
+           {{"lot", "show", "crm-a1"}, "'CRM-A1'"}}) {
+    const RunResult r = box.run(args);
+    INFO(r.describe());
+    CHECK(r.exit_code == 2);
+    CHECK_THAT(r.err, Catch::Contains("did you mean " + registered));
+  }
+}
+
+TEST_CASE("e2e registry: a lot that never expires ends with the last moment the store holds",
+          "[e2e]") {
+  Sandbox box;
+  REQUIRE(box.run({"init", "--tz", "America/New_York"}).exit_code == 0);
+  // The end of 9999-12-31 in New York is 10000-01-01T05:00:00Z, which no four-digit ISO-8601
+  // time can write: shown as the end of that day, and in JSON as 9999-12-31T23:59:59Z.
+  const RunResult added = box.run({"lot", "add", "CRM-NX", "--material", "m", "--expires",
+                                   "9999-12-31", "--value", "nitrate=1000"});
+  INFO(added.describe());
+  REQUIRE(added.exit_code == 0);
+  CHECK_THAT(added.out, Catch::Contains("(until the end of 9999-12-31)"));
+  CHECK_THAT(added.out, !Catch::Contains("10000"));
+  const RunResult shown = box.run({"lot", "show", "CRM-NX"});
+  CHECK_THAT(shown.out, Catch::Contains("usable until the end of 9999-12-31\n"));
+  CHECK(box.run({"lot", "show", "CRM-NX", "--json"}).json()["usable_until"] ==
+        "9999-12-31T23:59:59Z");
+  const RunResult listed = box.run({"lot", "list", "--csv"});
+  INFO(listed.describe());
+  CHECK_THAT(listed.out, !Catch::Contains("10000"));
+}

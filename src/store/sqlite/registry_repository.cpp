@@ -228,6 +228,21 @@ std::vector<Lot> SqliteRegistry::complete(std::vector<Lot> list) {
   return list;
 }
 
+std::optional<std::string> SqliteRegistry::code_in_other_case(CodedRegistry kind,
+                                                              std::string_view code) {
+  const char* text = kind == CodedRegistry::Instrument ? sql::kInstrumentCodeInOtherCase
+                     : kind == CodedRegistry::Method   ? sql::kMethodCodeInOtherCase
+                                                       : sql::kLotCodeInOtherCase;
+  return guarded(db_, [&]() -> std::optional<std::string> {
+    auto& s = db_.statement(text);
+    bind_text(s, ":code", std::string(code));
+    if (!s.executeStep()) return std::nullopt;
+    std::string found = s.getColumn(0).getString();
+    s.reset();
+    return found;
+  });
+}
+
 std::optional<Lot> SqliteRegistry::lot(std::string_view code) {
   return guarded(db_, [&]() -> std::optional<Lot> {
     auto& s = db_.statement(sql::kLotByCode);

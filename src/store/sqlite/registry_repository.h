@@ -22,6 +22,7 @@ class SqliteRegistry final : public RegistryReader, public RegistryWriter {
   std::vector<Method> methods() override;
   std::vector<Method> methods(const std::vector<MethodId>& ids) override;
   std::optional<Lot> lot(std::string_view code) override;
+  std::optional<std::string> code_in_other_case(CodedRegistry kind, std::string_view code) override;
   std::vector<Lot> lots() override;
   std::vector<Lot> lots(const std::vector<LotId>& ids) override;
   std::optional<User> user(std::string_view code) override;

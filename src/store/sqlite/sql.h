@@ -18,6 +18,16 @@ inline constexpr const char* kInsertSettings =
 
 inline constexpr const char* kInstrumentByCode =
     "SELECT id, code, name, registered_at FROM instruments WHERE code = :code";
+// Codes are ASCII (check_code), so lower() folds them alike on both backends.
+inline constexpr const char* kInstrumentCodeInOtherCase =
+    "SELECT code FROM instruments WHERE lower(code) = lower(:code) AND code <> :code "
+    "ORDER BY code LIMIT 1";
+inline constexpr const char* kMethodCodeInOtherCase =
+    "SELECT code FROM methods WHERE lower(code) = lower(:code) AND code <> :code "
+    "ORDER BY code LIMIT 1";
+inline constexpr const char* kLotCodeInOtherCase =
+    "SELECT code FROM lots WHERE lower(code) = lower(:code) AND code <> :code ORDER BY code "
+    "LIMIT 1";
 inline constexpr const char* kInstrumentsAll =
     "SELECT id, code, name, registered_at FROM instruments ORDER BY code";
 inline constexpr const char* kInstrumentsByIds =
