@@ -29,6 +29,17 @@ Check judge_check(const CheckReading& reading, const fitting::FitResult& fit,
           labels.nominal + " must be above 0, got " + format_shortest(*reading.nominal),
           "the check standard's nominal concentration in " + method.unit);
     }
+    // A check verifies the calibrated range: one outside it would be read by extrapolation
+    // (calibration-practice.md §4.4, never extrapolate) and verify nothing.
+    if (*reading.nominal < fit.range_low || *reading.nominal > fit.range_high) {
+      throw option_error(labels.nominal,
+                         labels.nominal + " " + format_shortest(*reading.nominal) + " " +
+                             method.unit + " lies outside the curve's working range, " +
+                             format_shortest(fit.range_low) + " to " +
+                             format_shortest(fit.range_high) + " " + method.unit,
+                         "a check standard verifies the calibrated range: give the nominal of "
+                         "one within it (a mid-level standard is usual)");
+    }
     k.nominal = *reading.nominal;
     k.limit_low = 100 - method.check.tolerance_pct;
     k.limit_high = 100 + method.check.tolerance_pct;

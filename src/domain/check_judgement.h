@@ -33,7 +33,8 @@ struct ReadingLabels {
 /// inclusive); a blank passes when its measured concentration is below the method's blank_limit,
 /// or below the curve's LOD (of the method's limit definition) when the method sets none. A
 /// response with no solution on the curve fails. Throws ValidationError (naming the label) for a
-/// missing or non-positive nominal of a check, a non-zero nominal of a blank, a missing or extra
+/// missing or non-positive nominal of a check, a check's nominal outside the curve's working
+/// range (it would be read by extrapolation), a non-zero nominal of a blank, a missing or extra
 /// internal-standard response, or a recovery that overflows.
 Check judge_check(const CheckReading& reading, const fitting::FitResult& fit,
                   const MethodDefinition& method, const ReadingLabels& labels = {});

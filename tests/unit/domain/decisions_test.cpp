@@ -105,7 +105,16 @@ TEST_CASE("check judgement: bad readings are bad input naming the option", "[dom
   CHECK(validation_error([&] {
           cw::judge_check({cw::CheckKind::Blank, 2.0, 2.9, std::nullopt}, fit, method());
         }).option() == "--nominal");
-  // A nominal so small that 100·measured/nominal overflows to infinity.
+  // A check outside the working range (0 to 12 pg/mL, §9 M1) would be read by extrapolation
+  // (calibration-practice.md §4.4); its ends are inside.
+  const auto above = validation_error([&] {
+    cw::judge_check({cw::CheckKind::Check, 12.5, 13.5, std::nullopt}, fit, method());
+  });
+  CHECK(above.option() == "--nominal");
+  CHECK_THAT(above.what(), Catch::Contains("outside the curve's working range, 0 to 12"));
+  CHECK_NOTHROW(cw::judge_check({cw::CheckKind::Check, 12.0, 13.5, std::nullopt}, fit, method()));
+  // A nominal so small that 100·measured/nominal overflows to infinity (within a range that
+  // starts at a zero calibrator).
   const auto overflow = validation_error([&] {
     cw::judge_check({cw::CheckKind::Check, 1e-307, 13.5, std::nullopt}, fit, method());
   });
