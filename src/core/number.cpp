@@ -74,6 +74,8 @@ NumberParse parse_decimal(std::string_view raw) {
   if (!std::isfinite(value) || (!mantissa_zero && std::fpclassify(value) != FP_NORMAL)) {
     return {std::nullopt, NumberProblem::OutOfRange};
   }
+  // "-0" and "-0.0e5" are zero: no negative zero goes on to be stored or echoed as "-0".
+  if (value == 0) value = 0.0;
   return {value, NumberProblem::Empty};
 }
 

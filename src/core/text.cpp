@@ -126,12 +126,14 @@ std::string format_sig(double value, int digits) {
 
 std::string format_plain(double value, int digits) {
   if (!std::isfinite(value)) return format_sig(value, digits);
+  if (value == 0) value = 0.0;  // a computed -0 prints as 0
   char buf[64];
   std::snprintf(buf, sizeof buf, "%.*g", digits, value);
   return buf;
 }
 
 std::string format_shortest(double value) {
+  if (value == 0) value = 0.0;  // a computed -0 prints as 0
   char buf[64];
   const auto [end, ec] = std::to_chars(buf, buf + sizeof buf, value);
   if (ec != std::errc()) return format_plain(value, 17);
@@ -139,6 +141,7 @@ std::string format_shortest(double value) {
 }
 
 std::string format_fixed(double value, int decimals) {
+  if (value == 0) value = 0.0;  // a computed -0 prints as 0
   char buf[64];
   std::snprintf(buf, sizeof buf, "%.*f", decimals, value);
   return buf;

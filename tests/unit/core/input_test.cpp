@@ -9,6 +9,7 @@
 #include "core/clean_text.h"
 #include "core/error.h"
 #include "core/number.h"
+#include "core/text.h"
 #include "core/time.h"
 #include "core/utf8.h"
 
@@ -60,6 +61,16 @@ TEST_CASE("number: plain decimals only, correctly rounded", "[core]") {
     CHECK(cw::parse_decimal(range).problem == cw::NumberProblem::OutOfRange);
   }
   CHECK(*cw::parse_decimal("0e-999").value == 0.0);  // zero written with an exponent is zero
+  // A negative zero is zero: its sign never reaches the store or the screen (IEEE 754 keeps it,
+  // and "-0" == 0 compares equal, so only the sign bit shows it).
+  for (const char* zero : {"-0", "-0.0", "-0e5", "-.0"}) {
+    INFO(zero);
+    CHECK_FALSE(std::signbit(*cw::parse_decimal(zero).value));
+  }
+  CHECK(cw::format_shortest(-0.0) == "0");
+  CHECK(cw::format_plain(-0.0) == "0");
+  CHECK(cw::format_fixed(-0.0, 2) == "0.00");
+  CHECK(cw::format_fixed(-0.001, 2) == "-0.00");  // a negative that rounds to zero keeps its sign
 }
 
 TEST_CASE("number: messages name what was given and what is expected", "[core]") {
