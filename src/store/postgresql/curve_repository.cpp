@@ -594,6 +594,21 @@ CalibrationId PgCurves::add_calibration(const Calibration& c) {
   });
 }
 
+bool PgCurves::review_required_of(CalibrationId calibration) {
+  if (auto found = review_required_.find(calibration.value); found != review_required_.end()) {
+    return found->second;
+  }
+  auto& s = db_.statement(sql::kReviewRequiredOfCalibration);
+  bind_int(s, ":calibration", calibration.value);
+  if (!s.executeStep()) {
+    throw std::logic_error("calibration " + std::to_string(calibration.value) +
+                           " of a new curve is not stored");
+  }
+  const bool required = s.getColumn(0).getInt64() != 0;
+  s.reset();
+  return review_required_[calibration.value] = required;
+}
+
 CurveId PgCurves::add_curve(const Curve& c) {
   WriteState& w = writing();
   return guarded(db_, [&] {
@@ -668,7 +683,14 @@ CurveId PgCurves::add_curve(const Curve& c) {
                                std::to_string(c.points.size()) + " points were inserted");
       }
     }
-    append_tally_steps(db_, id, tally_change(nullptr, settled_history(db_, id)), w.seq);
+    // A new curve has no review or retirement yet: its settled history is the row just
+    // inserted and its method version's review_required, not read back.
+    SettledHistory h;
+    h.instrument = c.instrument_id;
+    h.expires_at = c.expires_at;
+    h.verdict = c.verdict;
+    h.review_required = review_required_of(c.calibration_id);
+    append_tally_steps(db_, id, tally_change(nullptr, h), w.seq);
     return id;
   });
 }

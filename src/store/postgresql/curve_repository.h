@@ -3,6 +3,8 @@
 // results and refusals.
 #pragma once
 
+#include <map>
+
 #include "store/curves.h"
 #include "store/postgresql/audit_repository.h"
 #include "store/postgresql/database.h"
@@ -71,9 +73,13 @@ class PgCurves final : public CurveReader, public CurveWriter {
   Check check_of(Statement& s) { return read_check(s, 0, true, db_.path); }
   Result result_of(Statement& s) { return read_result(s, db_.path); }
 
+  /// review_required of the method version a calibration was made under, read once per unit.
+  bool review_required_of(CalibrationId calibration);
+
   Database& db_;
   WriteState* w_;
   const Actor* actor_;
+  std::map<std::int64_t, bool> review_required_;  ///< by calibration id
 };
 
 }  // namespace cw::store::postgresql

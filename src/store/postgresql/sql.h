@@ -290,6 +290,10 @@ inline constexpr const char* kSettledTotalsDisagreement =
     "SELECT s.instrument_id, s.state, 0, s.total FROM summed s WHERE s.total <> 0 AND NOT EXISTS "
     "  (SELECT 1 FROM latest l WHERE l.instrument_id = s.instrument_id AND l.state = s.state) "
     "ORDER BY 1, 2 LIMIT 1";
+inline constexpr const char* kReviewRequiredOfCalibration =
+    "SELECT coalesce((v.definition::jsonb #>> '{calibration,review_required}')::boolean::int, 1) "
+    "FROM calibrations k JOIN method_versions v ON v.id = k.method_version_id "
+    "WHERE k.id = :calibration";
 inline constexpr const char* kSettledCurve =
     "SELECT c.instrument_id, c.expires_at, c.verdict, "
     "  coalesce((v.definition::jsonb #>> '{calibration,review_required}')::boolean::int, 1) "
