@@ -10,6 +10,7 @@
 #include "store/audit_trail.h"
 #include "store/postgresql/database.h"
 #include "store/postgresql/rows.h"
+#include "store/sqlite/settled_scan.h"
 #include "store/store.h"
 
 namespace cw::store::postgresql {
@@ -19,6 +20,8 @@ struct WriteState {
   std::int64_t seq = 0;   ///< the entry the rows being written belong to
   std::string prev_hash;  ///< hash of the entry before it
   std::vector<std::pair<FactTable, std::int64_t>> rows;
+  /// The settled running totals this unit appended (settled_scan.h).
+  sqlite::LatestTotals settled_totals;
   /// The canonical form of those rows whose INSERT returned them (returning_canonical()): the
   /// entry's payload takes them as they are instead of reading them back.
   ReturnedRows returned;

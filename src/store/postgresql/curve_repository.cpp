@@ -690,7 +690,7 @@ CurveId PgCurves::add_curve(const Curve& c) {
     h.expires_at = c.expires_at;
     h.verdict = c.verdict;
     h.review_required = review_required_of(c.calibration_id);
-    append_tally_steps(db_, id, tally_change(nullptr, h), w.seq);
+    append_tally_steps(db_, id, tally_change(nullptr, h), w.seq, w.settled_totals);
     return id;
   });
 }
@@ -710,7 +710,7 @@ void PgCurves::add_review(CurveId id, const CurveReview& r) {
     bind_int(s, ":seq", w.seq);
     s.exec();
     w.add_row(FactTable::CurveReviews, db_.last_insert_id());
-    append_tally_steps(db_, id, tally_change(&before, after), w.seq);
+    append_tally_steps(db_, id, tally_change(&before, after), w.seq, w.settled_totals);
   });
 }
 
@@ -728,7 +728,7 @@ void PgCurves::add_retirement(CurveId id, const CurveRetirement& r) {
     bind_int(s, ":seq", w.seq);
     s.exec();
     w.add_row(FactTable::CurveRetirements, db_.last_insert_id());
-    append_tally_steps(db_, id, tally_change(&before, after), w.seq);
+    append_tally_steps(db_, id, tally_change(&before, after), w.seq, w.settled_totals);
   });
 }
 

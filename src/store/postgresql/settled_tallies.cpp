@@ -13,6 +13,7 @@ using sqlite::append_settled_totals;
 using sqlite::each_settled_history;
 using sqlite::first_step_disagreement;
 using sqlite::first_totals_disagreement;
+using sqlite::LatestTotals;
 using sqlite::read_settled_history;
 using sqlite::SettledHistorySink;
 
@@ -57,10 +58,10 @@ SettledHistory settled_history(Database& db, CurveId id) {
 }
 
 void append_tally_steps(Database& db, CurveId id, const std::vector<TallyStep>& steps,
-                        std::int64_t seq) {
+                        std::int64_t seq, LatestTotals& known) {
   insert_steps(db, id, steps, seq);
   append_settled_totals(db.statement(sql::kLatestSettledTotal),
-                        db.statement(sql::kInsertSettledTotal), steps, seq);
+                        db.statement(sql::kInsertSettledTotal), steps, seq, known);
 }
 
 void build_settled_tallies(Database& db) {

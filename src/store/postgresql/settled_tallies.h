@@ -11,6 +11,7 @@
 #include "domain/ids.h"
 #include "domain/settled_state.h"
 #include "store/postgresql/database.h"
+#include "store/sqlite/settled_scan.h"
 
 namespace cw::store::postgresql {
 
@@ -20,7 +21,7 @@ SettledHistory settled_history(Database& db, CurveId id);
 /// Appends `steps` of curve `id`, caused by the entry `seq`, and the instrument's running
 /// totals per state they change.
 void append_tally_steps(Database& db, CurveId id, const std::vector<TallyStep>& steps,
-                        std::int64_t seq);
+                        std::int64_t seq, sqlite::LatestTotals& known);
 
 /// Appends the steps of every stored curve (a store with no steps yet): migration 0003's step
 /// and the end of `store copy`. Each curve's steps name its latest entry (curve, review or

@@ -10,6 +10,7 @@
 #include "store/audit_trail.h"
 #include "store/sqlite/database.h"
 #include "store/sqlite/rows.h"
+#include "store/sqlite/settled_scan.h"
 #include "store/store.h"
 
 namespace cw::store::sqlite {
@@ -19,6 +20,8 @@ struct WriteState {
   std::int64_t seq = 0;   ///< the entry the rows being written belong to
   std::string prev_hash;  ///< hash of the entry before it
   std::vector<std::pair<FactTable, std::int64_t>> rows;
+  /// The settled running totals this unit appended (settled_scan.h).
+  LatestTotals settled_totals;
   void add_row(FactTable table, std::int64_t id) { rows.emplace_back(table, id); }
 };
 

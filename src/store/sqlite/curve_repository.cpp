@@ -666,7 +666,7 @@ CurveId SqliteCurves::add_curve(const Curve& c) {
     h.expires_at = c.expires_at;
     h.verdict = c.verdict;
     h.review_required = review_required_of(c.calibration_id);
-    append_tally_steps(db_, id, tally_change(nullptr, h), w.seq);
+    append_tally_steps(db_, id, tally_change(nullptr, h), w.seq, w.settled_totals);
     return id;
   });
 }
@@ -686,7 +686,7 @@ void SqliteCurves::add_review(CurveId id, const CurveReview& r) {
     bind_int(s, ":seq", w.seq);
     s.exec();
     w.add_row(FactTable::CurveReviews, db_.db->getLastInsertRowid());
-    append_tally_steps(db_, id, tally_change(&before, after), w.seq);
+    append_tally_steps(db_, id, tally_change(&before, after), w.seq, w.settled_totals);
   });
 }
 
@@ -704,7 +704,7 @@ void SqliteCurves::add_retirement(CurveId id, const CurveRetirement& r) {
     bind_int(s, ":seq", w.seq);
     s.exec();
     w.add_row(FactTable::CurveRetirements, db_.db->getLastInsertRowid());
-    append_tally_steps(db_, id, tally_change(&before, after), w.seq);
+    append_tally_steps(db_, id, tally_change(&before, after), w.seq, w.settled_totals);
   });
 }
 

@@ -139,24 +139,36 @@ std::optional<std::string> first_step_disagreement(
   return found;
 }
 
+/// The latest running total (n, total) of each (instrument id, state) a write unit appended: the
+/// next one of the same unit follows it without reading it back (the unit holds the write lock).
+using LatestTotals =
+    std::map<std::pair<std::int64_t, std::string>, std::pair<std::int64_t, std::int64_t>>;
+
 /// Appends to `insert` (:instrument, :state, :n, :total, :seq) the next running total of each
-/// (instrument, state) that `steps` change, after the latest one `latest` (:instrument, :state;
-/// columns n, total; nothing when there is none yet) reads.
+/// (instrument, state) that `steps` change, after the latest one: from `known` when this unit
+/// appended it, else as `latest` (:instrument, :state; columns n, total; nothing when there is
+/// none yet) reads it.
 template <class Statement>
 void append_settled_totals(Statement& latest, Statement& insert,
-                           const std::vector<TallyStep>& steps, std::int64_t seq) {
+                           const std::vector<TallyStep>& steps, std::int64_t seq,
+                           LatestTotals& known) {
   for (const auto& [key, change] : total_change(steps)) {
     const std::string state(to_string(key.second));
     const std::int64_t instrument = key.first.value;
-    latest.bind(":instrument", instrument);
-    latest.bind(":state", state);
     std::int64_t n = 0;
     std::int64_t total = 0;
-    if (latest.executeStep()) {
-      n = latest.getColumn(0).getInt64();
-      total = latest.getColumn(1).getInt64();
+    if (auto found = known.find({instrument, state}); found != known.end()) {
+      std::tie(n, total) = found->second;
+    } else {
+      latest.bind(":instrument", instrument);
+      latest.bind(":state", state);
+      if (latest.executeStep()) {
+        n = latest.getColumn(0).getInt64();
+        total = latest.getColumn(1).getInt64();
+      }
+      latest.reset();
     }
-    latest.reset();
+    known[{instrument, state}] = {n + 1, total + change};
     insert.bind(":instrument", instrument);
     insert.bind(":state", state);
     insert.bind(":n", n + 1);

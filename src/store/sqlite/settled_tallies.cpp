@@ -49,10 +49,10 @@ SettledHistory settled_history(Database& db, CurveId id) {
 }
 
 void append_tally_steps(Database& db, CurveId id, const std::vector<TallyStep>& steps,
-                        std::int64_t seq) {
+                        std::int64_t seq, LatestTotals& known) {
   insert_steps(db, id, steps, seq);
   append_settled_totals(db.statement(sql::kLatestSettledTotal),
-                        db.statement(sql::kInsertSettledTotal), steps, seq);
+                        db.statement(sql::kInsertSettledTotal), steps, seq, known);
 }
 
 void build_settled_tallies(Database& db) {
