@@ -64,7 +64,7 @@ CheckOutcome log_check(Session& s, const CheckRequest& r) {
     const MethodDefinition& d = facts.version_of(r.curve).definition;
     out.unit = d.unit;
     require_acquired(at, c, s.zone());
-    out.check = judge_check(r.reading, c.fit, d);  // bad input throws before anything is written
+    out.check = judge_check(r.reading, c, d);  // bad input throws before anything is written
     const CurveStatus status = facts.status(r.curve, at);
     if (status.state == CurveState::Rejected || status.state == CurveState::Retired) {
       refuse(*unit, "check.log", "curve", entity,

@@ -319,7 +319,8 @@ MethodVersion revise_method(Session& s, const std::string& file, const std::stri
   if (!existing) {
     throw NotFoundError(
         "no method " + quote(parsed.definition.code) + " to revise (file '" + file + "')",
-        "register it first with 'curvewarden method add " + file + "'");
+        not_found_hint(*unit, store::CodedRegistry::Method, parsed.definition.code,
+                       "register it first with 'curvewarden method add " + file + "'"));
   }
   const MethodVersion& latest = existing->latest();
   if (latest.source_sha256 == parsed.sha256) {

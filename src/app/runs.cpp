@@ -336,7 +336,7 @@ RunImportOutcome import_run(Session& s, const RunImportRequest& r) {
         reading.nominal = row->nominal;
         reading.response = row->response;
         reading.is_response = row->is_response;
-        Check check = judge_check(reading, curve.fit, curve_definition, labels);
+        Check check = judge_check(reading, curve, curve_definition, labels);
         check.curve_id = a.curve;
         check.analyst = s.actor().name;
         check.occurred_at = at;

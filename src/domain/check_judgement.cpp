@@ -10,8 +10,9 @@
 
 namespace cw {
 
-Check judge_check(const CheckReading& reading, const fitting::FitResult& fit,
-                  const MethodDefinition& method, const ReadingLabels& labels) {
+Check judge_check(const CheckReading& reading, const Curve& curve, const MethodDefinition& method,
+                  const ReadingLabels& labels) {
+  const fitting::FitResult& fit = curve.fit;
   Check k;
   k.kind = reading.kind;
   k.response = reading.response;
@@ -31,12 +32,13 @@ Check judge_check(const CheckReading& reading, const fitting::FitResult& fit,
     }
     // A check verifies the calibrated range: one outside it would be read by extrapolation
     // (calibration-practice.md §4.4, never extrapolate) and verify nothing.
-    if (*reading.nominal < fit.range_low || *reading.nominal > fit.range_high) {
+    const double low = lowest_calibrator(curve);
+    if (*reading.nominal < low || *reading.nominal > fit.range_high) {
       throw option_error(labels.nominal,
                          labels.nominal + " " + format_shortest(*reading.nominal) + " " +
                              method.unit + " lies outside the curve's working range, " +
-                             format_shortest(fit.range_low) + " to " +
-                             format_shortest(fit.range_high) + " " + method.unit,
+                             format_shortest(low) + " to " + format_shortest(fit.range_high) + " " +
+                             method.unit,
                          "a check standard verifies the calibrated range: give the nominal of "
                          "one within it (a mid-level standard is usual)");
     }

@@ -7,6 +7,7 @@
 #include <string>
 
 #include "domain/check.h"
+#include "domain/curve.h"
 #include "domain/method.h"
 #include "fitting/fit.h"
 
@@ -34,9 +35,10 @@ struct ReadingLabels {
 /// or below the curve's LOD (of the method's limit definition) when the method sets none. A
 /// response with no solution on the curve fails. Throws ValidationError (naming the label) for a
 /// missing or non-positive nominal of a check, a check's nominal outside the curve's working
-/// range (it would be read by extrapolation), a non-zero nominal of a blank, a missing or extra
+/// range (from lowest_calibrator() to the highest: it would be read by extrapolation), a non-zero
+/// nominal of a blank, a missing or extra
 /// internal-standard response, or a recovery that overflows.
-Check judge_check(const CheckReading& reading, const fitting::FitResult& fit,
-                  const MethodDefinition& method, const ReadingLabels& labels = {});
+Check judge_check(const CheckReading& reading, const Curve& curve, const MethodDefinition& method,
+                  const ReadingLabels& labels = {});
 
 }  // namespace cw

@@ -27,4 +27,13 @@ std::optional<ReviewDecision> parse_review_decision(std::string_view text) {
   return value_of(kDecisions, text);
 }
 
+double lowest_calibrator(const Curve& curve) {
+  std::optional<double> lowest;
+  for (const auto& p : curve.points) {
+    if (p.excluded || !(p.nominal > 0)) continue;
+    if (!lowest || p.nominal < *lowest) lowest = p.nominal;
+  }
+  return lowest.value_or(curve.fit.range_low);
+}
+
 }  // namespace cw

@@ -91,4 +91,9 @@ struct Curve {
   std::vector<CurveRetirement> retirements;  ///< in time order
 };
 
+/// The lowest calibrator that is not a blank, among the levels fitted (not excluded): a zero
+/// level bounds nothing from below (calibration-practice.md §4.4, LLOQ). The fit's range_low
+/// when the points are not loaded.
+double lowest_calibrator(const Curve& curve);
+
 }  // namespace cw

@@ -65,13 +65,7 @@ double release_limit(const Curve& curve, const MethodDefinition& method) {
       return method.calibration.report_limit == ReportLimit::Loq ? limits->loq : limits->lod;
     }
   }
-  // The lowest calibrator that is not a blank: a fitted zero level bounds nothing from below.
-  std::optional<double> lowest;
-  for (const auto& p : curve.points) {
-    if (p.excluded || !(p.nominal > 0)) continue;
-    if (!lowest || p.nominal < *lowest) lowest = p.nominal;
-  }
-  return lowest.value_or(fit.range_low);
+  return lowest_calibrator(curve);
 }
 
 void record_decision(Result& result, const QuantitationDecision& d) {

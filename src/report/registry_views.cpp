@@ -273,10 +273,19 @@ std::string lot_status(const Lot& lot, const LabZone& zone, Instant at) {
   return "usable";
 }
 
+namespace {
+
+/// The lot's last day is 9999-12-31: the end of it is 10000-01-01 in the lab's zone, which no
+/// four-digit time writes (whether or not it lies within the years the store holds in UTC).
+bool ends_with_the_calendar(const Lot& lot) {
+  return lot.effective_expires_on() == CalendarDate{9999, 12, 31};
+}
+
+}  // namespace
+
 std::string usable_until_text(const Lot& lot, const LabZone& zone) {
-  const Instant end = lot.expiry_instant(zone);
-  if (end > last_stored_moment()) return "the end of " + format_date(lot.effective_expires_on());
-  return zone.format_local(end);
+  if (ends_with_the_calendar(lot)) return "the end of " + format_date(lot.effective_expires_on());
+  return zone.format_local(lot.expiry_instant(zone));
 }
 
 Json lot_json(const Lot& lot, const LabZone& zone, Instant at) {
@@ -318,7 +327,7 @@ void print_lot(std::ostream& out, const Lot& lot, const LabZone& zone, Instant a
     out << "\n";
   }
   out << "  usable until " << usable_until_text(lot, zone);
-  if (lot.expiry_instant(zone) <= last_stored_moment()) {
+  if (!ends_with_the_calendar(lot)) {
     out << " (end of " << format_date(lot.effective_expires_on()) << ")";
   }
   out << "\n";

@@ -30,8 +30,8 @@ void print_method_list(std::ostream& out, const std::vector<Method>& list, const
                        Instant at);
 
 /// The moment a lot stops being usable, as shown: the end of its last day in the lab's zone
-/// (local time), or "the end of 9999-12-31" when that end lies past the last moment the store holds (a lot
-/// registered as never expiring), which no ISO-8601 time of four-digit years can write.
+/// (local time), or "the end of 9999-12-31" for a lot whose last day is that one (registered as
+/// never expiring): its end, 10000-01-01 local time, no four-digit time can write.
 std::string usable_until_text(const Lot& lot, const LabZone& zone);
 Json lot_json(const Lot& lot, const LabZone& zone, Instant at);
 void print_lot(std::ostream& out, const Lot& lot, const LabZone& zone, Instant at);

@@ -569,7 +569,7 @@ class Generator {
       const long position = static_cast<long>(r + 1);
       if (rows[r].check) {
         Check check = judge_check(
-            {CheckKind::Check, rows[r].nominal, rows[r].response, std::nullopt}, curve.fit, def);
+            {CheckKind::Check, rows[r].nominal, rows[r].response, std::nullopt}, curve, def);
         check.curve_id = curve.id;
         check.analyst = p.analyst;
         check.occurred_at = p.at;

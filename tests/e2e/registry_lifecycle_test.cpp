@@ -312,6 +312,10 @@ TEST_CASE("e2e registry: codes that differ only in case are one object to people
   }
   CHECK(box.run({"method", "add", "anion-lower.toml", "--json"}).json()["error"]["file"] ==
         "anion-lower.toml");
+  const RunResult revise =
+      box.run({"method", "revise", "anion-lower.toml", "--reason", "tighter r2"});
+  CHECK(revise.exit_code == 2);
+  CHECK_THAT(revise.err, Catch::Contains("did you mean 'ANION-IC'?"));
   CHECK(cw::test::table_row_counts(box) == before);
   CHECK(box.run({"audit", "verify"}).exit_code == 0);
   // Looking one up in the wrong case names the registered code.
@@ -329,21 +333,27 @@ TEST_CASE("e2e registry: codes that differ only in case are one object to people
 
 TEST_CASE("e2e registry: a lot that never expires ends with the last moment the store holds",
           "[e2e]") {
-  Sandbox box;
-  REQUIRE(box.run({"init", "--tz", "America/New_York"}).exit_code == 0);
-  // The end of 9999-12-31 in New York is 10000-01-01T05:00:00Z, which no four-digit ISO-8601
-  // time can write: shown as the end of that day, and in JSON as 9999-12-31T23:59:59Z.
-  const RunResult added = box.run({"lot", "add", "CRM-NX", "--material", "m", "--expires",
-                                   "9999-12-31", "--value", "nitrate=1000"});
-  INFO(added.describe());
-  REQUIRE(added.exit_code == 0);
-  CHECK_THAT(added.out, Catch::Contains("(until the end of 9999-12-31)"));
-  CHECK_THAT(added.out, !Catch::Contains("10000"));
-  const RunResult shown = box.run({"lot", "show", "CRM-NX"});
-  CHECK_THAT(shown.out, Catch::Contains("usable until the end of 9999-12-31\n"));
-  CHECK(box.run({"lot", "show", "CRM-NX", "--json"}).json()["usable_until"] ==
-        "9999-12-31T23:59:59Z");
-  const RunResult listed = box.run({"lot", "list", "--csv"});
-  INFO(listed.describe());
-  CHECK_THAT(listed.out, !Catch::Contains("10000"));
+  // The end of 9999-12-31 is 10000-01-01 00:00 in the lab's zone, which no four-digit ISO-8601
+  // time can write: shown as the end of that day. In JSON it is the instant itself where the
+  // store holds it (Kiritimati, UTC+14: 9999-12-31T10:00:00Z), else the last moment it holds
+  // (New York: 10000-01-01T05:00:00Z would be past it).
+  for (const auto& [zone, until] : std::vector<std::pair<std::string, std::string>>{
+           {"America/New_York", "9999-12-31T23:59:59Z"},
+           {"Pacific/Kiritimati", "9999-12-31T10:00:00Z"}}) {
+    INFO(zone);
+    Sandbox box;
+    REQUIRE(box.run({"init", "--tz", zone}).exit_code == 0);
+    const RunResult added = box.run({"lot", "add", "CRM-NX", "--material", "m", "--expires",
+                                     "9999-12-31", "--value", "nitrate=1000"});
+    INFO(added.describe());
+    REQUIRE(added.exit_code == 0);
+    CHECK_THAT(added.out, Catch::Contains("(until the end of 9999-12-31)"));
+    CHECK_THAT(added.out, !Catch::Contains("10000"));
+    const RunResult shown = box.run({"lot", "show", "CRM-NX"});
+    CHECK_THAT(shown.out, Catch::Contains("usable until the end of 9999-12-31\n"));
+    CHECK(box.run({"lot", "show", "CRM-NX", "--json"}).json()["usable_until"] == until);
+    const RunResult listed = box.run({"lot", "list", "--csv"});
+    INFO(listed.describe());
+    CHECK_THAT(listed.out, !Catch::Contains("10000"));
+  }
 }

@@ -61,10 +61,10 @@ cw::ValidationError validation_error(Fn&& fn) {
 }  // namespace
 
 TEST_CASE("check judgement: recovery against the nominal and the method's tolerance", "[domain]") {
-  const auto fit = m1_fit();
+  const cw::Curve curve = m1_curve();
   // y0 = 13.5 reads back as x0 = 6.207215541 pg/mL (§9 M1 [C]): 103.45 % of a nominal of 6.
   const cw::Check pass =
-      cw::judge_check({cw::CheckKind::Check, 6.0, 13.5, std::nullopt}, fit, method());
+      cw::judge_check({cw::CheckKind::Check, 6.0, 13.5, std::nullopt}, curve, method());
   REQUIRE(pass.measured.has_value());
   CHECK_THAT(*pass.measured, WithinRel(6.207215541, 1e-9));
   CHECK_THAT(*pass.recovery_pct, WithinRel(100 * 6.207215541 / 6, 1e-9));
@@ -73,54 +73,75 @@ TEST_CASE("check judgement: recovery against the nominal and the method's tolera
   CHECK(pass.passed);
   // y0 = 23.0 reads back as 11.12858464 (§9 M1 [C]): 139 % of 8 fails.
   const cw::Check fail =
-      cw::judge_check({cw::CheckKind::Check, 8.0, 23.0, std::nullopt}, fit, method());
+      cw::judge_check({cw::CheckKind::Check, 8.0, 23.0, std::nullopt}, curve, method());
   CHECK_THAT(*fail.measured, WithinRel(11.12858464, 1e-9));
   CHECK_FALSE(fail.passed);
 }
 
 TEST_CASE("check judgement: a blank passes below the method's limit, else below the LOD",
           "[domain]") {
-  const auto fit = m1_fit();
+  const cw::Curve curve = m1_curve();
   // y0 = 2.9 reads back as 0.7160037003 (§9 M1 [C]); the ICH LOD is 3.3·s/b = 0.7399653784.
   cw::MethodDefinition d = method();
   const cw::Check under_lod =
-      cw::judge_check({cw::CheckKind::Blank, std::nullopt, 2.9, std::nullopt}, fit, d);
+      cw::judge_check({cw::CheckKind::Blank, std::nullopt, 2.9, std::nullopt}, curve, d);
   CHECK_THAT(*under_lod.limit_high, WithinRel(0.7399653784, 1e-9));
   CHECK(under_lod.passed);
   d.check.blank_limit = 0.5;
   const cw::Check over_limit =
-      cw::judge_check({cw::CheckKind::Blank, 0.0, 2.9, std::nullopt}, fit, d);
+      cw::judge_check({cw::CheckKind::Blank, 0.0, 2.9, std::nullopt}, curve, d);
   CHECK(*over_limit.limit_high == 0.5);
   CHECK_FALSE(over_limit.passed);
 }
 
 TEST_CASE("check judgement: bad readings are bad input naming the option", "[domain]") {
-  const auto fit = m1_fit();
+  const cw::Curve curve = m1_curve();
+  CHECK(
+      validation_error([&] {
+        cw::judge_check({cw::CheckKind::Check, std::nullopt, 13.5, std::nullopt}, curve, method());
+      }).option() == "--nominal");
   CHECK(validation_error([&] {
-          cw::judge_check({cw::CheckKind::Check, std::nullopt, 13.5, std::nullopt}, fit, method());
+          cw::judge_check({cw::CheckKind::Check, -1.0, 13.5, std::nullopt}, curve, method());
         }).option() == "--nominal");
   CHECK(validation_error([&] {
-          cw::judge_check({cw::CheckKind::Check, -1.0, 13.5, std::nullopt}, fit, method());
+          cw::judge_check({cw::CheckKind::Blank, 2.0, 2.9, std::nullopt}, curve, method());
         }).option() == "--nominal");
-  CHECK(validation_error([&] {
-          cw::judge_check({cw::CheckKind::Blank, 2.0, 2.9, std::nullopt}, fit, method());
-        }).option() == "--nominal");
-  // A check outside the working range (0 to 12 pg/mL, §9 M1) would be read by extrapolation
-  // (calibration-practice.md §4.4); its ends are inside.
+  // A check outside the working range would be read by extrapolation (calibration-practice.md
+  // §4.4); its ends are inside. With the points loaded the range starts at the lowest calibrator
+  // that is not a blank (2 pg/mL, §9 M1), without them at the fit's lowest level (0).
   const auto above = validation_error([&] {
-    cw::judge_check({cw::CheckKind::Check, 12.5, 13.5, std::nullopt}, fit, method());
+    cw::judge_check({cw::CheckKind::Check, 12.5, 13.5, std::nullopt}, curve, method());
   });
   CHECK(above.option() == "--nominal");
   CHECK_THAT(above.what(), Catch::Contains("outside the curve's working range, 0 to 12"));
-  CHECK_NOTHROW(cw::judge_check({cw::CheckKind::Check, 12.0, 13.5, std::nullopt}, fit, method()));
-  // A nominal so small that 100·measured/nominal overflows to infinity (within a range that
-  // starts at a zero calibrator).
+  CHECK_NOTHROW(cw::judge_check({cw::CheckKind::Check, 12.0, 13.5, std::nullopt}, curve, method()));
+  cw::Curve with_points = m1_curve();
+  const double x[] = {0, 2, 4, 6, 8, 10, 12};
+  for (double level : x) {
+    cw::CalibrationPoint p;
+    p.nominal = level;
+    with_points.points.push_back(p);
+  }
+  const auto below = validation_error([&] {
+    cw::judge_check({cw::CheckKind::Check, 1.0, 2.9, std::nullopt}, with_points, method());
+  });
+  CHECK_THAT(below.what(), Catch::Contains("outside the curve's working range, 2 to 12"));
+  CHECK_NOTHROW(
+      cw::judge_check({cw::CheckKind::Check, 2.0, 5.0, std::nullopt}, with_points, method()));
+  with_points.points[1].excluded = true;  // an excluded level bounds nothing
+  CHECK_THAT(
+      validation_error([&] {
+        cw::judge_check({cw::CheckKind::Check, 2.0, 5.0, std::nullopt}, with_points, method());
+      }).what(),
+      Catch::Contains("range, 4 to 12"));
+  // A nominal so small that 100·measured/nominal overflows to infinity (the fit alone: a range
+  // that starts at its zero level).
   const auto overflow = validation_error([&] {
-    cw::judge_check({cw::CheckKind::Check, 1e-307, 13.5, std::nullopt}, fit, method());
+    cw::judge_check({cw::CheckKind::Check, 1e-307, 13.5, std::nullopt}, curve, method());
   });
   CHECK_THAT(overflow.what(), Catch::Contains("is not a finite number"));
   CHECK(validation_error([&] {
-          cw::judge_check({cw::CheckKind::Check, 6.0, 13.5, 2.0}, fit, method());
+          cw::judge_check({cw::CheckKind::Check, 6.0, 13.5, 2.0}, curve, method());
         }).option() == "--is-response");
 }
 
