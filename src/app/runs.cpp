@@ -127,18 +127,24 @@ std::optional<CurveId> choose_run_curve(const std::vector<CurveId>& live_newest_
   return std::nullopt;
 }
 
-/// Reading labels of a run file's columns (for messages of the decisions).
-ReadingLabels run_labels() {
-  return ReadingLabels{"'nominal'", "'response'", "'is_response'", "'dilution'"};
+/// Reading labels of a run file's columns (for messages of the decisions): the file's own
+/// headers where a mapping renames them.
+ReadingLabels run_labels(const import::CsvHeader& header) {
+  return ReadingLabels{header.label("nominal"), header.label("response"),
+                       header.label("is_response"), header.label("dilution")};
 }
 
 /// The column a decision's error is about: the last label its message names (the decisions
 /// name the value to change last, e.g. "the recovery from 'response' and 'nominal'").
-std::string blamed_column(const std::string& message) {
+std::string blamed_column(const std::string& message, const ReadingLabels& labels) {
   std::string best = "response";
   std::size_t at = 0;
-  for (const char* name : {"nominal", "response", "is_response", "dilution"}) {
-    const auto pos = message.rfind("'" + std::string(name) + "'");
+  for (const auto& [name, label] :
+       {std::pair<const char*, const std::string&>{"nominal", labels.nominal},
+        {"response", labels.response},
+        {"is_response", labels.is_response},
+        {"dilution", labels.dilution}}) {
+    const auto pos = message.rfind(label);
     if (pos != std::string::npos && pos >= at) {
       at = pos;
       best = name;
@@ -291,8 +297,8 @@ RunImportOutcome import_run(Session& s, const RunImportRequest& r) {
     record_rerun(*unit, d, run.id, at);
     ++out.status_events;
   };
-  const ReadingLabels labels = run_labels();
   import::RunFileReader reader(r.file, definition, now.mapping ? &*now.mapping : nullptr);
+  const ReadingLabels labels = run_labels(reader.header());
   while (auto row = reader.next()) {
     AnalyteRun& a = analytes.at(row->analyte);
     const MethodDefinition& curve_definition = a.facts.version().definition;
@@ -362,7 +368,7 @@ RunImportOutcome import_run(Session& s, const RunImportRequest& r) {
       }
     } catch (ValidationError& e) {
       if (!e.location()) {
-        const std::string column = blamed_column(e.what());
+        const std::string column = blamed_column(e.what(), labels);
         e.set_location(reader.error_at(row->line, column, "").location().value());
       }
       throw;

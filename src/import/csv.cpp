@@ -187,6 +187,17 @@ CsvHeader CsvHeader::read(const std::string& file, const CsvRecord& header,
   return h;
 }
 
+std::string CsvHeader::label(const std::string& name) const {
+  const auto found = headers_.find(name);
+  if (found == headers_.end() || to_lower(found->second) == name) return "'" + name + "'";
+  return quote(found->second) + " (" + name + ")";
+}
+
+const std::string& CsvHeader::field_name(const std::string& name) const {
+  const auto found = headers_.find(name);
+  return found != headers_.end() ? found->second : name;
+}
+
 const std::string& CsvHeader::field(const CsvRecord& record, const std::string& name) const {
   auto it = columns_.find(name);
   if (it == columns_.end()) return empty_;

@@ -80,6 +80,11 @@ class CsvHeader {
   const std::string& header_of(const std::string& name) const { return headers_.at(name); }
   /// The field of `record` under logical column `name` ("" when the column is absent).
   const std::string& field(const CsvRecord& record, const std::string& name) const;
+  /// How messages name logical column `name`: 'response', or 'Area' (response) when a mapping
+  /// reads it from a header of another name, so the user finds the column in the file.
+  std::string label(const std::string& name) const;
+  /// The name errors give as their field: the file's header of the column, else `name`.
+  const std::string& field_name(const std::string& name) const;
   std::size_t width() const { return width_; }
   /// Header fields that were ignored (only with a mapping), in file order.
   const std::vector<std::string>& ignored() const { return ignored_; }
@@ -113,6 +118,8 @@ class CsvTable {
   const std::string& field(const CsvRecord& record, const std::string& name) const {
     return header_.field(record, name);
   }
+  std::string label(const std::string& name) const { return header_.label(name); }
+  const std::string& field_name(const std::string& name) const { return header_.field_name(name); }
 
  private:
   std::string file_;

@@ -26,7 +26,7 @@ class RowReader {
     SourceLocation where{
         t_.file(), r_.line,
         t_.has_column(column) ? std::optional<long>(t_.column_number(column)) : std::nullopt,
-        column};
+        t_.field_name(column)};
     throw ValidationError(where, message, std::move(hint));
   }
 
@@ -35,7 +35,7 @@ class RowReader {
   /// The field as free text (clean_text), the error naming the line and column.
   std::string clean(const std::string& column, std::size_t max_chars) const {
     try {
-      return clean_text(text(column), "'" + column + "'", max_chars);
+      return clean_text(text(column), t_.label(column), max_chars);
     } catch (const ValidationError& e) {
       fail(column, e.what(), e.hint());
     }
@@ -43,9 +43,9 @@ class RowReader {
 
   double number(const std::string& column) const {
     const std::string& s = text(column);
-    if (s.empty()) fail(column, "'" + column + "' is empty", "give a number");
+    if (s.empty()) fail(column, t_.label(column) + " is empty", "give a number");
     try {
-      return decimal_or_throw(s, "'" + column + "'");
+      return decimal_or_throw(s, t_.label(column));
     } catch (const ValidationError& e) {
       fail(column, e.what(), e.hint());
     }
@@ -101,7 +101,7 @@ PointsFile parse_points_text(const std::string& file_name, const std::string& te
     PointRow row;
     row.line = record.line;
     row.analyte = r.text("analyte");
-    if (row.analyte.empty()) r.fail("analyte", "'analyte' is empty");
+    if (row.analyte.empty()) r.fail("analyte", table.label("analyte") + " is empty");
     if (!method.has_analyte(row.analyte)) {
       std::string list;
       for (const auto& a : method.analytes) list += (list.empty() ? "" : ", ") + a;
@@ -110,36 +110,39 @@ PointsFile parse_points_text(const std::string& file_name, const std::string& te
              "the method's analytes are: " + list);
     }
     if (r.text("level").empty())
-      r.fail("level", "'level' is empty", "name the calibration level, e.g. 1, 2, 3 or L1");
+      r.fail("level", table.label("level") + " is empty",
+             "name the calibration level, e.g. 1, 2, 3 or L1");
     row.level = r.clean("level", kMaxLabelChars);
     if (table.has_column("replicate") && !r.text("replicate").empty()) {
       auto rep = parse_integer(r.text("replicate"));
       if (!rep || *rep < 1 || *rep > 1000) {
-        r.fail("replicate",
-               "'replicate' must be a whole number from 1, got " + quote(r.text("replicate")));
+        r.fail("replicate", table.label("replicate") + " must be a whole number from 1, got " +
+                                quote(r.text("replicate")));
       }
       row.replicate = static_cast<int>(*rep);
     }
     row.nominal = r.number("nominal");
     if (row.nominal < 0) {
-      r.fail("nominal", "'nominal' is negative (" + r.text("nominal") + ")",
+      r.fail("nominal", table.label("nominal") + " is negative (" + r.text("nominal") + ")",
              "concentrations cannot be below zero");
     }
     row.response = r.number("response");
     row.is_response = r.optional_number("is_response");
     if (uses_is) {
       if (!row.is_response)
-        r.fail("is_response", "'is_response' is empty; the method uses an internal standard");
+        r.fail("is_response",
+               table.label("is_response") + " is empty; the method uses an internal standard");
       if (*row.is_response <= 0) {
-        r.fail("is_response", "'is_response' must be above 0, got " + r.text("is_response"),
+        r.fail("is_response",
+               table.label("is_response") + " must be above 0, got " + r.text("is_response"),
                "the internal-standard response divides the analyte response");
       }
       row.y = row.response / *row.is_response;
     } else {
       if (row.is_response) {
         r.fail("is_response",
-               "method " + quote(method.code) +
-                   " has no internal standard, but 'is_response' is given",
+               "method " + quote(method.code) + " has no internal standard, but " +
+                   table.label("is_response") + " is given",
                "leave the column empty or remove it");
       }
       row.y = row.response;
@@ -159,8 +162,9 @@ PointsFile parse_points_text(const std::string& file_name, const std::string& te
         r.fail("nominal",
                "nominal 0 cannot be weighted by " + std::string(fitting::to_string(weighting)) +
                    " (method " + quote(method.code) + ")",
-               "give the blank or zero level a reason in the 'exclude' column: it is kept, not "
-               "fitted");
+               "give the blank or zero level a reason in the " + table.label("exclude") +
+                   " column: it is kept, not "
+                   "fitted");
       }
       if ((weighting == fitting::Weighting::InvY || weighting == fitting::Weighting::InvY2) &&
           row.y <= 0) {
@@ -168,7 +172,7 @@ PointsFile parse_points_text(const std::string& file_name, const std::string& te
                "a response of 0 or less cannot be weighted by " +
                    std::string(fitting::to_string(weighting)) + " (method " + quote(method.code) +
                    ")",
-               "exclude the point with a reason in the 'exclude' column");
+               "exclude the point with a reason in the " + table.label("exclude") + " column");
       }
     }
 
@@ -178,7 +182,7 @@ PointsFile parse_points_text(const std::string& file_name, const std::string& te
              "analyte " + quote(row.analyte) + " level " + quote(row.level) + " replicate " +
                  std::to_string(row.replicate) + " already appears on line " +
                  std::to_string(it->second),
-             "number replicates with a 'replicate' column (1, 2, 3, ...)");
+             "number replicates with a " + table.label("replicate") + " column (1, 2, 3, ...)");
     }
     seen.emplace(key, row.line);
     const auto level_key = std::make_pair(row.analyte, row.level);
@@ -198,7 +202,8 @@ PointsFile parse_points_text(const std::string& file_name, const std::string& te
         r.fail("level",
                "levels " + quote(other->second) + " and " + quote(row.level) + " of " +
                    quote(row.analyte) + " have the same nominal " + format_plain(row.nominal),
-               "give each level its own label only once; use 'replicate' for repeats");
+               "give each level its own label only once; use " + table.label("replicate") +
+                   " for repeats");
       }
       nominal_level.emplace(nominal_key, row.level);
     }

@@ -42,8 +42,8 @@ RunFileReader::RunFileReader(const std::string& path, const MethodDefinition& me
   if (method_.internal_standard && !header_.has_column("is_response")) {
     throw ValidationError(SourceLocation{path, header_.line(), std::nullopt, "is_response"},
                           "method " + quote(method_.code) + " uses the internal standard " +
-                              quote(*method_.internal_standard) +
-                              ", but the file has no 'is_response' column",
+                              quote(*method_.internal_standard) + ", but the file has no " +
+                              header_.label("is_response") + " column",
                           "add the internal-standard response of every row");
   }
 }
@@ -85,7 +85,8 @@ ValidationError RunFileReader::error_at(long line, const std::string& name,
                                         const std::string& message, std::string hint) const {
   const std::optional<long> column =
       header_.has_column(name) ? std::optional<long>(header_.column_number(name)) : std::nullopt;
-  return ValidationError(SourceLocation{file(), line, column, name}, message, std::move(hint));
+  return ValidationError(SourceLocation{file(), line, column, header_.field_name(name)}, message,
+                         std::move(hint));
 }
 
 RunRow RunFileReader::parse(const CsvRecord& record) {
@@ -100,7 +101,7 @@ RunRow RunFileReader::parse(const CsvRecord& record) {
   const auto number = [&](const std::string& name) -> std::optional<double> {
     if (!header_.has_column(name) || text(name).empty()) return std::nullopt;
     try {
-      return decimal_or_throw(text(name), "'" + name + "'");
+      return decimal_or_throw(text(name), header_.label(name));
     } catch (const ValidationError& e) {
       throw fail(name, e.what(), e.hint());
     }
@@ -109,14 +110,14 @@ RunRow RunFileReader::parse(const CsvRecord& record) {
   RunRow row;
   row.line = record.line;
   try {
-    row.position = whole_or_throw(text("position"), "'position'", 1, 1000000000);
+    row.position = whole_or_throw(text("position"), header_.label("position"), 1, 1000000000);
   } catch (const ValidationError& e) {
     throw fail("position", e.what(), "number the injections 1, 2, 3, ... in sequence order");
   }
   if (last_position_ && row.position <= *last_position_) {
     throw fail("position",
-               "'position' " + std::to_string(row.position) + " does not come after position " +
-                   std::to_string(*last_position_) + " (line " +
+               header_.label("position") + " " + std::to_string(row.position) +
+                   " does not come after position " + std::to_string(*last_position_) + " (line " +
                    std::to_string(last_position_line_) + ")",
                "rows must be in injection order, each position once");
   }
@@ -126,17 +127,18 @@ RunRow RunFileReader::parse(const CsvRecord& record) {
   const auto kind = parse_run_row_kind(to_lower(text("kind")));
   if (!kind) {
     throw fail("kind",
-               text("kind").empty() ? "'kind' is empty"
-                                    : "'kind' " + quote(text("kind")) + " is not a kind of row",
+               text("kind").empty()
+                   ? header_.label("kind") + " is empty"
+                   : header_.label("kind") + " " + quote(text("kind")) + " is not a kind of row",
                "use sample, check or blank");
   }
   row.kind = *kind;
 
   row.analyte = text("analyte");
-  if (row.analyte.empty()) throw fail("analyte", "'analyte' is empty");
+  if (row.analyte.empty()) throw fail("analyte", header_.label("analyte") + " is empty");
   if (!method_.has_analyte(row.analyte)) {
     try {
-      check_analyte_name(row.analyte, "'analyte'");
+      check_analyte_name(row.analyte, header_.label("analyte"));
     } catch (const ValidationError& e) {
       throw fail("analyte", e.what(), e.hint());
     }
@@ -147,23 +149,27 @@ RunRow RunFileReader::parse(const CsvRecord& record) {
 
   if (!text("sample").empty()) {
     try {
-      row.sample = clean_text(text("sample"), "'sample'", kMaxNameChars);
+      row.sample = clean_text(text("sample"), header_.label("sample"), kMaxNameChars);
     } catch (const ValidationError& e) {
       throw fail("sample", e.what(), e.hint());
     }
   } else if (row.kind == RunRowKind::Sample) {
-    throw fail("sample", "'sample' is empty", "every sample row needs its sample id");
+    throw fail("sample", header_.label("sample") + " is empty",
+               "every sample row needs its sample id");
   }
 
   const auto response = number("response");
-  if (!response) throw fail("response", "'response' is empty", "give the measured response");
+  if (!response)
+    throw fail("response", header_.label("response") + " is empty", "give the measured response");
   row.response = *response;
   row.is_response = number("is_response");
   try {
-    method_.fitted_response(row.response, row.is_response, "'response'", "'is_response'");
+    method_.fitted_response(row.response, row.is_response, header_.label("response"),
+                            header_.label("is_response"));
   } catch (const ValidationError& e) {
-    throw fail(std::string(e.what()).find("'is_response'") != std::string::npos ? "is_response"
-                                                                                : "response",
+    throw fail(std::string(e.what()).find(header_.label("is_response")) != std::string::npos
+                   ? "is_response"
+                   : "response",
                e.what(), e.hint());
   }
 
@@ -173,25 +179,27 @@ RunRow RunFileReader::parse(const CsvRecord& record) {
     case RunRowKind::Sample:
       if (dilution) {
         if (!(*dilution > 0)) {
-          throw fail("dilution", "'dilution' must be above 0, got " + text("dilution"),
+          throw fail("dilution",
+                     header_.label("dilution") + " must be above 0, got " + text("dilution"),
                      "the dilution factor multiplies the concentration: 1 for an undiluted "
                      "sample");
         }
         row.dilution = *dilution;
       }
       if (nominal) {
-        throw fail("nominal", "'nominal' is given on a sample row",
+        throw fail("nominal", header_.label("nominal") + " is given on a sample row",
                    "a nominal concentration belongs to check standards; leave it empty here");
       }
       break;
     case RunRowKind::Check:
       if (!nominal) {
         throw fail("nominal",
-                   "'nominal' is empty: a check standard needs its nominal concentration",
+                   header_.label("nominal") +
+                       " is empty: a check standard needs its nominal concentration",
                    "give the check standard's nominal concentration in " + method_.unit);
       }
       if (!(*nominal > 0)) {
-        throw fail("nominal", "'nominal' must be above 0, got " + text("nominal"),
+        throw fail("nominal", header_.label("nominal") + " must be above 0, got " + text("nominal"),
                    "give the check standard's nominal concentration in " + method_.unit);
       }
       row.nominal = nominal;
@@ -199,13 +207,15 @@ RunRow RunFileReader::parse(const CsvRecord& record) {
     case RunRowKind::Blank:
       if (nominal && *nominal != 0) {
         throw fail("nominal", "a blank has nominal 0, got " + text("nominal"),
-                   "leave 'nominal' empty or give 0");
+                   "leave " + header_.label("nominal") + " empty or give 0");
       }
       break;
   }
   if (row.kind != RunRowKind::Sample && dilution) {
-    throw fail("dilution", "'dilution' is given on a " + std::string(to_string(row.kind)) + " row",
-               "a dilution factor applies to samples only; leave it empty here");
+    throw fail(
+        "dilution",
+        header_.label("dilution") + " is given on a " + std::string(to_string(row.kind)) + " row",
+        "a dilution factor applies to samples only; leave it empty here");
   }
   return row;
 }

@@ -66,6 +66,27 @@ TEST_CASE(
                Catch::Contains("no column 'Dil. Factor' (--columns maps it to 'dilution')"));
     CHECK(missing.json().at("error").at("line") == 1);
     CHECK(rl.lab.counts() == counts);
+    // A bad value is named by the file's own header, the logical column beside it.
+    std::string bad = export_csv(30);
+    bad.replace(bad.find("W-77,nitrate,") + 13, std::string(kNitrateLow).size(), "n/a");
+    const RunResult named = rl.import("export4.csv", bad);
+    INFO(named.describe());
+    CHECK(named.exit_code == 2);
+    CHECK_THAT(named.err, Catch::Contains("'Area' (response)"));
+    CHECK(named.json().at("error").at("field") == "Area");
+    CHECK(named.json().at("error").at("line") == 3);
+    CHECK(named.json().at("error").at("column") == 5);
+    CHECK(rl.lab.counts() == counts);
+    // A check standard's nominal outside the curve's range names the mapped header too.
+    std::string far = export_csv(40);
+    far.replace(far.find(",4.21,6\n") + 6, 1, "6000");
+    const RunResult range = rl.import("export5.csv", far);
+    INFO(range.describe());
+    CHECK(range.exit_code == 2);
+    CHECK_THAT(range.err, Catch::Contains("'Amount' (nominal)"));
+    CHECK(range.json().at("error").at("field") == "Amount");
+    CHECK(range.json().at("error").at("column") == 7);
+    CHECK(rl.lab.counts() == counts);
     // Cleared, the export is refused again.
     rl.lab.json_at(Lab::kSetupAt, {"instrument", "columns", "IC-01", "--clear"});
     CHECK(rl.import("export3.csv", export_csv(20)).exit_code == 2);
@@ -114,4 +135,13 @@ TEST_CASE("columns: a points file with foreign headers logs a calibration with -
   const RunResult r = lab.run_at("2026-03-02T08:30:00Z", wrong);
   CHECK(r.exit_code == 2);
   CHECK_THAT(r.err, Catch::Contains("--columns names the unknown column 'position'"));
+  // A bad value names the file's header of its column.
+  std::vector<std::string> negative = args;
+  negative[negative.size() - 3] =
+      lab.box.write_file("cal-bad.csv", csv + "nitrate,L7,-3,30.1,1,,ok\n").string();
+  const RunResult bad = lab.run_at("2026-03-02T08:40:00Z", negative);
+  INFO(bad.describe());
+  CHECK(bad.exit_code == 2);
+  CHECK_THAT(bad.err, Catch::Contains("'Conc' (nominal) is negative"));
+  CHECK(bad.json().at("error").at("field") == "Conc");
 }
