@@ -49,6 +49,9 @@ StoreCopyOutcome copy_store(const StoreCopyRequest& request) {
   const std::string to = store::shown_location(request.to);
   out.from = from;
   out.to = to;
+  // A backend module that is missing shows before the source is verified, not after.
+  store::require_backend(request.from);
+  store::require_backend(request.to);
   auto source = open_store(request.from, false, request.os_login);
   if (const auto missing = source->missing_guards(); !missing.empty()) {
     throw StoreError("store '" + from + "' has lost its append-only guards (" + joined(missing) +

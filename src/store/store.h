@@ -32,6 +32,11 @@ bool is_server_location(const std::string& location);
 /// `location` as messages show it: a URI's password replaced by "***".
 std::string shown_location(const std::string& location);
 
+/// Loads the backend `location` needs, when it is one the binary loads as a module (PostgreSQL),
+/// without connecting: an InstallationError (exit 4) before any long work for a missing or
+/// mismatched module.
+void require_backend(const std::string& location);
+
 struct OpenOptions {
   std::string location;        ///< a file path (SQLite) or a libpq URI (PostgreSQL)
   bool create = false;         ///< create the store when missing (init only)

@@ -87,6 +87,18 @@ TEST_CASE("e2e modules: without its modules the binary keeps file stores and ref
           std::string::npos);
   }
 
+  SECTION("a copy to a PostgreSQL store is refused, naming the module, before the source is read") {
+    const auto before = cw::test::table_row_counts(box);
+    const RunResult r = run_lone(box, binary,
+                                 {"--json", "store", "copy", "--from", box.db().string(), "--to",
+                                  "postgresql://cw@127.0.0.1:9/none"});
+    INFO(r.describe());
+    CHECK(r.exit_code == 4);
+    CHECK(r.json().at("error").at("code") == "installation");
+    CHECK(r.err.find("curvewarden-postgresql.so") != std::string::npos);
+    CHECK(cw::test::table_row_counts(box) == before);
+  }
+
   SECTION("drawing is refused before anything is read or written, naming the module") {
     const auto before = cw::test::table_row_counts(box);
     const RunResult r = run_lone(box, binary, {"report", "curve", "1", "--out", "c.pdf"});

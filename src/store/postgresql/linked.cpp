@@ -14,4 +14,6 @@ std::unique_ptr<Store> open_postgresql(const OpenOptions& options) {
                                                   options.migrate));
 }
 
+void require_postgresql() {}
+
 }  // namespace cw::store::postgresql

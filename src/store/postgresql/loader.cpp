@@ -7,10 +7,22 @@
 
 namespace cw::store::postgresql {
 
-std::unique_ptr<Store> open_postgresql(const OpenOptions& options) {
+namespace {
+
+OpenFunction module_open() {
   static const auto open = reinterpret_cast<OpenFunction>(
       Module::load(kModuleFile, "the PostgreSQL backend").symbol(kOpenSymbol));
-  return std::unique_ptr<Store>(open(options));
+  return open;
+}
+
+}  // namespace
+
+std::unique_ptr<Store> open_postgresql(const OpenOptions& options) {
+  return std::unique_ptr<Store>(module_open()(options));
+}
+
+void require_postgresql() {
+  module_open();
 }
 
 }  // namespace cw::store::postgresql

@@ -19,6 +19,10 @@ std::string masked(const std::string& location);
 /// Opens the PostgreSQL store at the URI `options.location`, applying pending migrations.
 std::unique_ptr<Store> open_postgresql(const OpenOptions& options);
 
+/// Makes sure open_postgresql can run: loads the backend's module in the binary (its errors as
+/// open_postgresql's); nothing to do where the backend is linked in.
+void require_postgresql();
+
 /// The role the printed grants name: the role the workstations connect as (README, "Choosing a
 /// backend"; the administrator renames it when the lab's role is called otherwise).
 inline constexpr const char* kWorkstationRole = "curvewarden_app";

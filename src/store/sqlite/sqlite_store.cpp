@@ -178,6 +178,10 @@ std::string shown_location(const std::string& location) {
   return is_server_location(location) ? postgresql::masked(location) : location;
 }
 
+void require_backend(const std::string& location) {
+  if (postgresql::is_uri(location)) postgresql::require_postgresql();
+}
+
 std::unique_ptr<Store> Store::open(const OpenOptions& options) {
   // A libpq connection URI selects the PostgreSQL backend; a path keeps the SQLite file.
   if (postgresql::is_uri(options.location)) return postgresql::open_postgresql(options);
