@@ -212,15 +212,17 @@ RunImportOutcome import_run(Session& s, const RunImportRequest& r) {
   if (!previous.empty() && !r.again) {
     const Run& p = previous.back();
     refuse(*unit, "run.import", "run", std::to_string(p.id.value), {Reason::AlreadyImported},
-           "'" + r.file + "' (sha256 " + scan.sha256 + ") was imported before as run " +
-               std::to_string(p.id.value) + " at " + s.zone().format_local(p.acquired_at) + " by " +
-               p.analyst + "; nothing of it was imported again",
+           "'" + import::recorded_name(r.file) + "' (sha256 " + scan.sha256 +
+               ") was imported before as run " + std::to_string(p.id.value) + " at " +
+               s.zone().format_local(p.acquired_at) + " by " + p.analyst +
+               "; nothing of it was imported again",
            at,
            "a sequence is imported once; to import the same file again on purpose, give "
            "--again --reason TEXT");
   }
   if (previous.empty() && r.again) {
-    throw UsageError("--again: '" + r.file + "' was never imported (sha256 " + scan.sha256 + ")",
+    throw UsageError("--again: '" + import::recorded_name(r.file) +
+                         "' was never imported (sha256 " + scan.sha256 + ")",
                      "leave out --again and --reason");
   }
 
@@ -256,7 +258,7 @@ RunImportOutcome import_run(Session& s, const RunImportRequest& r) {
   if (!without_curve.empty()) {
     std::string list;
     for (const auto& a : without_curve) list += (list.empty() ? "" : ", ") + a;
-    refuse(*unit, "run.import", "run", r.file, {Reason::NoActiveCurve},
+    refuse(*unit, "run.import", "run", import::recorded_name(r.file), {Reason::NoActiveCurve},
            "no curve of method " + now.method.code + " on instrument " + now.instrument.code +
                " can take the run's rows for " + list + " at " + s.zone().format_local(at) +
                " (none active, stale or awaiting review); nothing of the run was imported",
@@ -271,7 +273,7 @@ RunImportOutcome import_run(Session& s, const RunImportRequest& r) {
   run.instrument_id = now.instrument.id;
   run.acquired_at = at;
   run.analyst = s.actor().name;
-  run.file_name = r.file;
+  run.file_name = import::recorded_name(r.file);
   run.file_sha256 = scan.sha256;
   run.rows = scan.rows;
   if (now.mapping) run.columns = now.mapping->entries;
@@ -378,9 +380,10 @@ RunImportOutcome import_run(Session& s, const RunImportRequest& r) {
     }
   }
   if (reader.sha256() != scan.sha256 || reader.rows() != scan.rows) {
-    throw ValidationError(SourceLocation{r.file, std::nullopt, std::nullopt, {}},
-                          "'" + r.file + "' changed while it was being imported",
-                          "import it again once nothing is writing to it; nothing was written");
+    throw ValidationError(
+        SourceLocation{import::recorded_name(r.file), std::nullopt, std::nullopt, {}},
+        "'" + import::recorded_name(r.file) + "' changed while it was being imported",
+        "import it again once nothing is writing to it; nothing was written");
   }
   for (auto& [analyte, a] : analytes) {
     for (const auto& decision : a.bracket->on_end()) rerun(decision);

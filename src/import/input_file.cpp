@@ -7,6 +7,7 @@
 #include <unistd.h>
 
 #include <cerrno>
+#include <cstdlib>
 #include <cstring>
 
 #include "core/error.h"
@@ -29,6 +30,84 @@ std::string size_text(std::size_t bytes) {
   return std::to_string(bytes) + " bytes";
 }
 
+/// Standard input as it can be read again from its start: a descriptor of its own (closed at
+/// exit by the system) and the offset its content starts at.
+struct RereadableInput {
+  int fd = -1;
+  off_t start = 0;
+};
+
+/// An unnamed temporary file in $TMPDIR (else /tmp), gone when its descriptor closes.
+int unnamed_temporary_file() {
+  const char* dir = std::getenv("TMPDIR");
+  const std::string folder = dir != nullptr && *dir != '\0' ? dir : "/tmp";
+  int fd = ::open(folder.c_str(), O_TMPFILE | O_RDWR | O_CLOEXEC, 0600);
+  if (fd >= 0) return fd;
+  std::string name = folder + "/curvewarden-stdin-XXXXXX";
+  fd = ::mkostemp(name.data(), O_CLOEXEC);
+  if (fd >= 0) ::unlink(name.c_str());
+  return fd;
+}
+
+/// Standard input, made readable again from its start the first time it is asked for: a
+/// redirected regular file is used where it stands; a pipe is copied into an unnamed temporary
+/// file, at most `max_bytes` (more is refused as the reading itself would refuse it).
+const RereadableInput& rereadable_stdin(std::size_t max_bytes, const SourceLocation& where,
+                                        const std::string& prefix) {
+  static RereadableInput input;
+  if (input.fd >= 0) return input;
+  struct stat st {};
+  if (::fstat(STDIN_FILENO, &st) == 0 && S_ISREG(st.st_mode)) {
+    const off_t at = ::lseek(STDIN_FILENO, 0, SEEK_CUR);
+    if (at >= 0) {
+      input = {STDIN_FILENO, at};
+      return input;
+    }
+  }
+  const int copy = unnamed_temporary_file();
+  if (copy < 0) {
+    throw ValidationError(where,
+                          prefix +
+                              "standard input cannot be kept for reading: no temporary "
+                              "file could be made (" +
+                              std::strerror(errno) + ")",
+                          "set TMPDIR to a writable folder, or give the path of the file");
+  }
+  std::string buffer(1u << 16, '\0');
+  std::size_t total = 0;
+  for (;;) {
+    const ssize_t n = ::read(STDIN_FILENO, buffer.data(), buffer.size());
+    if (n < 0 && errno == EINTR) continue;
+    if (n < 0) {
+      const int err = errno;
+      ::close(copy);
+      throw ValidationError(where, prefix + "read error: " + std::strerror(err));
+    }
+    if (n == 0) break;
+    total += static_cast<std::size_t>(n);
+    if (total > max_bytes) {
+      ::close(copy);
+      throw ValidationError(where, prefix + "is larger than the limit of " + size_text(max_bytes),
+                            "split the file, or check that it is the file you meant");
+    }
+    for (ssize_t written = 0; written < n;) {
+      const ssize_t w =
+          ::write(copy, buffer.data() + written, static_cast<std::size_t>(n - written));
+      if (w < 0 && errno == EINTR) continue;
+      if (w <= 0) {
+        const int err = errno;
+        ::close(copy);
+        throw ValidationError(
+            where, prefix + "standard input cannot be kept for reading: " + std::strerror(err),
+            "set TMPDIR to a folder with room, or give the path of the file");
+      }
+      written += w;
+    }
+  }
+  input = {copy, 0};
+  return input;
+}
+
 }  // namespace
 
 std::string recorded_name(const std::string& path) {
@@ -44,8 +123,12 @@ InputFile::InputFile(const std::string& path, std::size_t max_bytes, std::string
       throw ValidationError(where, prefix + "standard input is a terminal",
                             "pipe the file in, e.g. curvewarden ... " + option_ + " - < FILE");
     }
-    fd_ = STDIN_FILENO;
-    owned_ = false;
+    const RereadableInput& input = rereadable_stdin(max_bytes_, where, prefix);
+    fd_ = ::dup(input.fd);
+    if (fd_ < 0 || ::lseek(fd_, input.start, SEEK_SET) < 0) {
+      throw ValidationError(
+          where, prefix + "standard input cannot be read again: " + std::strerror(errno));
+    }
     return;
   }
   struct stat before {};
@@ -82,7 +165,7 @@ InputFile::InputFile(const std::string& path, std::size_t max_bytes, std::string
 }
 
 InputFile::~InputFile() {
-  if (fd_ >= 0 && owned_) ::close(fd_);
+  if (fd_ >= 0) ::close(fd_);
 }
 
 bool InputFile::read_some(std::string& out, std::size_t chunk) {

@@ -16,7 +16,9 @@ inline constexpr std::size_t kMaxPointsFileBytes = 16u << 20;  ///< 16 MiB
 /// An open regular file. The path is checked with stat() before it is opened (so a FIFO or a
 /// device is refused without blocking), opened non-blocking, and checked again with fstat() on
 /// the open descriptor (so a file swapped in between is refused too). The path "-" reads
-/// standard input (a pipe or a redirected file, not a terminal), with the same cap.
+/// standard input (a pipe or a redirected file, not a terminal), with the same cap; it may be
+/// opened again in the same process and read from its start (run import reads its file twice):
+/// a pipe is copied whole into an unnamed temporary file the first time.
 class InputFile {
  public:
   /// Opens `path` for reading at most `max_bytes`. `option` names where the path came from
@@ -41,7 +43,6 @@ class InputFile {
   std::size_t max_bytes_;
   std::size_t read_ = 0;
   int fd_ = -1;
-  bool owned_ = true;  ///< false for standard input, which is not closed
 };
 
 /// The name a file read from `path` is recorded under: the path, or "(standard input)" for "-".

@@ -30,17 +30,20 @@ const std::set<std::string>& run_file_optional_columns() {
 
 RunFileReader::RunFileReader(const std::string& path, const MethodDefinition& method,
                              const HeaderMapping* mapping, std::string_view option)
-    : file_(path, kMaxRunFileBytes, option), method_(method), splitter_(path) {
+    : file_(path, kMaxRunFileBytes, option),
+      name_(recorded_name(path)),
+      method_(method),
+      splitter_(name_) {
   while (next_ready_ >= ready_.size() && fill()) {
   }
   if (next_ready_ >= ready_.size()) {
-    throw ValidationError(SourceLocation{path, 1, std::nullopt, {}}, "'" + path + "' is empty",
+    throw ValidationError(SourceLocation{name_, 1, std::nullopt, {}}, "'" + name_ + "' is empty",
                           "the first line must be a header naming the columns");
   }
-  header_ = CsvHeader::read(path, ready_[next_ready_++], run_file_required_columns(),
+  header_ = CsvHeader::read(name_, ready_[next_ready_++], run_file_required_columns(),
                             run_file_optional_columns(), mapping);
   if (method_.internal_standard && !header_.has_column("is_response")) {
-    throw ValidationError(SourceLocation{path, header_.line(), std::nullopt, "is_response"},
+    throw ValidationError(SourceLocation{name_, header_.line(), std::nullopt, "is_response"},
                           "method " + quote(method_.code) + " uses the internal standard " +
                               quote(*method_.internal_standard) + ", but the file has no " +
                               header_.label("is_response") + " column",

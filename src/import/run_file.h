@@ -57,7 +57,8 @@ class RunFileReader {
   /// row). Throws ValidationError naming the file, line and column.
   std::optional<RunRow> next();
 
-  const std::string& file() const { return file_.path(); }
+  /// The file as messages and the run name it: its path, or "(standard input)" for "-".
+  const std::string& file() const { return name_; }
   /// SHA-256 of the file's bytes (after next() has returned nullopt).
   const std::string& sha256() const { return sha256_; }
   /// Rows read so far.
@@ -72,6 +73,7 @@ class RunFileReader {
   RunRow parse(const CsvRecord& record);
 
   InputFile file_;
+  std::string name_;
   MethodDefinition method_;  ///< a copy: the reader may outlive the caller's
   CsvSplitter splitter_;
   audit::Sha256 digest_;

@@ -220,6 +220,46 @@ TEST_CASE("run import: a blank above its limit fails its bracket like a check", 
   CHECK(run.at("summary").at("nitrate").at("blanks_failed") == 1);
 }
 
+TEST_CASE("run import: a run read from standard input, redirected from a file or piped",
+          "[scenario][run]") {
+  RunLab rl;
+  const std::string csv = std::string(kRunHeader) +
+                          row(1, "check", "CCV", "nitrate", kNitratePass, "6") +
+                          row(2, "sample", "S1", "nitrate", kNitrateLow) +
+                          row(3, "check", "CCV", "nitrate", kNitratePass, "6");
+  const std::vector<std::string> args{"--json", "--at",     kRunAt,     "run",          "import",
+                                      "-",      "--method", "ANION-IC", "--instrument", "IC-01"};
+  const cw::test::EnvOverrides now{{"CURVEWARDEN_NOW", kRunAt}};
+  // The file is read twice (its rows checked, then imported): a pipe cannot be read again.
+  const auto piped = [&] {
+    const auto file = rl.lab.box.write_file("piped.csv", csv);
+    std::vector<std::string> shell{"-c", "f=$1; shift; cat \"$f\" | \"$0\" \"$@\"",
+                                   cw::test::binary_path().string(), file.string()};
+    shell.insert(shell.end(), args.begin(), args.end());
+    return cw::test::run_process("/bin/sh", shell, rl.lab.box.environment(now), rl.lab.box.dir());
+  };
+  SECTION("redirected") {
+    const RunResult r = rl.lab.box.run_with_input(args, csv, now);
+    INFO(r.describe());
+    REQUIRE(r.exit_code == 0);
+    CHECK(r.json().at("file_name") == "(standard input)");
+    CHECK(status_by_sample(r.json()) == std::map<std::string, std::string>{{"S1", "reported"}});
+    // The same rows piped in are the same file: refused, naming standard input.
+    const RunResult again = piped();
+    INFO(again.describe());
+    CHECK(again.exit_code == 3);
+    CHECK_THAT(again.err, Catch::Contains("'(standard input)' (sha256 "));
+  }
+  SECTION("piped") {
+    const RunResult r = piped();
+    INFO(r.describe());
+    REQUIRE(r.exit_code == 0);
+    CHECK(r.json().at("file_name") == "(standard input)");
+    CHECK(r.json().at("results").size() == 1);
+    CHECK(rl.lab.counts().at("runs") == 1);
+  }
+}
+
 TEST_CASE("run import: the same file is refused, then imported again with --again",
           "[scenario][run]") {
   RunLab rl;
