@@ -148,7 +148,7 @@ int audit_verify(Invocation& in) {
 }
 
 int audit_anchor(Invocation& in) {
-  const auto out = in.optional_output_path("--out");
+  const auto out = in.optional_output_path("--out", Invocation::Replaces::Nothing);
   if (!out) throw UsageError("--out is required");
   const std::string key = in.key_path();
   auto s = in.open_session();

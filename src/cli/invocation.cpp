@@ -2,12 +2,15 @@
 // Strict reading of option values and resolution of the global options.
 #include "cli/invocation.h"
 
+#include <fcntl.h>
 #include <pwd.h>
 #include <sys/stat.h>
 #include <unistd.h>
 
 #include <algorithm>
 #include <cstdlib>
+#include <utility>
+#include <vector>
 
 #include "cli/passphrase_input.h"
 #include "core/clean_text.h"
@@ -248,14 +251,82 @@ std::string Invocation::path(std::string_view option) const {
   });
 }
 
-std::optional<std::string> Invocation::optional_output_path(std::string_view option) const {
+namespace {
+
+/// The bytes a file of the kind `path`'s extension names begins with ("" when any file may be
+/// replaced: there is no such kind), and the kind's name.
+std::pair<std::vector<std::string>, std::string> signatures_of(const std::string& path) {
+  const auto dot = path.find_last_of('.');
+  const auto slash = path.find_last_of('/');
+  std::string ext;
+  if (dot != std::string::npos && (slash == std::string::npos || dot > slash)) {
+    ext = to_lower(path.substr(dot + 1));
+  }
+  if (ext == "pdf") return {{"%PDF-"}, "PDF"};
+  if (ext == "png") return {{"\x89PNG\r\n\x1a\n"}, "PNG image"};
+  if (ext == "svg") return {{"<?xml", "<svg"}, "SVG image"};
+  return {{}, ""};
+}
+
+/// The first `n` bytes of the regular file `path` (fewer when it is shorter).
+std::string first_bytes(const std::string& path, std::size_t n) {
+  std::string out(n, '\0');
+  const int fd = ::open(path.c_str(), O_RDONLY | O_NONBLOCK | O_NOCTTY | O_CLOEXEC);
+  if (fd < 0) return {};
+  const ssize_t got = ::read(fd, out.data(), n);
+  ::close(fd);
+  out.resize(got > 0 ? static_cast<std::size_t>(got) : 0);
+  return out;
+}
+
+bool same_file(const struct stat& a, const std::string& other) {
+  struct stat b {};
+  return ::stat(other.c_str(), &b) == 0 && a.st_dev == b.st_dev && a.st_ino == b.st_ino;
+}
+
+}  // namespace
+
+std::optional<std::string> Invocation::optional_output_path(std::string_view option,
+                                                            Replaces replaces) const {
   if (!has(option)) return std::nullopt;
   const std::string p = path(option);
+  const std::string name(option);
   struct stat st {};
-  if (::lstat(p.c_str(), &st) == 0 && !S_ISREG(st.st_mode)) {
-    throw option_error(std::string(option),
-                       std::string(option) + " '" + p + "' exists and is not a regular file",
+  if (::lstat(p.c_str(), &st) != 0) return p;
+  if (!S_ISREG(st.st_mode)) {
+    throw option_error(name, name + " '" + p + "' exists and is not a regular file",
                        "give the path of a new file, or of an ordinary file to replace");
+  }
+  // The store's own files, however the path is spelled (a hard link included).
+  const std::string store = location();
+  std::vector<std::pair<std::string, std::string>> own;
+  if (!store::is_server_location(store)) {
+    own = {{store, "the store itself"},
+           {store + "-wal", "the store's write-ahead log"},
+           {store + "-shm", "the store's shared-memory file"},
+           {store + "-journal", "the store's journal"}};
+  }
+  if (const auto key = lab_key_if_any()) own.emplace_back(*key, "the lab key");
+  for (const auto& [file, what] : own) {
+    if (same_file(st, file)) {
+      throw option_error(name, name + " '" + p + "' is " + what + ": it is never written over",
+                         "give the path of a new file");
+    }
+  }
+  if (st.st_size == 0) return p;
+  if (replaces == Replaces::Nothing) {
+    throw option_error(name, name + " '" + p + "' exists; a checkpoint never replaces a file",
+                       "give the path of a new file (keep every checkpoint)");
+  }
+  const auto [signatures, kind] = signatures_of(p);
+  const std::string head = first_bytes(p, 8);
+  const bool same_kind = std::any_of(signatures.begin(), signatures.end(), [&](const auto& s) {
+    return head.compare(0, s.size(), s) == 0;
+  });
+  if (!signatures.empty() && !same_kind) {
+    throw option_error(name,
+                       name + " '" + p + "' exists and is not a " + kind + ": it is not replaced",
+                       "give the path of a new file, or move that file away first");
   }
   return p;
 }

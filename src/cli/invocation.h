@@ -84,10 +84,18 @@ class Invocation {
   const std::vector<std::string>& values(std::string_view option) const;
   /// A path of an input file (non-empty, no NUL); the file itself is checked when opened.
   std::string path(std::string_view option) const;
-  /// A path to write a file to (a plot, a report): the same text rules as path(); refused when
-  /// something that is not a regular file is already there (writing to a named pipe or a device
-  /// would block or vanish). nullopt when the option was not given.
-  std::optional<std::string> optional_output_path(std::string_view option) const;
+  /// What a file written with optional_output_path may replace.
+  enum class Replaces {
+    Nothing,  ///< a record kept as evidence (a checkpoint): never an existing file
+    SameKind  ///< an earlier file of the kind its extension names (.pdf, .png, .svg), or empty
+  };
+  /// A path to write a file to (a plot, a report, a checkpoint): the same text rules as path();
+  /// refused when something that is not a regular file is already there (writing to a named pipe
+  /// or a device would block or vanish), when it is one of the store's own files (the SQLite
+  /// file, its journals, the lab key), and when it holds a file `replaces` does not allow.
+  /// nullopt when the option was not given.
+  std::optional<std::string> optional_output_path(std::string_view option,
+                                                  Replaces replaces = Replaces::SameKind) const;
   /// Exactly one of two flags; UsageError naming both otherwise.
   bool either(std::string_view first, std::string_view second) const;
 

@@ -115,6 +115,61 @@ TEST_CASE("e2e output files: a bad plot path is refused before anything happens"
   CHECK(cw::test::table_row_counts(box) == counts);
 }
 
+TEST_CASE("e2e output files: the store's own files are never written over", "[e2e][sqlite-only]") {
+  Sandbox box;
+  populate(box, 5, 1);
+  const std::string store_before = cw::test::read_file(box.db());
+  const std::string key_before = cw::test::read_file(box.path("store.db.key"));
+  const auto counts = cw::test::table_row_counts(box);
+  std::filesystem::create_hard_link(box.db(), box.path("other-name.db"));
+  for (const auto& args :
+       std::vector<std::vector<std::string>>{{"audit", "anchor", "--out", "store.db"},
+                                             {"audit", "anchor", "--out", "store.db.key"},
+                                             {"audit", "anchor", "--out", "other-name.db"},
+                                             {"audit", "anchor", "--out", "./store.db"},
+                                             {"report", "curve", "1", "--out", "store.db.key"},
+                                             {"curve", "show", "1", "--plot", "store.db"}}) {
+    const RunResult r = box.run(args);
+    INFO(r.describe());
+    CHECK(r.exit_code == 2);
+    CHECK_THAT(r.err, Catch::Contains("it is never written over"));
+  }
+  CHECK(cw::test::read_file(box.db()) == store_before);
+  CHECK(cw::test::read_file(box.path("store.db.key")) == key_before);
+  CHECK(cw::test::table_row_counts(box) == counts);
+  CHECK(box.run({"audit", "verify"}).exit_code == 0);
+}
+
+TEST_CASE(
+    "e2e output files: a report replaces only an earlier file of its kind; a checkpoint "
+    "nothing",
+    "[e2e]") {
+  Sandbox box;
+  populate(box, 5, 1);
+  box.write_file("notes.pdf", "minutes of the lab meeting\n");
+  const RunResult pdf = box.run({"report", "curve", "1", "--out", "notes.pdf"});
+  INFO(pdf.describe());
+  CHECK(pdf.exit_code == 2);
+  CHECK_THAT(pdf.err, Catch::Contains("exists and is not a PDF"));
+  CHECK(cw::test::read_file(box.path("notes.pdf")) == "minutes of the lab meeting\n");
+  // An earlier report is replaced; so is an empty file.
+  run_ok(box, {"report", "curve", "1", "--out", "curve.pdf"});
+  run_ok(box, {"report", "curve", "1", "--out", "curve.pdf"});
+  box.write_file("empty.png", "");
+  run_ok(box, {"curve", "show", "1", "--plot", "empty.png"});
+  run_ok(box, {"curve", "show", "1", "--plot", "empty.png"});
+  box.write_file("notes.svg", "<html></html>\n");
+  CHECK(box.run({"curve", "show", "1", "--plot", "notes.svg"}).exit_code == 2);
+  // A checkpoint is kept: a second one to the same file is refused, the first unchanged.
+  run_ok(box, {"audit", "anchor", "--out", "day1.anchor"});
+  const std::string first = cw::test::read_file(box.path("day1.anchor"));
+  const RunResult again = box.run({"audit", "anchor", "--out", "day1.anchor"});
+  INFO(again.describe());
+  CHECK(again.exit_code == 2);
+  CHECK_THAT(again.err, Catch::Contains("a checkpoint never replaces a file"));
+  CHECK(cw::test::read_file(box.path("day1.anchor")) == first);
+}
+
 TEST_CASE("e2e output files: '-' reads a method or points file from standard input", "[e2e]") {
   Sandbox box;
   run_ok(box, {"init", "--tz", "UTC"});
