@@ -47,17 +47,40 @@ User acting_user(Session& s, store::ReadUnit& unit) {
                    "an admin enables it with 'curvewarden user enable " + code + " --reason TEXT'"),
         source);
   }
+  // An act recorded as of an earlier moment (--at) needs the user's standing then too.
+  const UserEvent* then = u->standing_at(s.at());
+  if (then == nullptr) {
+    throw with_source(
+        UsageError(source + " " + quote(code) + " was not yet registered at " +
+                       s.zone().format_local(s.at()) + " (registered " +
+                       s.zone().format_local(u->registered_at) + ")",
+                   "record the act at or after the user's registration, or as the user who "
+                   "did it"),
+        source);
+  }
+  if (then->status != UserStatus::Enabled) {
+    throw with_source(
+        UsageError(source + " " + quote(code) + " was a disabled user at " +
+                       s.zone().format_local(s.at()) + " (" + then->reason + ")",
+                   "record the act as the user who did it, at a moment that user was enabled"),
+        source);
+  }
   return *u;
 }
 
 User authorize(Session& s, store::WriteUnit& unit, Permission permission, const std::string& action,
                const std::string& kind, const std::string& id) {
   User u = acting_user(s, unit);
-  if (!role_permits(u.role(), permission)) {
-    refuse(unit, action, kind, id, {Reason::NotPermitted},
-           "user " + u.code + " (" + std::string(to_string(u.role())) +
-               ") may not do this: it needs the right to " + std::string(to_string(permission)),
-           s.at(), "ask a user whose role allows it; 'curvewarden user list' shows the roles");
+  // The right is needed now, and at the moment the act is recorded as of (--at).
+  const Role then = u.standing_at(s.at())->role;
+  for (const Role role : {u.role(), then}) {
+    if (!role_permits(role, permission)) {
+      refuse(unit, action, kind, id, {Reason::NotPermitted},
+             "user " + u.code + " (" + std::string(to_string(role)) +
+                 (role != u.role() ? " at " + s.zone().format_local(s.at()) : "") +
+                 ") may not do this: it needs the right to " + std::string(to_string(permission)),
+             s.at(), "ask a user whose role allows it; 'curvewarden user list' shows the roles");
+    }
   }
   return u;
 }

@@ -69,6 +69,14 @@ std::span<const Permission> all_permissions() {
   return kPermissionList;
 }
 
+const UserEvent* User::standing_at(Instant t) const {
+  const UserEvent* in_force = nullptr;
+  for (const UserEvent& e : events) {
+    if (e.occurred_at <= t) in_force = &e;
+  }
+  return in_force;
+}
+
 bool role_permits(Role role, Permission permission) {
   for (const Grant& g : kGrants) {
     if (g.permission != permission) continue;

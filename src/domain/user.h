@@ -71,6 +71,9 @@ struct User {
   const UserEvent& current() const { return events.back(); }
   bool enabled() const { return current().status == UserStatus::Enabled; }
   Role role() const { return current().role; }
+  /// The event in force at `t`: the latest at or before it; nullptr before the user was
+  /// registered. An act recorded as of `t` (--at) needs the user's standing then as well as now.
+  const UserEvent* standing_at(Instant t) const;
 };
 
 }  // namespace cw

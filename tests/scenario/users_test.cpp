@@ -105,6 +105,54 @@ TEST_CASE("users: an unknown or disabled user records nothing (exit 2)", "[scena
   CHECK(verify(lab) == "true 0");
 }
 
+TEST_CASE("users: an act recorded as of an earlier moment needs the user's standing then",
+          "[scenario]") {
+  Lab lab;
+  const std::string id = lab_with_curve(lab);
+  // Bob is disabled from 10:05 to 10:15, Zoe registered at 10:30.
+  REQUIRE(lab.run_at("2026-03-02T10:05:00Z", {"user", "disable", "bob", "--reason", "on leave"})
+              .exit_code == 0);
+  REQUIRE(
+      lab.run_at("2026-03-02T10:15:00Z", {"user", "enable", "bob", "--reason", "back"}).exit_code ==
+      0);
+  const auto added = lab.run_at("2026-03-02T10:30:00Z",
+                                {"user", "add", "zoe", "--name", "Zoe Test", "--role", "reviewer"});
+  INFO(added.describe());
+  REQUIRE(added.exit_code == 0);
+  const auto before = lab.counts();
+  const std::string head = lab.sql("SELECT hash FROM audit_log ORDER BY seq DESC LIMIT 1");
+  // Both now enabled reviewers, each recording an approval as of a moment they could not act.
+  const auto back_dated = [&](const std::string& who, const std::string& at) {
+    return lab.box.run(
+        {"--json", "--at", at, "--as", who, "curve", "review", id, "--approve", "--reason", "ok"},
+        {{"CURVEWARDEN_NOW", "2026-03-02T11:00:00Z"}});
+  };
+  const auto disabled = back_dated("bob", "2026-03-02T10:10:00Z");
+  INFO(disabled.describe());
+  CHECK(disabled.exit_code == 2);
+  CHECK_THAT(disabled.err, Catch::Contains("--as 'bob' was a disabled user at 2026-03-02 10:10"));
+  CHECK(disabled.json().at("error").at("option") == "--as");
+  const auto unregistered = back_dated("zoe", "2026-03-02T10:20:00Z");
+  INFO(unregistered.describe());
+  CHECK(unregistered.exit_code == 2);
+  CHECK_THAT(unregistered.err, Catch::Contains("--as 'zoe' was not yet registered at"));
+  CHECK(lab.counts() == before);
+  CHECK(lab.sql("SELECT hash FROM audit_log ORDER BY seq DESC LIMIT 1") == head);
+  // At a moment each could act, the same act is recorded.
+  const auto ok = back_dated("zoe", "2026-03-02T10:45:00Z");
+  INFO(ok.describe());
+  CHECK(ok.exit_code == 0);
+  // Shown as of a moment before the approval, the curve has no review yet.
+  for (const auto& [at, reviews] : std::vector<std::pair<std::string, std::size_t>>{
+           {"2026-03-02T10:40:00Z", 0}, {"2026-03-02T10:50:00Z", 1}}) {
+    const auto shown = lab.box.run({"--json", "--at", at, "curve", "show", id},
+                                   {{"CURVEWARDEN_NOW", "2026-03-02T11:00:00Z"}});
+    INFO(shown.describe());
+    CHECK(shown.json().at("reviews").size() == reviews);
+  }
+  CHECK(verify(lab) == "true 0");
+}
+
 TEST_CASE("users: an admin cannot demote itself, so that one admin always remains", "[scenario]") {
   Lab lab;
   const auto before = lab.counts();
