@@ -8,6 +8,9 @@ CurveView make_view(FactSet& facts, CurveId id, const CurveStatus& status, Insta
   CurveView v;
   const Curve& c = facts.curve(id);
   v.curve = c;
+  // What was recorded as of a later moment is not shown as of `at`.
+  std::erase_if(v.curve.reviews, [at](const CurveReview& r) { return r.occurred_at > at; });
+  std::erase_if(v.curve.retirements, [at](const CurveRetirement& r) { return r.occurred_at > at; });
   v.method_code = facts.method(c.method_id).code;
   v.version = facts.version_of(id);
   v.instrument_code = facts.instrument(c.instrument_id).code;

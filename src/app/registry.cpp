@@ -202,12 +202,14 @@ Instrument add_instrument(Session& s, const std::string& code,
 
 std::vector<Instrument> list_instruments(Session& s) {
   auto unit = s.read();
-  return unit->registry().instruments();
+  std::vector<Instrument> out = unit->registry().instruments();
+  for (Instrument& i : out) i = i.known_at(s.at());
+  return out;
 }
 
 Instrument show_instrument(Session& s, const std::string& code) {
   auto unit = s.read();
-  return get_instrument(*unit, code);
+  return get_instrument(*unit, code).known_at(s.at());
 }
 
 Instrument save_instrument_columns(Session& s, const std::string& code,
@@ -392,12 +394,14 @@ Lot add_lot(Session& s, Lot lot) {
 
 std::vector<Lot> list_lots(Session& s) {
   auto unit = s.read();
-  return unit->registry().lots();
+  std::vector<Lot> out = unit->registry().lots();
+  for (Lot& lot : out) lot = lot.known_at(s.at());
+  return out;
 }
 
 Lot show_lot(Session& s, const std::string& code) {
   auto unit = s.read();
-  return get_lot(*unit, code);
+  return get_lot(*unit, code).known_at(s.at());
 }
 
 Lot withdraw_lot(Session& s, const std::string& code, const std::string& reason) {

@@ -37,6 +37,13 @@ const SavedColumns* Instrument::columns_at(Instant t) const {
   return last != nullptr && !last->columns.empty() ? last : nullptr;
 }
 
+Instrument Instrument::known_at(Instant t) const {
+  Instrument out = *this;
+  std::erase_if(out.service, [t](const ServiceEvent& e) { return e.occurred_at > t; });
+  std::erase_if(out.columns, [t](const SavedColumns& c) { return c.occurred_at > t; });
+  return out;
+}
+
 bool Instrument::in_service_at(Instant t) const {
   return out_of_service_event_at(t) == nullptr;
 }

@@ -46,6 +46,9 @@ struct Instrument {
   /// The column mapping in force at `t` (the latest saved at or before `t`), nullptr when none
   /// was saved or the latest one is empty.
   const SavedColumns* columns_at(Instant t) const;
+  /// The instrument as it was known at `t`: its service events and saved mappings up to `t`
+  /// (what `instrument show --at` lists).
+  Instrument known_at(Instant t) const;
 };
 
 }  // namespace cw

@@ -48,6 +48,12 @@ struct Lot {
   }
   bool is_expired_at(Instant t, const LabZone& zone) const { return t >= expiry_instant(zone); }
   bool is_withdrawn_at(Instant t) const { return withdrawal && withdrawal->occurred_at <= t; }
+  /// The lot as it was known at `t`: without a withdrawal recorded as of a later moment.
+  Lot known_at(Instant t) const {
+    Lot out = *this;
+    if (!is_withdrawn_at(t)) out.withdrawal.reset();
+    return out;
+  }
   const CertifiedValue* value_for(const std::string& analyte) const;
   double coverage() const { return coverage_factor.value_or(2.0); }
 };

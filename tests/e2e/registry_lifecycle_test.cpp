@@ -199,6 +199,35 @@ TEST_CASE("e2e registry: init, instrument, method, revision, lot and withdrawal"
   CHECK_THAT(text.out, Catch::Contains("Audit trail intact: 6 entries"));
 }
 
+TEST_CASE("e2e registry: shown as of a moment, nothing recorded after it appears", "[e2e]") {
+  Sandbox box;
+  box.now = "2026-03-04T09:00:00Z";
+  REQUIRE(box.run({"init", "--tz", "UTC"}).exit_code == 0);
+  REQUIRE(box.run({"instrument", "add", "IC-02"}).exit_code == 0);
+  REQUIRE(box.run({"lot", "add", "CRM-1", "--material", "m", "--expires", "2027-03-31", "--value",
+                   "nitrate=1000"})
+              .exit_code == 0);
+  box.now = "2026-03-05T10:00:00Z";
+  REQUIRE(box.run({"instrument", "service", "IC-02", "--out", "--reason", "pump seal"}).exit_code ==
+          0);
+  REQUIRE(box.run({"lot", "withdraw", "CRM-1", "--reason", "seal broken"}).exit_code == 0);
+  for (const char* at : {"2026-03-05T09:00:00Z", "2026-03-05T11:00:00Z"}) {
+    INFO(at);
+    const bool after = std::string(at) > "2026-03-05T10:00:00Z";
+    const Json i = ok_json(box, {"instrument", "show", "IC-02", "--at", at, "--json"});
+    CHECK(i["service"].size() == (after ? 1u : 0u));
+    CHECK(i["in_service"] == !after);
+    const Json lot = ok_json(box, {"lot", "show", "CRM-1", "--at", at, "--json"});
+    CHECK(lot["status"] == (after ? "withdrawn" : "usable"));
+    CHECK(lot["withdrawn_at"].is_null() == !after);
+    CHECK(lot["withdrawal_reason"].is_null() == !after);
+    const Json lots = ok_json(box, {"lot", "list", "--at", at, "--json"});
+    CHECK(lots["lots"][0]["withdrawn_at"].is_null() == !after);
+    const RunResult text = box.run({"lot", "show", "CRM-1", "--at", at});
+    CHECK((text.out.find("seal broken") == std::string::npos) == !after);
+  }
+}
+
 TEST_CASE("e2e registry: the text output of the registry commands", "[e2e]") {
   Sandbox box;
   box.write_file("anion.toml", cw::test::method_toml());
