@@ -268,11 +268,21 @@ CurveLogOutcome log_calibration(Session& s, const CurveLogRequest& r) {
     outcome.warnings.push_back("columns not used (" + now.mapping->source +
                                " is in force): " + list);
   }
+  // Every curve traces to a certified value of its analyte (calibration-practice.md §6.5), whose
+  // uncertainty enters every result's budget: a curve no lot certifies is not logged.
   for (const auto& analyte : fitted.points.analytes) {
     const bool certified = std::any_of(now.lots.begin(), now.lots.end(),
                                        [&](const Lot& l) { return l.value_for(analyte); });
     if (!certified) {
-      outcome.warnings.push_back("no lot given certifies a value for analyte '" + analyte + "'");
+      std::string given;
+      for (const auto& l : now.lots) given += (given.empty() ? "" : ", ") + l.code;
+      throw option_error(
+          "--lot",
+          "no lot given (" + given + ") certifies a value for analyte " + quote(analyte) +
+              ": its curve would not trace to a reference "
+              "material; nothing was logged",
+          "name every lot the calibrators were made from, e.g. --lot A,B ('curvewarden "
+          "lot list' shows what each certifies)");
     }
   }
   for (const auto& analyte : version.definition.analytes) {

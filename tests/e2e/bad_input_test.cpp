@@ -67,8 +67,9 @@ std::string points_with(size_t n, const std::string& line) {
 }
 
 /// The store every case starts from: lab in Europe/Berlin, instrument IC-02, method ANION-IC
-/// (version 1, from anion.toml), lot CRM-1, and calibration 1 (curves 1 nitrate and 2 sulfate)
-/// logged by alice and approved by bob, so that checks and quantitation reach their decisions.
+/// (version 1, from anion.toml), lot CRM-1 (and CRM-N, nitrate only), and calibration 1 (curves 1
+/// nitrate and 2 sulfate) logged by alice and approved by bob, so that checks and quantitation
+/// reach their decisions.
 void populate(Sandbox& box) {
   box.write_file("anion.toml", cw::test::method_toml());
   box.write_file("good.csv", kPoints);
@@ -80,6 +81,8 @@ void populate(Sandbox& box) {
            {"method", "add", "anion.toml"},
            {"lot", "add", "CRM-1", "--material", "Nitrate CRM", "--expires", "2027-03-31",
             "--value", "nitrate=1000±5", "--value", "sulfate=1000±5"},
+           {"lot", "add", "CRM-N", "--material", "Nitrate CRM", "--expires", "2027-03-31",
+            "--value", "nitrate=1000±5"},
            {"curve", "log", "--method", "ANION-IC", "--instrument", "IC-02", "--lot", "CRM-1",
             "--points", "good.csv"},
            {"curve", "review", "1", "--approve", "--reason", "checked", "--as", "bob"},
@@ -274,6 +277,15 @@ std::vector<BadCase> cases() {
                                std::string((1u << 20) - cw::test::method_toml().size(), 'x'))),
 
       // ------------------------------------------------------------------------ points files
+      [] {
+        // calibration-practice.md §6.5: a curve traces to a certified value of its analyte.
+        BadCase c =
+            option_case("a calibration with an analyte no lot certifies",
+                        {"curve", "log", "--method", "ANION-IC", "--instrument", "IC-02", "--lot",
+                         "CRM-N", "--points", "good.csv"},
+                        "no lot given (CRM-N) certifies a value for analyte 'sulfate'", "--lot");
+        return c;
+      }(),
       file_case("points file that is a named pipe", curve_log("pipe.csv"),
                 "--points 'pipe.csv': is a named pipe (FIFO)", "pipe.csv", std::nullopt,
                 fifo("pipe.csv"), 1.0),
