@@ -60,6 +60,7 @@ void FactSet::load(const std::vector<CurveId>& ids, store::CurveDetail detail) {
       if (had < store::CurveDetail::Statistics) {
         it->second->fit = std::move(c.fit);
         it->second->acceptance = std::move(c.acceptance);
+        it->second->lowest_level = c.lowest_level;
       }
       if (detail == store::CurveDetail::Points) it->second->points = std::move(c.points);
       detail_[id] = detail;

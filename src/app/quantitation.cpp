@@ -60,7 +60,8 @@ CheckOutcome log_check(Session& s, const CheckRequest& r) {
   CheckOutcome out;
   {
     FactSet facts(*unit, s.zone());
-    const Curve& c = facts.curve(r.curve);
+    // With its points: a check's range starts at the curve's lowest calibrator.
+    const Curve& c = facts.curve(r.curve, store::CurveDetail::Points);
     const MethodDefinition& d = facts.version_of(r.curve).definition;
     out.unit = d.unit;
     require_acquired(at, c, s.zone());
@@ -188,7 +189,8 @@ QuantifyOutcome quantify(Session& s, const QuantifyRequest& r) {
     }
     QuantitationDecision decision;
     if (chosen) {
-      const Curve& c = facts.curve(*chosen);
+      // With its points: results are released below the curve's lowest calibrator.
+      const Curve& c = facts.curve(*chosen, store::CurveDetail::Points);
       require_acquired(at, c, s.zone());
       const MethodVersion& version = facts.version_of(*chosen);
       const CurveStatus status = facts.status(*chosen, at);

@@ -243,6 +243,8 @@ RunImportOutcome import_run(Session& s, const RunImportRequest& r) {
     a.analyte = analyte;
     a.curve = *chosen;
     facts.load(live);  // in one batch: the chosen curve and its newer ones are read in full
+    // Its points too: the release limit and a check's range start at its lowest calibrator.
+    facts.load({*chosen}, store::CurveDetail::Points);
     a.facts = facts.facts(*chosen);
     for (CurveId other : live) {
       const Curve& o = facts.curve(other);

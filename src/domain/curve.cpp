@@ -4,6 +4,9 @@
 
 #include "domain/enum_text.h"
 
+#include <stdexcept>
+#include <string>
+
 namespace cw {
 namespace {
 
@@ -28,6 +31,13 @@ std::optional<ReviewDecision> parse_review_decision(std::string_view text) {
 }
 
 double lowest_calibrator(const Curve& curve) {
+  // Every curve has its points stored; a curve read without them would give the fit's range,
+  // which starts at a zero calibrator, and release or verify below the lowest real one.
+  if (curve.points.empty()) {
+    if (curve.lowest_level) return *curve.lowest_level;
+    throw std::logic_error("curve " + std::to_string(curve.id.value) +
+                           " was read without its points, which its lowest calibrator needs");
+  }
   std::optional<double> lowest;
   for (const auto& p : curve.points) {
     if (p.excluded || !(p.nominal > 0)) continue;

@@ -87,13 +87,17 @@ struct Curve {
   std::vector<fitting::Criterion> failed_criteria;  ///< each failing criterion once, in order
   Instant expires_at;
   std::vector<CalibrationPoint> points;
+  /// lowest_calibrator() as the store reads it with the statistics (a curve read without its
+  /// points); nullopt when not read.
+  std::optional<double> lowest_level;
   std::vector<CurveReview> reviews;          ///< in time order
   std::vector<CurveRetirement> retirements;  ///< in time order
 };
 
 /// The lowest calibrator that is not a blank, among the levels fitted (not excluded): a zero
-/// level bounds nothing from below (calibration-practice.md §4.4, LLOQ). The fit's range_low
-/// when the points are not loaded.
+/// level bounds nothing from below (calibration-practice.md §4.4, LLOQ); the fit's range_low
+/// when every level is excluded or zero. From `lowest_level` when the points were not read; a
+/// logic_error when neither was (a curve read with its state only).
 double lowest_calibrator(const Curve& curve);
 
 }  // namespace cw

@@ -32,6 +32,8 @@ Json run_result_json(const store::RunResultRow& row) {
          {"result_id", r.id.value},
          {"status", std::string(to_string(r.current_status()))},
          {"concentration", json_number(r.concentration)},
+         {"censored", r.censored ? Json("<") : Json(nullptr)},
+         {"reporting_limit", json_number(r.reporting_limit)},
          {"flags", tokens(r.flags)},
          {"reasons", reason_tokens(r.reasons)},
          {"ci_low", json_number(r.ci_low)},

@@ -467,6 +467,7 @@ class Generator {
         retire.curves = {curve.id};
         pending_.push(std::move(retire));
       }
+      curve.lowest_level = lowest_calibrator(curve);  // what the store reads in their place
       curve.points.clear();
       run.curves.push_back(curve.id);
       run.fitted.push_back(curve);

@@ -220,6 +220,26 @@ TEST_CASE("run import: a blank above its limit fails its bracket like a check", 
   CHECK(run.at("summary").at("nitrate").at("blanks_failed") == 1);
 }
 
+TEST_CASE("run import: a censored result shows what was released, in the run and its show",
+          "[scenario][run]") {
+  RunLab rl;
+  // 2.5 reads about 0.1 mg/L on M1, below the lowest non-zero calibrator (2 mg/L).
+  const std::string csv = std::string(kRunHeader) +
+                          row(1, "check", "CCV", "nitrate", kNitratePass, "6") +
+                          row(2, "sample", "W-low", "nitrate", "2.5") +
+                          row(3, "check", "CCV", "nitrate", kNitratePass, "6");
+  const Json run = rl.import_json("low.csv", csv, 0);
+  const Json shown =
+      rl.lab.json_at(kRunAt, {"run", "show", std::to_string(run.at("run_id").get<int>())});
+  for (const Json* doc : {&run, &shown}) {
+    const Json& r = result_of(*doc, "W-low");
+    CHECK(r.at("status") == "reported");
+    CHECK(r.at("concentration").is_null());
+    CHECK(r.at("censored") == "<");
+    CHECK(r.at("reporting_limit").get<double>() == 2.0);
+  }
+}
+
 TEST_CASE("run import: a run read from standard input, redirected from a file or piped",
           "[scenario][run]") {
   RunLab rl;
@@ -360,14 +380,15 @@ TEST_CASE("run import: a bad row near the end of a large run leaves the store as
     CHECK(r.json().at("error").at("line") == 2991);
   }
   SECTION("found only while deciding inside the transaction: everything is rolled back") {
-    // A nominal so small that the recovery overflows: the row is well formed, and the problem
-    // shows only when the check is judged on the curve, after 2988 rows were written.
+    // A nominal below the curve's lowest calibrator that is not a blank (2 mg/L; M1 has a zero
+    // level): the row is well formed, and the problem shows only when the check is judged on the
+    // curve, after 2988 rows were written.
     const RunResult r =
-        rl.import("late.csv", build(row(2990, "check", "CCV", "nitrate", kNitratePass, "1e-307")));
+        rl.import("late.csv", build(row(2990, "check", "CCV", "nitrate", kNitratePass, "1.5")));
     INFO(r.describe());
     CHECK(r.exit_code == 2);
     CHECK_THAT(r.err, Catch::Contains("late.csv:2991:6"));
-    CHECK_THAT(r.err, Catch::Contains("the recovery from 'response' and 'nominal'"));
+    CHECK_THAT(r.err, Catch::Contains("lies outside the curve's working range, 2 to 12"));
   }
   CHECK(rl.lab.counts() == counts_before);
   CHECK(rl.lab.sql("SELECT hash FROM audit_log ORDER BY seq DESC LIMIT 1") == head_before);

@@ -256,6 +256,14 @@ std::vector<Curve> PgCurves::curves(const std::vector<CurveId>& ids, CurveDetail
     const auto curve_at = [&](Statement& s) -> Curve& {
       return out[index.at(CurveId{s.getColumn(0).getInt64()})];
     };
+    if (detail == CurveDetail::Statistics) {
+      // What the release limit and a check's range start at, without reading the points.
+      for (Curve& c : out) c.lowest_level = c.fit.range_low;
+      auto& s = db_.statement(sql::kLowestLevelsOf);
+      bind_ids(s, ":ids", ids);
+      while (s.executeStep()) curve_at(s).lowest_level = s.getColumn(1).getDouble();
+      s.reset();
+    }
     if (detail == CurveDetail::Points) {
       auto& s = db_.statement(sql::kPointsOf);
       bind_ids(s, ":ids", ids);

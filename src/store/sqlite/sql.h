@@ -145,6 +145,11 @@ inline constexpr const char* kPointsOf =
     "SELECT curve_id, source_line, level, replicate, nominal, response, is_response, y, "
     "back_calculated, error_pct, within_limits, excluded, exclude_reason FROM curve_points "
     "WHERE curve_id IN (SELECT value FROM json_each(:ids)) ORDER BY curve_id, id";
+/// The lowest fitted calibrator above zero of each curve (none: no row).
+inline constexpr const char* kLowestLevelsOf =
+    "SELECT curve_id, min(nominal) FROM curve_points WHERE curve_id IN (SELECT value FROM "
+    "json_each(:ids)) "
+    "AND excluded = 0 AND nominal > 0 GROUP BY curve_id";
 inline constexpr const char* kReviewsOf =
     "SELECT curve_id, decision, reviewer, reason, occurred_at FROM curve_reviews "
     "WHERE curve_id IN (SELECT value FROM json_each(:ids)) ORDER BY curve_id, occurred_at, id";

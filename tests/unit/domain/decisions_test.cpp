@@ -34,12 +34,18 @@ cw::MethodDefinition method() {
   return d;
 }
 
+/// The §9 M1 curve with its calibrators (the levels its lowest calibrator is read from).
 cw::Curve m1_curve() {
   cw::Curve c;
   c.id = cw::CurveId{1};
   c.analyte = "fluorescein";
   c.fit = m1_fit();
   c.verdict = cw::Verdict::Accepted;
+  for (double level : {0, 2, 4, 6, 8, 10, 12}) {
+    cw::CalibrationPoint p;
+    p.nominal = level;
+    c.points.push_back(p);
+  }
   return c;
 }
 
@@ -107,21 +113,15 @@ TEST_CASE("check judgement: bad readings are bad input naming the option", "[dom
           cw::judge_check({cw::CheckKind::Blank, 2.0, 2.9, std::nullopt}, curve, method());
         }).option() == "--nominal");
   // A check outside the working range would be read by extrapolation (calibration-practice.md
-  // §4.4); its ends are inside. With the points loaded the range starts at the lowest calibrator
-  // that is not a blank (2 pg/mL, §9 M1), without them at the fit's lowest level (0).
+  // §4.4); its ends are inside. The range starts at the lowest calibrator that is not a blank
+  // (2 pg/mL, §9 M1), not at the fit's lowest level (the zero calibrator).
   const auto above = validation_error([&] {
     cw::judge_check({cw::CheckKind::Check, 12.5, 13.5, std::nullopt}, curve, method());
   });
   CHECK(above.option() == "--nominal");
-  CHECK_THAT(above.what(), Catch::Contains("outside the curve's working range, 0 to 12"));
+  CHECK_THAT(above.what(), Catch::Contains("outside the curve's working range, 2 to 12"));
   CHECK_NOTHROW(cw::judge_check({cw::CheckKind::Check, 12.0, 13.5, std::nullopt}, curve, method()));
   cw::Curve with_points = m1_curve();
-  const double x[] = {0, 2, 4, 6, 8, 10, 12};
-  for (double level : x) {
-    cw::CalibrationPoint p;
-    p.nominal = level;
-    with_points.points.push_back(p);
-  }
   const auto below = validation_error([&] {
     cw::judge_check({cw::CheckKind::Check, 1.0, 2.9, std::nullopt}, with_points, method());
   });
@@ -134,10 +134,24 @@ TEST_CASE("check judgement: bad readings are bad input naming the option", "[dom
         cw::judge_check({cw::CheckKind::Check, 2.0, 5.0, std::nullopt}, with_points, method());
       }).what(),
       Catch::Contains("range, 4 to 12"));
-  // A nominal so small that 100·measured/nominal overflows to infinity (the fit alone: a range
-  // that starts at its zero level).
+  // Read without its points, the curve's lowest calibrator is the one the store read with its
+  // statistics; read with neither, it is a mistake of the caller, never a range from zero.
+  cw::Curve statistics_only = m1_curve();
+  statistics_only.points.clear();
+  CHECK_THROWS_AS(
+      cw::judge_check({cw::CheckKind::Check, 6.0, 13.5, std::nullopt}, statistics_only, method()),
+      std::logic_error);
+  statistics_only.lowest_level = 2.0;
+  CHECK_THAT(
+      validation_error([&] {
+        cw::judge_check({cw::CheckKind::Check, 1.0, 2.9, std::nullopt}, statistics_only, method());
+      }).what(),
+      Catch::Contains("range, 2 to 12"));
+  // A nominal so small that 100·measured/nominal overflows to infinity (a curve whose lowest
+  // calibrator is that small).
+  statistics_only.lowest_level = 1e-308;
   const auto overflow = validation_error([&] {
-    cw::judge_check({cw::CheckKind::Check, 1e-307, 13.5, std::nullopt}, curve, method());
+    cw::judge_check({cw::CheckKind::Check, 1e-307, 13.5, std::nullopt}, statistics_only, method());
   });
   CHECK_THAT(overflow.what(), Catch::Contains("is not a finite number"));
   CHECK(validation_error([&] {
@@ -174,12 +188,18 @@ TEST_CASE("quantitation: above the range is refused with a dilution, below it is
   CHECK(above.reasons[0].reason == cw::Reason::AboveRange);
   CHECK(above.suggested_dilution == 2.0);
   CHECK_FALSE(above.concentration.has_value());
-  // y0 = 1.0 reads below the intercept: below the lowest calibrator (0), flagged.
-  const auto below =
-      cw::decide_quantitation(c, active(), method(), {}, {1.0, std::nullopt, 1, 1.0});
-  CHECK(below.status == cw::ResultStatus::Reported);
-  CHECK(below.flags == std::vector<cw::ResultFlag>{cw::ResultFlag::BelowRange});
-  CHECK(below.reporting_limit == 0.0);
+  // y0 = 1.0 reads below the intercept, and y0 = 2.5 about 0.51 pg/mL: both below the lowest
+  // calibrator that is not a blank (2), released as "< 2" (a zero level bounds nothing).
+  for (const double y : {1.0, 2.5}) {
+    INFO(y);
+    const auto below =
+        cw::decide_quantitation(c, active(), method(), {}, {y, std::nullopt, 1, 1.0});
+    CHECK(below.status == cw::ResultStatus::Reported);
+    CHECK(below.flags == std::vector<cw::ResultFlag>{cw::ResultFlag::BelowRange});
+    CHECK(below.censored);
+    CHECK_FALSE(below.concentration.has_value());
+    CHECK(below.reporting_limit == 2.0);
+  }
 }
 
 TEST_CASE("quantitation: a curve that is not active refuses with every blocking reason",
