@@ -44,7 +44,7 @@ RunResult run_lone(const Sandbox& box, const fs::path& binary,
 
 }  // namespace
 
-TEST_CASE("e2e modules: the binary starts without libpq and cairo; its modules carry them",
+TEST_CASE("e2e modules: the binary starts without libpq and cairo, its modules carry them",
           "[e2e][sqlite-only]") {
   const fs::path binary = cw::test::binary_path();
   const std::string own = needed_libraries(binary);

@@ -141,7 +141,7 @@ TEST_CASE("e2e output files: the store's own files are never written over", "[e2
 }
 
 TEST_CASE(
-    "e2e output files: a report replaces only an earlier file of its kind; a checkpoint "
+    "e2e output files: a report replaces only an earlier file of its kind, a checkpoint "
     "nothing",
     "[e2e]") {
   Sandbox box;
