@@ -2,6 +2,8 @@
 // Error messages and the JSON error object.
 #include "cli/error_output.h"
 
+#include "core/text.h"
+
 namespace cw::cli {
 namespace {
 
@@ -35,7 +37,7 @@ void print_error_lines(const Error& e, std::ostream& err) {
     if (loc->line) where += (where.empty() ? "line " : ":") + std::to_string(*loc->line);
     if (loc->column) where += ":" + std::to_string(*loc->column);
     if (!loc->field.empty()) {
-      where += (where.empty() ? "" : " ") + std::string("(") + loc->field + ")";
+      where += (where.empty() ? "" : " ") + std::string("(") + visible_breaks(loc->field) + ")";
     }
   }
   err << "curvewarden: error: " << (where.empty() ? "" : where + ": ") << e.what() << '\n';

@@ -182,7 +182,25 @@ std::string format_sig_against(double value, std::initializer_list<double> refer
 }
 
 std::string quote(std::string_view s) {
-  return "'" + std::string(s) + "'";
+  return "'" + visible_breaks(s) + "'";
+}
+
+std::string visible_breaks(std::string_view s) {
+  // Inside a value a tab or a line break would look like spacing or the end of the message:
+  // written as the escapes readable_message() uses for other control characters.
+  std::string out;
+  for (const char c : s) {
+    if (c == '\t') {
+      out += "\\x09";
+    } else if (c == '\n') {
+      out += "\\x0A";
+    } else if (c == '\r') {
+      out += "\\x0D";
+    } else {
+      out += c;
+    }
+  }
+  return out;
 }
 
 std::string readable_message(std::string_view s, std::size_t max_bytes) {

@@ -46,8 +46,10 @@ std::string format_fixed_against(double value, std::initializer_list<double> ref
 /// The same with significant figures (at least `min_digits`): "about 50.04 mg/L, above 50".
 std::string format_sig_against(double value, std::initializer_list<double> references,
                                int min_digits);
-/// Wraps `s` in single quotes (user values in messages).
+/// Wraps `s` in single quotes (user values in messages), through visible_breaks().
 std::string quote(std::string_view s);
+/// `s` with each tab or line break written as \x09, \x0A or \x0D (a user value in a message).
+std::string visible_breaks(std::string_view s);
 
 /// `s` as a message can show it: control characters other than line breaks and tabs, bytes that
 /// are not UTF-8 and U+FEFF written as \xNN or \u{FEFF}, and text beyond `max_bytes` cut at a

@@ -147,6 +147,13 @@ CsvHeader CsvHeader::read(const std::string& file, const CsvRecord& header,
     } else if (mapping != nullptr) {
       h.ignored_.push_back(raw);
       continue;
+    } else if (raw.find('\t') != std::string::npos || raw.find(';') != std::string::npos) {
+      // One field holding the whole header: another separator than the comma.
+      throw ValidationError(
+          where, "unknown column " + quote(raw),
+          std::string("the fields look separated by ") +
+              (raw.find('\t') != std::string::npos ? "tabs" : "semicolons") +
+              ": save the file as CSV with commas between fields (columns: " + allowed + ")");
     } else {
       throw ValidationError(where, "unknown column " + quote(raw),
                             "columns: " + allowed +

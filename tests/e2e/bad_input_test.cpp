@@ -799,6 +799,17 @@ std::vector<BadCase> cases() {
       file_case("run file: unknown column", run_import("unknown.csv"), "unknown column 'Area'",
                 "unknown.csv", 1,
                 file("unknown.csv", run_with(1, "position,kind,sample,analyte,Area,nominal"))),
+      // Another separator: the header is one field, named with its tabs visible, and the hint
+      // says what to do (no raw tab in the message: the check below finds none).
+      file_case("run file: tab-separated", run_import("tabs.csv"),
+                "unknown column 'position\\x09kind\\x09sample", "tabs.csv", 1,
+                file("tabs.csv",
+                     "position\tkind\tsample\tanalyte\tresponse\n"
+                     "1\tsample\tW-1\tnitrate\t0.3\n")),
+      file_case(
+          "run file: semicolon-separated", run_import("semi.csv"),
+          "unknown column 'position;kind;sample;analyte;response'", "semi.csv", 1,
+          file("semi.csv", "position;kind;sample;analyte;response\n1;sample;W-1;nitrate;0.3\n")),
       file_case(
           "run file: missing column", run_import("missing.csv"), "missing column 'response'",
           "missing.csv", 1,
@@ -1046,8 +1057,9 @@ TEST_CASE("e2e bad input: refused with a named problem and nothing written", "[e
         CHECK_THAT(text.err, Catch::Contains((c.file ? *c.file + ":" : std::string("line ")) +
                                              std::to_string(*c.line)));
       }
-      // Nothing the tool prints can drive the terminal.
+      // Nothing the tool prints can drive the terminal, or hide a value's tabs as spacing.
       CHECK(text.err.find('\x1b') == std::string::npos);
+      CHECK(text.err.find('\t') == std::string::npos);
 
       // --json: the error object on stdout.
       std::vector<std::string> json_args = c.args;
